@@ -1,0 +1,443 @@
+/**
+ * The result block: the one definition of what Evensplit writes beside the
+ * data, shared by the REPORT cell function (which evaluates it) and the side
+ * pane (which writes it as live EVENSPLIT formulas). Because both read these
+ * rows, their labels, values and number formats cannot drift apart.
+ *
+ * A row's value is a small expression (`BlockValue`) with two renderings:
+ * `blockFormula` turns it into the locale-independent formula text that the
+ * pane puts into `Range.formulas`, and `blockValue` evaluates it on cell
+ * matrices through the catalogue's own functions, as REPORT does.
+ */
+import type { Alternative, SignTestMethod, SignedRankMethod, TieRule, ZeroRule } from "../stats/types";
+
+export type BlockTest = "sign" | "signed-rank" | "quantile";
+
+/** What the block is about; everything the wording and the formulas need. */
+export interface BlockRequest {
+  readonly test: BlockTest;
+  /** True: `data` is the first range, `second` the second, and `center` the shift of second − first. */
+  readonly paired: boolean;
+  /** Hypothesised median, shift (paired) or, for the quantile test, the hypothesised value of the quantile. */
+  readonly center: number;
+  /** Quantile test only: which quantile, strictly between 0 and 1. */
+  readonly quantile?: number;
+  readonly alternative: Alternative;
+  readonly alpha: number;
+  readonly confidence: number;
+  readonly ties?: TieRule;
+  readonly method?: SignTestMethod | SignedRankMethod;
+  readonly zeros?: ZeroRule;
+  /** Names used in the wording (column headers); plain text, never markup. */
+  readonly dataName?: string;
+  readonly secondName?: string;
+}
+
+/** An argument of a catalogue call: one of the block's ranges, or a literal. */
+export type Operand = { readonly ref: "data" } | { readonly ref: "second" } | { readonly number: number } | { readonly text: string };
+
+export interface CallValue {
+  readonly kind: "call";
+  /** Catalogue id without the namespace, e.g. "PVALUE". */
+  readonly fn: string;
+  readonly args: readonly Operand[];
+  /** 1-based position in a one-row result; absent for scalar results. */
+  readonly column?: number;
+}
+
+export type BlockValue =
+  | { readonly kind: "text"; readonly text: string }
+  | CallValue
+  /** Number of cells in the data range. */
+  | { readonly kind: "cells"; readonly of: "data" }
+  /** Number of numeric cells in the data range. */
+  | { readonly kind: "numbers"; readonly of: "data" }
+  /** Cells of the data range that are not numbers (blank, text, logical). */
+  | { readonly kind: "skipped"; readonly of: "data" }
+  | { readonly kind: "decision"; readonly pValue: CallValue; readonly alpha: number; readonly reject: string; readonly keep: string };
+
+export type BlockFormat = "text" | "integer" | "number" | "pvalue" | "percent";
+
+export interface BlockRow {
+  /** Stable identifier, for tests and for the pane's preview. */
+  readonly key: string;
+  readonly label: string;
+  readonly value: BlockValue;
+  readonly format: BlockFormat;
+  readonly style: "title" | "plain" | "caution";
+}
+
+/**
+ * Excel number formats for each kind of value. P-values keep four decimals
+ * and switch to scientific notation below 0.0001, so a tiny p-value never
+ * shows as 0.0000.
+ */
+export const NUMBER_FORMATS: Readonly<Record<BlockFormat, string>> = {
+  text: "General",
+  integer: "0",
+  number: "General",
+  pvalue: "[<0.0001]0.00E+00;0.0000",
+  percent: "0.00%",
+};
+
+const RELATION: Readonly<Record<Alternative, string>> = { greater: ">", less: "<", "two-sided": "≠" };
+const CLAIM: Readonly<Record<Alternative, string>> = { greater: "above", less: "below", "two-sided": "different from" };
+
+const TIE_WORDS: Readonly<Record<TieRule, string>> = {
+  drop: "ties left out",
+  split: "ties shared evenly between below and above (an odd one left out)",
+  conservative: "ties counted against the alternative",
+};
+
+const SIGN_METHOD_WORDS: Readonly<Record<SignTestMethod, string>> = {
+  exact: "exact binomial",
+  midp: "mid-p binomial",
+  normal: "normal approximation with continuity correction",
+};
+
+const SIGNED_RANK_METHOD_WORDS: Readonly<Record<SignedRankMethod, string>> = {
+  auto: "exact when the sample is small enough, otherwise normal approximation",
+  exact: "exact (conditional on ties)",
+  normal: "normal approximation with continuity and tie corrections",
+};
+
+/** Formats a number the way it appears in the block's wording: as typed, no trailing zeros. */
+function numberWords(x: number): string {
+  return String(x);
+}
+
+function percentWords(fraction: number): string {
+  return `${numberWords(Math.round(fraction * 1e6) / 1e4)}%`;
+}
+
+function data(): Operand {
+  return { ref: "data" };
+}
+function second(): Operand {
+  return { ref: "second" };
+}
+function num(value: number): Operand {
+  return { number: value };
+}
+function word(text: string): Operand {
+  return { text };
+}
+function call(fn: string, args: Operand[], column?: number): CallValue {
+  return column === undefined ? { kind: "call", fn, args } : { kind: "call", fn, args, column };
+}
+function text(value: string): BlockValue {
+  return { kind: "text", text: value };
+}
+
+/** The side of the bounds that matches the alternative: a one-sided test gets the one-sided bound. */
+function boundSideFor(alternative: Alternative): "two-sided" | "lower" | "upper" {
+  return alternative === "greater" ? "lower" : alternative === "less" ? "upper" : "two-sided";
+}
+
+/** The quantity the hypotheses are about, in words. */
+function subject(request: BlockRequest): string {
+  const first = request.dataName ?? "the data";
+  const location = request.test === "quantile" ? `the ${numberWords(request.quantile ?? 0.5)} quantile` : "the median";
+  if (!request.paired) return `${location} of ${first}`;
+  const firstName = request.dataName ?? "first";
+  const secondName = request.secondName ?? "second";
+  return `${location} of ${secondName} − ${firstName}`;
+}
+
+function checkRequest(request: BlockRequest): void {
+  if (!Number.isFinite(request.center)) throw new RangeError("center must be a finite number");
+  if (!(request.alpha > 0 && request.alpha < 1)) throw new RangeError("alpha must lie strictly between 0 and 1");
+  if (!(request.confidence > 0 && request.confidence < 1)) throw new RangeError("confidence must lie strictly between 0 and 1");
+  if (request.test === "quantile") {
+    if (request.paired) throw new RangeError("the quantile test takes one range");
+    const q = request.quantile;
+    if (q === undefined || !(q > 0 && q < 1)) throw new RangeError("quantile must lie strictly between 0 and 1");
+  }
+}
+
+/** Rows describing the data: how many cells, how many numbers, what was set aside. */
+function countRows(request: BlockRequest, centerWords: string): BlockRow[] {
+  const c = num(request.center);
+  if (request.paired) {
+    const counts = (column: number): CallValue => call("PAIREDCOUNTS", [data(), second(), c], column);
+    return [
+      row("pairs", "Pairs in range", { kind: "cells", of: "data" }, "integer"),
+      row("skipped", "Pairs skipped (a side blank or not a number)", counts(5), "integer"),
+      row("below", `Differences below ${centerWords}`, counts(1), "integer"),
+      row("tied", `Differences equal to ${centerWords} (ties)`, counts(2), "integer"),
+      row("above", `Differences above ${centerWords}`, counts(3), "integer"),
+      row("used", "Used (n, ties left out)", counts(4), "integer"),
+    ];
+  }
+  const counts = (column: number): CallValue => call("COUNTS", [data(), c], column);
+  return [
+    row("numbers", "Numbers in range (n total)", { kind: "numbers", of: "data" }, "integer"),
+    row("skipped", "Cells skipped (blank, text or logical)", { kind: "skipped", of: "data" }, "integer"),
+    row("below", `Values below ${centerWords}`, counts(1), "integer"),
+    row("tied", `Values equal to ${centerWords} (ties)`, counts(2), "integer"),
+    row("above", `Values above ${centerWords}`, counts(3), "integer"),
+    row("used", "Used (n, ties left out)", counts(4), "integer"),
+  ];
+}
+
+function row(key: string, label: string, value: BlockValue, format: BlockFormat, style: BlockRow["style"] = "plain"): BlockRow {
+  return { key, label, value, format, style };
+}
+
+function signRows(request: BlockRequest): { statistic: BlockRow; pValue: CallValue; method: string; bounds: BlockRow[] } {
+  const ties = request.ties ?? "drop";
+  const method = (request.method as SignTestMethod | undefined) ?? "exact";
+  const alt = word(request.alternative);
+  const c = num(request.center);
+  const statisticWords =
+    request.alternative === "greater" ? "count above" : request.alternative === "less" ? "count below" : "larger of the two counts";
+  const statistic = request.paired
+    ? call("PAIREDSTATISTIC", [data(), second(), c, alt, word(ties)])
+    : call("STATISTIC", [data(), c, alt, word(ties)]);
+  const pValue = request.paired
+    ? call("PAIRED", [data(), second(), c, alt, word(ties), word(method)])
+    : call("PVALUE", [data(), c, alt, word(ties), word(method)]);
+  const side = boundSideFor(request.alternative);
+  const boundArgs = [num(request.confidence), word(side), word("exact")];
+  const bound = (column: number): CallValue =>
+    request.paired ? call("PAIREDBOUNDS", [data(), second(), ...boundArgs], column) : call("BOUNDS", [data(), ...boundArgs], column);
+  const what = request.paired ? "median difference" : "median";
+  return {
+    statistic: row("statistic", `Sign statistic (${statisticWords})`, statistic, "integer"),
+    pValue,
+    method: `Sign test, ${SIGN_METHOD_WORDS[method]}${request.alternative === "two-sided" ? " (twice the smaller tail, at most 1)" : ""}; ${TIE_WORDS[ties]}`,
+    bounds: boundRows(request, what, side, bound),
+  };
+}
+
+function signedRankRows(request: BlockRequest): { statistic: BlockRow; pValue: CallValue; method: string; bounds: BlockRow[] } {
+  const method = (request.method as SignedRankMethod | undefined) ?? "auto";
+  const zeros = request.zeros ?? "drop";
+  const alt = word(request.alternative);
+  const c = num(request.center);
+  const statistic = request.paired
+    ? call("PAIREDSIGNRANKSTATISTIC", [data(), second(), c, word(zeros)])
+    : call("SIGNRANKSTATISTIC", [data(), c, word(zeros)]);
+  const pValue = request.paired
+    ? call("PAIREDSIGNRANK", [data(), second(), c, alt, word(method), word(zeros)])
+    : call("SIGNRANK", [data(), c, alt, word(method), word(zeros)]);
+  const hl = (column: number): CallValue =>
+    request.paired
+      ? call("PAIREDHODGESLEHMANN", [data(), second(), num(request.confidence)], column)
+      : call("HODGESLEHMANN", [data(), num(request.confidence)], column);
+  const level = percentWords(request.confidence);
+  return {
+    statistic: row("statistic", "Signed-rank statistic V (sum of ranks of positive differences)", statistic, "number"),
+    pValue,
+    method: `Wilcoxon signed-rank test, ${SIGNED_RANK_METHOD_WORDS[method]}; zero differences ${zeros === "pratt" ? "ranked, then left out (Pratt)" : "left out"}`,
+    bounds: [
+      row("estimate", "Hodges–Lehmann estimate", hl(1), "number"),
+      row("lower", `${level} bounds (two-sided): lower`, hl(2), "number"),
+      row("upper", `${level} bounds (two-sided): upper`, hl(3), "number"),
+      row("achieved", "Achieved confidence", hl(4), "percent"),
+    ],
+  };
+}
+
+function quantileRows(request: BlockRequest): { statistic: BlockRow; pValue: CallValue; method: string; bounds: BlockRow[] } {
+  const q = request.quantile as number;
+  const c = num(request.center);
+  const side = boundSideFor(request.alternative);
+  const bound = (column: number): CallValue => call("QUANTILEBOUNDS", [data(), num(q), num(request.confidence), word(side)], column);
+  return {
+    statistic: row("statistic", `Quantile statistic (count below ${numberWords(request.center)})`, call("COUNTS", [data(), c], 1), "integer"),
+    pValue: call("QUANTILEPVALUE", [data(), c, num(q), word(request.alternative)]),
+    method: `Quantile test, exact binomial with p = ${numberWords(q)}${request.alternative === "two-sided" ? " (twice the smaller tail, at most 1)" : ""}; ties left out`,
+    bounds: boundRows(request, `${numberWords(q)} quantile`, side, bound),
+  };
+}
+
+function boundRows(
+  request: BlockRequest,
+  what: string,
+  side: "two-sided" | "lower" | "upper",
+  bound: (column: number) => CallValue,
+): BlockRow[] {
+  const level = percentWords(request.confidence);
+  const sideWords = side === "two-sided" ? "two-sided" : `one-sided, ${side} bound only`;
+  return [
+    row("lower", `${level} bounds for the ${what} (${sideWords}): lower`, bound(1), "number"),
+    row("upper", `${level} bounds for the ${what} (${sideWords}): upper`, bound(2), "number"),
+    row("achieved", "Achieved confidence", bound(3), "percent"),
+  ];
+}
+
+function cautionRows(request: BlockRequest): BlockRow[] {
+  const assumption =
+    request.test === "signed-rank"
+      ? "Assumes independent observations and differences symmetric about their centre."
+      : "Assumes independent observations; nothing is assumed about the shape of the distribution.";
+  return [
+    row("assumptions", "Assumptions", text(assumption), "text", "caution"),
+    row(
+      "reading",
+      "Reading the result",
+      text(`A p-value above alpha does not show that ${subject(request)} equals ${numberWords(request.center)}; it only means these data do not rule it out.`),
+      "text",
+      "caution",
+    ),
+    row(
+      "review",
+      "Decisions",
+      text("For clinical, safety or regulatory decisions, have the analysis reviewed by a qualified person and follow the rules that apply to you."),
+      "text",
+      "caution",
+    ),
+  ];
+}
+
+/**
+ * The rows of the result block for a request, top to bottom.
+ *
+ * @example
+ * resultBlockRows({ test: "sign", paired: false, center: 50, alternative: "greater", alpha: 0.05, confidence: 0.95, dataName: "Thickness" })
+ *   .map((r) => r.label); // ["Evensplit result", "Question", "H0", "H1", "Numbers in range (n total)", ...]
+ */
+export function resultBlockRows(request: BlockRequest): BlockRow[] {
+  checkRequest(request);
+  const centerWords = numberWords(request.center);
+  const about = subject(request);
+  const parts = request.test === "sign" ? signRows(request) : request.test === "signed-rank" ? signedRankRows(request) : quantileRows(request);
+  const alphaWords = numberWords(request.alpha);
+  const title =
+    request.test === "sign" ? "Sign test" : request.test === "signed-rank" ? "Wilcoxon signed-rank test" : "Quantile test";
+  return [
+    row("title", "Evensplit result", text(`${title}${request.paired ? ", paired" : ", one sample"}`), "text", "title"),
+    row("question", "Question", text(`Is ${about} ${CLAIM[request.alternative]} ${centerWords}?`), "text"),
+    row("h0", "H0", text(`${about} = ${centerWords}`), "text"),
+    row("h1", "H1", text(`${about} ${RELATION[request.alternative]} ${centerWords}`), "text"),
+    ...countRows(request, centerWords),
+    parts.statistic,
+    row("pvalue", "p-value", parts.pValue, "pvalue"),
+    row("method", "Method", text(parts.method), "text"),
+    row(
+      "decision",
+      `Decision at alpha = ${alphaWords}`,
+      {
+        kind: "decision",
+        pValue: parts.pValue,
+        alpha: request.alpha,
+        reject: `Reject H0: evidence that ${about} is ${CLAIM[request.alternative]} ${centerWords}`,
+        keep: "Do not reject H0 (not evidence for H0)",
+      },
+      "text",
+    ),
+    ...parts.bounds,
+    ...cautionRows(request),
+  ];
+}
+
+/** A number as a formula literal: shortest round-trip digits, Excel's exponent letter. */
+function formulaNumber(x: number): string {
+  if (!Number.isFinite(x)) throw new RangeError("a formula literal must be a finite number");
+  return String(x).replace("e", "E");
+}
+
+function formulaString(s: string): string {
+  return `"${s.replace(/"/g, '""')}"`;
+}
+
+function formulaOperand(operand: Operand, refs: { data: string; second?: string }): string {
+  if ("ref" in operand) {
+    if (operand.ref === "data") return refs.data;
+    if (refs.second === undefined) throw new RangeError("this block needs a second range");
+    return refs.second;
+  }
+  return "number" in operand ? formulaNumber(operand.number) : formulaString(operand.text);
+}
+
+function formulaCall(value: CallValue, refs: { data: string; second?: string }): string {
+  const inner = `EVENSPLIT.${value.fn}(${value.args.map((a) => formulaOperand(a, refs)).join(",")})`;
+  return value.column === undefined ? inner : `INDEX(${inner},1,${value.column})`;
+}
+
+/** Characters that would make the spreadsheet read a typed text as a formula or a number. */
+const FORMULA_LEAD = /^[=+\-@']/;
+
+/**
+ * The text to put into `Range.formulas` for a value: a formula for computed
+ * values, the bare text for text rows (guarded so it is never read as a formula).
+ *
+ * @example
+ * blockFormula({ kind: "call", fn: "COUNTS", args: [{ ref: "data" }, { number: 50 }], column: 3 }, { data: "Panels[Thickness]" });
+ * // "=INDEX(EVENSPLIT.COUNTS(Panels[Thickness],50),1,3)"
+ */
+export function blockFormula(value: BlockValue, refs: { data: string; second?: string }): string {
+  switch (value.kind) {
+    case "text":
+      return FORMULA_LEAD.test(value.text) ? `'${value.text}` : value.text;
+    case "call":
+      return `=${formulaCall(value, refs)}`;
+    case "cells":
+      return `=ROWS(${refs.data})*COLUMNS(${refs.data})`;
+    case "numbers":
+      return `=COUNT(${refs.data})`;
+    case "skipped":
+      return `=ROWS(${refs.data})*COLUMNS(${refs.data})-COUNT(${refs.data})`;
+    case "decision":
+      return `=IF(${formulaCall(value.pValue, refs)}<=${formulaNumber(value.alpha)},${formulaString(value.reject)},${formulaString(value.keep)})`;
+  }
+}
+
+/** Inputs for evaluating a block directly, as REPORT does. */
+export interface BlockInputs {
+  readonly data: readonly (readonly unknown[])[];
+  readonly second?: readonly (readonly unknown[])[];
+}
+
+/** Runs a catalogue function by id on cell matrices, numbers and words; returns a scalar or a one-row matrix. */
+export type CatalogueCall = (fn: string, args: unknown[]) => unknown;
+
+function cellCount(matrix: readonly (readonly unknown[])[]): number {
+  return matrix.reduce((sum, r) => sum + r.length, 0);
+}
+
+function numberCount(matrix: readonly (readonly unknown[])[]): number {
+  let count = 0;
+  for (const r of matrix) for (const cell of r) if (typeof cell === "number" && Number.isFinite(cell)) count++;
+  return count;
+}
+
+function evaluateCall(value: CallValue, inputs: BlockInputs, run: CatalogueCall): unknown {
+  const args = value.args.map((operand) => {
+    if ("ref" in operand) {
+      if (operand.ref === "data") return inputs.data;
+      if (inputs.second === undefined) throw new RangeError("this block needs a second range");
+      return inputs.second;
+    }
+    return "number" in operand ? operand.number : operand.text;
+  });
+  const result = run(value.fn, args);
+  if (value.column === undefined || !Array.isArray(result)) return result;
+  return (result as unknown[][])[0][value.column - 1];
+}
+
+/**
+ * Evaluates a value on cell matrices, as the formulas from `blockFormula`
+ * would in the sheet. A catalogue call that answers with an error object
+ * (anything not a number) passes it through unchanged, including in a decision.
+ */
+export function blockValue(value: BlockValue, inputs: BlockInputs, run: CatalogueCall): unknown {
+  switch (value.kind) {
+    case "text":
+      return value.text;
+    case "call":
+      return evaluateCall(value, inputs, run);
+    case "cells":
+      return cellCount(inputs.data);
+    case "numbers":
+      return numberCount(inputs.data);
+    case "skipped":
+      return cellCount(inputs.data) - numberCount(inputs.data);
+    case "decision": {
+      const p = evaluateCall(value.pValue, inputs, run);
+      if (typeof p !== "number") return p;
+      return p <= value.alpha ? value.reject : value.keep;
+    }
+  }
+}

@@ -1,0 +1,165 @@
+import { describe, expect, it } from "vitest";
+import {
+  blockFormula,
+  blockValue,
+  NUMBER_FORMATS,
+  resultBlockRows,
+  type BlockRequest,
+  type CallValue,
+} from "../../src/report/resultBlock";
+
+const oneSample: BlockRequest = {
+  test: "sign",
+  paired: false,
+  center: 50,
+  alternative: "greater",
+  alpha: 0.05,
+  confidence: 0.95,
+  dataName: "Thickness",
+};
+
+const paired: BlockRequest = { ...oneSample, paired: true, center: 0, alternative: "two-sided", dataName: "Before", secondName: "After" };
+
+const refs = { data: "Panels[Before]", second: "Panels[After]" };
+
+function callsOf(request: BlockRequest): CallValue[] {
+  return resultBlockRows(request).flatMap((r) =>
+    r.value.kind === "call" ? [r.value] : r.value.kind === "decision" ? [r.value.pValue] : [],
+  );
+}
+
+describe("resultBlockRows", () => {
+  const requests: BlockRequest[] = [
+    oneSample,
+    paired,
+    { ...oneSample, test: "signed-rank" },
+    { ...paired, test: "signed-rank", zeros: "pratt", method: "exact" },
+    { ...oneSample, test: "quantile", quantile: 0.9, alternative: "less" },
+  ];
+
+  it.each(requests)("gives unique keys, the cautions and the core rows (%#)", (request) => {
+    const rows = resultBlockRows(request);
+    const keys = rows.map((r) => r.key);
+    expect(new Set(keys).size).toBe(keys.length);
+    for (const key of ["title", "h0", "h1", "used", "tied", "statistic", "pvalue", "method", "decision", "lower", "upper", "achieved"]) {
+      expect(keys).toContain(key);
+    }
+    const cautions = rows.filter((r) => r.style === "caution").map((r) => (r.value.kind === "text" ? r.value.text : ""));
+    expect(cautions.join(" ")).toMatch(/independent observations/);
+    expect(cautions.join(" ")).toMatch(/does not show/);
+    expect(cautions.join(" ")).toMatch(/qualified person/);
+    for (const r of rows) expect(NUMBER_FORMATS[r.format]).toBeTypeOf("string");
+  });
+
+  it("states the hypotheses in notation for each alternative", () => {
+    const h1 = (alternative: BlockRequest["alternative"]) =>
+      resultBlockRows({ ...oneSample, alternative }).find((r) => r.key === "h1")!.value;
+    expect(h1("greater")).toEqual({ kind: "text", text: "the median of Thickness > 50" });
+    expect(h1("less")).toEqual({ kind: "text", text: "the median of Thickness < 50" });
+    expect(h1("two-sided")).toEqual({ kind: "text", text: "the median of Thickness ≠ 50" });
+    expect(resultBlockRows(paired).find((r) => r.key === "h0")!.value).toEqual({
+      kind: "text",
+      text: "the median of After − Before = 0",
+    });
+  });
+
+  it("passes the tie rule, method and alternative into the p-value call", () => {
+    const p = resultBlockRows({ ...oneSample, ties: "split", method: "midp" }).find((r) => r.key === "pvalue")!.value;
+    expect(p).toEqual({ kind: "call", fn: "PVALUE", args: [{ ref: "data" }, { number: 50 }, { text: "greater" }, { text: "split" }, { text: "midp" }] });
+  });
+
+  it("pairs a one-sided alternative with the matching one-sided bound", () => {
+    const side = (request: BlockRequest) => {
+      const lower = resultBlockRows(request).find((r) => r.key === "lower")!.value as CallValue;
+      return lower.args.find((a) => "text" in a && ["two-sided", "lower", "upper"].includes(a.text));
+    };
+    expect(side(oneSample)).toEqual({ text: "lower" });
+    expect(side({ ...oneSample, alternative: "less" })).toEqual({ text: "upper" });
+    expect(side(paired)).toEqual({ text: "two-sided" });
+  });
+
+  it("uses only paired functions for a paired request", () => {
+    const fns = callsOf(paired).map((c) => c.fn);
+    expect(fns.every((fn) => fn.startsWith("PAIRED"))).toBe(true);
+  });
+
+  it("rejects requests that cannot be stated", () => {
+    expect(() => resultBlockRows({ ...oneSample, alpha: 0 })).toThrow(RangeError);
+    expect(() => resultBlockRows({ ...oneSample, confidence: 1 })).toThrow(RangeError);
+    expect(() => resultBlockRows({ ...oneSample, center: Number.NaN })).toThrow(RangeError);
+    expect(() => resultBlockRows({ ...oneSample, test: "quantile" })).toThrow(RangeError);
+    expect(() => resultBlockRows({ ...paired, test: "quantile", quantile: 0.5 })).toThrow(RangeError);
+  });
+});
+
+describe("blockFormula", () => {
+  it("renders calls, columns, counts and decisions in locale-independent syntax", () => {
+    expect(blockFormula({ kind: "call", fn: "COUNTS", args: [{ ref: "data" }, { number: 50 }], column: 3 }, refs)).toBe(
+      "=INDEX(EVENSPLIT.COUNTS(Panels[Before],50),1,3)",
+    );
+    expect(blockFormula({ kind: "call", fn: "PAIRED", args: [{ ref: "data" }, { ref: "second" }, { number: -0.25 }, { text: "less" }] }, refs)).toBe(
+      '=EVENSPLIT.PAIRED(Panels[Before],Panels[After],-0.25,"less")',
+    );
+    expect(blockFormula({ kind: "cells", of: "data" }, { data: "A2:A9" })).toBe("=ROWS(A2:A9)*COLUMNS(A2:A9)");
+    expect(blockFormula({ kind: "numbers", of: "data" }, { data: "A2:A9" })).toBe("=COUNT(A2:A9)");
+    expect(blockFormula({ kind: "skipped", of: "data" }, { data: "A2:A9" })).toBe("=ROWS(A2:A9)*COLUMNS(A2:A9)-COUNT(A2:A9)");
+    const pValue: CallValue = { kind: "call", fn: "PVALUE", args: [{ ref: "data" }, { number: 1e-7 }] };
+    expect(blockFormula({ kind: "decision", pValue, alpha: 0.05, reject: 'say "no"', keep: "keep" }, { data: "B:B" })).toBe(
+      '=IF(EVENSPLIT.PVALUE(B:B,1E-7)<=0.05,"say ""no""","keep")',
+    );
+  });
+
+  it("never lets a text row be read as a formula", () => {
+    expect(blockFormula({ kind: "text", text: "=HYPERLINK(1)" }, refs)).toBe("'=HYPERLINK(1)");
+    expect(blockFormula({ kind: "text", text: "-3 below" }, refs)).toBe("'-3 below");
+    expect(blockFormula({ kind: "text", text: "plain words" }, refs)).toBe("plain words");
+  });
+
+  it("refuses a second-range operand without a second range", () => {
+    const value: CallValue = { kind: "call", fn: "PAIRED", args: [{ ref: "data" }, { ref: "second" }] };
+    expect(() => blockFormula(value, { data: "A1:A3" })).toThrow(RangeError);
+  });
+
+  it("writes every row of every block as a formula or guarded text", () => {
+    for (const request of [oneSample, paired]) {
+      for (const r of resultBlockRows(request)) {
+        const f = blockFormula(r.value, refs);
+        if (r.value.kind === "text") expect(f.startsWith("=")).toBe(false);
+        else expect(f.startsWith("=")).toBe(true);
+      }
+    }
+  });
+});
+
+describe("blockValue", () => {
+  const cells = [[49], [null], ["note"], [51], [true], [52]];
+  const run = (fn: string, args: unknown[]): unknown => {
+    if (fn === "COUNTS") return [[1, 0, 2, 3]];
+    if (fn === "PVALUE") return args[1] === 50 ? 0.03 : 0.5;
+    if (fn === "BOUNDS") return { code: "#N/A" };
+    throw new Error(`unexpected ${fn}`);
+  };
+
+  it("evaluates counts of cells, numbers and skipped cells from the matrix itself", () => {
+    expect(blockValue({ kind: "cells", of: "data" }, { data: cells }, run)).toBe(6);
+    expect(blockValue({ kind: "numbers", of: "data" }, { data: cells }, run)).toBe(3);
+    expect(blockValue({ kind: "skipped", of: "data" }, { data: cells }, run)).toBe(3);
+  });
+
+  it("picks a column of a one-row result and passes ranges and literals through", () => {
+    expect(blockValue({ kind: "call", fn: "COUNTS", args: [{ ref: "data" }, { number: 50 }], column: 3 }, { data: cells }, run)).toBe(2);
+  });
+
+  it("decides at alpha and passes an error through the decision", () => {
+    const decide = (center: number) =>
+      blockValue(
+        { kind: "decision", pValue: { kind: "call", fn: "PVALUE", args: [{ ref: "data" }, { number: center }] }, alpha: 0.05, reject: "R", keep: "K" },
+        { data: cells },
+        run,
+      );
+    expect(decide(50)).toBe("R");
+    expect(decide(40)).toBe("K");
+    const failing = { kind: "call", fn: "BOUNDS", args: [{ ref: "data" }] } as const;
+    expect(blockValue({ kind: "decision", pValue: failing, alpha: 0.05, reject: "R", keep: "K" }, { data: cells }, run)).toEqual({ code: "#N/A" });
+  });
+});
