@@ -1,0 +1,135 @@
+/**
+ * `npm start`: builds the add-in (webpack, development mode), serves dist/ on
+ * localhost port 3000 and prints how to sideload it into Excel.
+ *
+ * Excel loads add-ins over https only. The localhost certificate comes from
+ * office-addin-dev-certs: `getHttpsServerOptions()` reuses a trusted one or
+ * generates a new one in ~/.office-addin-dev-certs and tries to trust its CA,
+ * which needs administrator rights. When trusting fails but the
+ * files were written, the server still uses https and says how to trust the
+ * CA; when there are no certificates at all it falls back to plain http and
+ * says so (the demo page works over http; Excel will not load the add-in).
+ *
+ * Options: --no-build (serve dist/ as it is), --http (skip certificates).
+ */
+import { existsSync, readFileSync } from "node:fs";
+import { createServer as createHttpServer } from "node:http";
+import { createServer as createHttpsServer } from "node:https";
+import { createRequire } from "node:module";
+import { homedir } from "node:os";
+import { dirname, join, resolve } from "node:path";
+import { fileURLToPath } from "node:url";
+import { staticHandler } from "./staticFiles";
+
+const PORT = 3000;
+const project = resolve(dirname(fileURLToPath(import.meta.url)), "..");
+const dist = join(project, "dist");
+const require = createRequire(import.meta.url);
+
+interface Certificates {
+  cert: Buffer;
+  key: Buffer;
+  trusted: boolean;
+}
+
+function build(): Promise<void> {
+  const webpack = require("webpack") as typeof import("webpack");
+  const config = require(join(project, "webpack.config.js")) as (env: unknown, argv: { mode: string }) => import("webpack").Configuration;
+  return new Promise((done, fail) => {
+    webpack(config({}, { mode: "development" }), (error, stats) => {
+      if (error) return fail(error);
+      if (stats?.hasErrors()) return fail(new Error(stats.toString({ all: false, errors: true })));
+      console.log(`Built dist/ in ${((stats?.endTime ?? 0) - (stats?.startTime ?? 0)) / 1000} s.`);
+      done();
+    });
+  });
+}
+
+function certificateFiles(): { cert: Buffer; key: Buffer } | null {
+  const folder = join(homedir(), ".office-addin-dev-certs");
+  const cert = join(folder, "localhost.crt");
+  const key = join(folder, "localhost.key");
+  return existsSync(cert) && existsSync(key) ? { cert: readFileSync(cert), key: readFileSync(key) } : null;
+}
+
+async function certificates(): Promise<Certificates | null> {
+  try {
+    const devCerts = require("office-addin-dev-certs") as typeof import("office-addin-dev-certs");
+    const options = await devCerts.getHttpsServerOptions();
+    return { cert: options.cert, key: options.key, trusted: true };
+  } catch {
+    // Trusting the CA failed (no administrator rights); the generated files may still be there.
+    const generated = certificateFiles();
+    return generated ? { ...generated, trusted: false } : null;
+  }
+}
+
+/** How the server ended up serving. */
+type Transport = "https" | "https-untrusted" | "http-asked" | "http-fallback";
+
+function instructions(origin: string, transport: Transport): string {
+  const lines = [
+    "",
+    `Evensplit is served at ${origin}/ from dist/.`,
+    `  Demo page (no Excel needed): ${origin}/demo.html`,
+    `  Task pane page:              ${origin}/taskpane.html`,
+    `  Manifest:                    ${join(project, "manifest.xml")}`,
+    "",
+  ];
+  if (transport === "http-asked" || transport === "http-fallback") {
+    lines.push(
+      transport === "http-asked"
+        ? "Plain http, as asked (--http): Excel will not load the add-in from this server"
+        : "Plain http: no localhost certificate could be made, so Excel will not load the add-in",
+      "from this server (it loads add-ins over https only). The demo page works as it is.",
+      "To get https: npx office-addin-dev-certs install   (needs administrator rights), then npm start again.",
+      "",
+    );
+  } else if (transport === "https-untrusted") {
+    lines.push(
+      "https with a certificate whose authority is not trusted on this machine yet. A browser shows",
+      "a warning you can accept for the demo page; Excel needs the authority trusted first:",
+      "npx office-addin-dev-certs install   (needs administrator rights), then npm start again.",
+      "",
+    );
+  }
+  lines.push(
+    "Sideload into Excel on the web:",
+    "  open a workbook at office.com, then Home > Add-ins > More Add-ins (or Insert > Add-ins),",
+    "  choose My Add-ins > Upload My Add-in and pick manifest.xml.",
+    "Sideload into Excel on the desktop:",
+    "  Windows: put manifest.xml in a shared folder, add that folder under File > Options > Trust Center >",
+    "    Trust Center Settings > Trusted Add-in Catalogs (tick Show in Menu), restart Excel, then",
+    "    Home > Add-ins > More Add-ins > Shared Folder and pick Evensplit.",
+    "  Mac: copy manifest.xml to ~/Library/Containers/com.microsoft.Excel/Data/Documents/wef/",
+    "    (create the folder if needed), restart Excel, then Home > Add-ins and pick Evensplit.",
+    "Then type =EVENSPLIT. in a cell, or open Data > Median tests for the pane.",
+    "Stop the server with Ctrl+C.",
+  );
+  return lines.join("\n");
+}
+
+async function main(): Promise<void> {
+  const args = new Set(process.argv.slice(2));
+  if (!args.has("--no-build")) await build();
+  if (!existsSync(join(dist, "demo.html"))) {
+    console.error("dist/ has no demo.html: run npm run build first (or npm start without --no-build).");
+    process.exit(1);
+  }
+  const asked = args.has("--http");
+  const certs = asked ? null : await certificates();
+  const transport: Transport = certs ? (certs.trusted ? "https" : "https-untrusted") : asked ? "http-asked" : "http-fallback";
+  const handler = staticHandler(dist, "demo.html");
+  const server = certs ? createHttpsServer({ cert: certs.cert, key: certs.key }, handler) : createHttpServer(handler);
+  const origin = `${certs ? "https" : "http"}://localhost:${PORT}`;
+  server.on("error", (error: NodeJS.ErrnoException) => {
+    console.error(error.code === "EADDRINUSE" ? `Port ${PORT} is in use: stop the other server first.` : `The server stopped: ${error.message}`);
+    process.exit(1);
+  });
+  server.listen(PORT, "localhost", () => console.log(instructions(origin, transport)));
+}
+
+main().catch((error: unknown) => {
+  console.error(error instanceof Error ? error.message : String(error));
+  process.exit(1);
+});

@@ -1,0 +1,578 @@
+/**
+ * The EVENSPLIT cell functions (namespace EVENSPLIT in manifest.xml).
+ *
+ * Each function here only turns cells into numbers (src/stats/cells.ts),
+ * checks its options (vocabulary.ts, argumentChecks.ts), calls the
+ * statistics core and turns the answer into cell values: a number, one row,
+ * or a cell error with a message (errors.ts). The JSDoc of each function is
+ * its help in the spreadsheet's function picker; custom-functions-metadata-plugin
+ * turns it into dist/functions.json and appends the registration
+ * (`CustomFunctions.associate`) of every function at build time.
+ *
+ * The argument types are `unknown` on purpose: the spreadsheet then passes
+ * values as they are (type "any"), and the checks here give the messages.
+ * Omitted optional arguments arrive as null and mean the default (Microsoft,
+ * "Custom functions parameter options", Office Add-ins documentation).
+ *
+ * Cost: one pass over the cells, plus the cost of the core routine (see its header).
+ */
+import { blockValue, resultBlockRows, type BlockRequest } from "../report/resultBlock";
+import { adjustPValues } from "../stats/adjust";
+import { numbersFromCells, pairsFromCells } from "../stats/cells";
+import { differencesFrom, pairedDifferences } from "../stats/differences";
+import { hodgesLehmann } from "../stats/hodgesLehmann";
+import { signTestPower, signTestSampleSize } from "../stats/power";
+import { quantileBounds } from "../stats/quantileBounds";
+import { quantileTest } from "../stats/quantileTest";
+import { countSigns } from "../stats/signCounts";
+import { EXACT_LIMIT, signedRankTest, type SignedRankResult } from "../stats/signedRank";
+import { signTest } from "../stats/signTest";
+import { unavailable, type BoundMethod, type BoundSide, type Unavailable } from "../stats/types";
+import { cellsArgument, fractionArgument, numberArgument, pairedCellsArgument, probabilityArgument, sampleSizeArgument, type Cells } from "./argumentChecks";
+import { BadArgument, errorFor, oneRow, scalar, unavailableError, type RowCell } from "./errors";
+import type { CellError } from "./runtime";
+import {
+  ADJUST_METHOD,
+  ALTERNATIVE,
+  BOUND_METHOD,
+  SIDE,
+  SIGNED_RANK_METHOD,
+  SIGN_METHOD,
+  TIES,
+  ZEROS,
+  chooseWord,
+} from "./vocabulary";
+
+// ---------------------------------------------------------------------------
+// From cells to the core's inputs
+
+function numbersOf(data: unknown): Float64Array {
+  return numbersFromCells(cellsArgument("data", data)).values;
+}
+
+/** The paired differences second − first − shift, and how many pairs were left out. */
+function differencesOf(first: unknown, second: unknown, shift: number): { differences: Float64Array; pairsSkipped: number } {
+  const ranges = pairedCellsArgument(first, second);
+  const pairs = pairsFromCells(ranges.first, ranges.second);
+  return { differences: pairedDifferences(pairs.first, pairs.second, shift), pairsSkipped: pairs.pairsSkipped };
+}
+
+function shiftOf(shift: unknown): number {
+  return numberArgument("shift", shift, 0);
+}
+
+function signTestOf(values: ArrayLike<number>, center: number, alternative: unknown, ties: unknown, method?: unknown) {
+  return signTest(countSigns(values, center), {
+    alternative: chooseWord(ALTERNATIVE, alternative),
+    ties: chooseWord(TIES, ties),
+    method: chooseWord(SIGN_METHOD, method),
+  });
+}
+
+/**
+ * The signed-rank test as asked. The core falls back to the normal
+ * approximation when "exact" is asked of more differences than it will
+ * enumerate; a cell cannot say which method gave its number, so that case is
+ * answered with #N/A and the way out instead.
+ */
+function signedRankOf(differences: ArrayLike<number>, alternative: unknown, method: unknown, zeros: unknown): SignedRankResult | Unavailable {
+  const requested = chooseWord(SIGNED_RANK_METHOD, method);
+  const result = signedRankTest(differences, {
+    alternative: chooseWord(ALTERNATIVE, alternative),
+    method: requested,
+    zeros: chooseWord(ZEROS, zeros),
+  });
+  if (result.available && requested === "exact" && result.method !== "exact") {
+    return unavailable(
+      "unreachable",
+      `The exact signed-rank p-value is worked out for up to ${EXACT_LIMIT} non-zero differences; these have ${result.nonZero}. Use "auto" or "normal" for the method.`,
+    );
+  }
+  return result;
+}
+
+/** Bounds for the median (or another quantile) as one row: lower, upper, achieved confidence; "" for an end not asked for. */
+function boundsRow(values: ArrayLike<number>, quantile: number, confidence: number, side: BoundSide, method: BoundMethod): RowCell[] | CellError {
+  if (method === "interpolated" && side !== "two-sided" && !(confidence > 0.5)) {
+    throw new BadArgument(`a one-sided interpolated bound needs confidence above 0.5; got ${confidence}.`);
+  }
+  const result = quantileBounds(values, { quantile, confidence, side, method });
+  if (!result.available) return unavailableError(result);
+  return [result.lower ?? "", result.upper ?? "", result.achievedConfidence];
+}
+
+function hodgesLehmannRow(values: ArrayLike<number>, confidence: number): RowCell[] | CellError {
+  const result = hodgesLehmann(values, { confidence });
+  if (!result.available) return unavailableError(result);
+  return [result.estimate, result.lower, result.upper, result.achievedConfidence];
+}
+
+// ---------------------------------------------------------------------------
+// Sign test
+
+/**
+ * Counts the numbers below, equal to and above a hypothesised median. Returns one row: below, tied, above, used (below + above, the values a sign test uses when ties are left out). Blank cells, text and logical values are skipped.
+ * @customfunction COUNTS
+ * @param data Range with the measurements, such as A2:A40 or Table1[Thickness].
+ * @param hypothesized_median The median under test, such as 50.
+ * @returns One row: below, tied, above, used.
+ */
+export function counts(data: unknown[][], hypothesized_median: unknown): unknown[][] {
+  return oneRow(4, () => {
+    const center = numberArgument("hypothesized_median", hypothesized_median);
+    const c = countSigns(numbersOf(data), center);
+    return [c.below, c.tied, c.above, c.below + c.above];
+  });
+}
+
+/**
+ * Sign-test p-value for the median of the data. Needs no assumption about the shape of the distribution.
+ * @customfunction PVALUE
+ * @param data Range with the measurements, such as A2:A40 or Table1[Thickness].
+ * @param hypothesized_median The median under test, such as 50.
+ * @param [alternative] "two-sided" (default), "greater" (the median is above the hypothesised one) or "less".
+ * @param [ties] Values equal to the hypothesised median: "drop" (default), "split" or "conservative".
+ * @param [method] "exact" (default, binomial), "midp" or "normal" (approximation).
+ * @returns The p-value.
+ */
+export function pvalue(data: unknown[][], hypothesized_median: unknown, alternative?: unknown, ties?: unknown, method?: unknown): number | CellError {
+  return scalar(() => {
+    const center = numberArgument("hypothesized_median", hypothesized_median);
+    const result = signTestOf(numbersOf(data), center, alternative, ties, method);
+    return result.available ? result.pValue : unavailableError(result);
+  });
+}
+
+/**
+ * Sign-test statistic: the count above the hypothesised median for "greater", the count below for "less", the larger of the two for "two-sided", after the tie rule.
+ * @customfunction STATISTIC
+ * @param data Range with the measurements.
+ * @param hypothesized_median The median under test, such as 50.
+ * @param [alternative] "two-sided" (default), "greater" or "less".
+ * @param [ties] "drop" (default), "split" or "conservative".
+ * @returns The statistic.
+ */
+export function statistic(data: unknown[][], hypothesized_median: unknown, alternative?: unknown, ties?: unknown): number | CellError {
+  return scalar(() => {
+    const center = numberArgument("hypothesized_median", hypothesized_median);
+    const result = signTestOf(numbersOf(data), center, alternative, ties);
+    return result.available ? result.statistic : unavailableError(result);
+  });
+}
+
+/**
+ * Paired sign-test p-value on the differences second − first − shift (for example after − before). Pairs with a blank or non-number on either side are skipped.
+ * @customfunction PAIRED
+ * @param first Range with the first measurement of each pair (such as before).
+ * @param second Range with the second measurement, same shape as first (such as after).
+ * @param [shift] The median difference under test; default 0.
+ * @param [alternative] "two-sided" (default), "greater" (second tends to exceed first + shift) or "less".
+ * @param [ties] Zero differences: "drop" (default), "split" or "conservative".
+ * @param [method] "exact" (default), "midp" or "normal".
+ * @returns The p-value.
+ */
+export function paired(
+  first: unknown[][],
+  second: unknown[][],
+  shift?: unknown,
+  alternative?: unknown,
+  ties?: unknown,
+  method?: unknown,
+): number | CellError {
+  return scalar(() => {
+    const { differences } = differencesOf(first, second, shiftOf(shift));
+    const result = signTestOf(differences, 0, alternative, ties, method);
+    return result.available ? result.pValue : unavailableError(result);
+  });
+}
+
+/**
+ * Paired sign-test statistic on the differences second − first − shift, as STATISTIC does for one range.
+ * @customfunction PAIREDSTATISTIC
+ * @param first Range with the first measurement of each pair.
+ * @param second Range with the second measurement, same shape as first.
+ * @param [shift] The median difference under test; default 0.
+ * @param [alternative] "two-sided" (default), "greater" or "less".
+ * @param [ties] "drop" (default), "split" or "conservative".
+ * @returns The statistic.
+ */
+export function pairedstatistic(first: unknown[][], second: unknown[][], shift?: unknown, alternative?: unknown, ties?: unknown): number | CellError {
+  return scalar(() => {
+    const { differences } = differencesOf(first, second, shiftOf(shift));
+    const result = signTestOf(differences, 0, alternative, ties);
+    return result.available ? result.statistic : unavailableError(result);
+  });
+}
+
+/**
+ * Counts the paired differences second − first − shift below, equal to and above zero. Returns one row: below, tied, above, used, pairs skipped.
+ * @customfunction PAIREDCOUNTS
+ * @param first Range with the first measurement of each pair.
+ * @param second Range with the second measurement, same shape as first.
+ * @param [shift] The median difference under test; default 0.
+ * @returns One row: below, tied, above, used, pairs skipped.
+ */
+export function pairedcounts(first: unknown[][], second: unknown[][], shift?: unknown): unknown[][] {
+  return oneRow(5, () => {
+    const { differences, pairsSkipped } = differencesOf(first, second, shiftOf(shift));
+    const c = countSigns(differences, 0);
+    return [c.below, c.tied, c.above, c.below + c.above, pairsSkipped];
+  });
+}
+
+// ---------------------------------------------------------------------------
+// Bounds and the quantile test
+
+/**
+ * Distribution-free confidence bounds for the median from the sorted data. Returns one row: lower, upper, achieved confidence (at least the one asked for with the exact method).
+ * @customfunction BOUNDS
+ * @param data Range with the measurements.
+ * @param [confidence] Confidence, such as 0.95 (default).
+ * @param [side] "two-sided" (default), "lower" (a lower bound only) or "upper".
+ * @param [method] "exact" (default: bounds are data values) or "interpolated" (between neighbouring values, closer to the confidence asked).
+ * @returns One row: lower, upper, achieved confidence.
+ */
+export function bounds(data: unknown[][], confidence?: unknown, side?: unknown, method?: unknown): unknown[][] {
+  return oneRow(3, () =>
+    boundsRow(
+      numbersOf(data),
+      0.5,
+      fractionArgument("confidence", confidence, 0.95),
+      chooseWord(SIDE, side),
+      chooseWord(BOUND_METHOD, method),
+    ),
+  );
+}
+
+/**
+ * Distribution-free confidence bounds for the median of the paired differences second − first. Returns one row: lower, upper, achieved confidence.
+ * @customfunction PAIREDBOUNDS
+ * @param first Range with the first measurement of each pair.
+ * @param second Range with the second measurement, same shape as first.
+ * @param [confidence] Confidence, such as 0.95 (default).
+ * @param [side] "two-sided" (default), "lower" or "upper".
+ * @param [method] "exact" (default) or "interpolated".
+ * @returns One row: lower, upper, achieved confidence.
+ */
+export function pairedbounds(first: unknown[][], second: unknown[][], confidence?: unknown, side?: unknown, method?: unknown): unknown[][] {
+  return oneRow(3, () => {
+    const level = fractionArgument("confidence", confidence, 0.95);
+    const chosenSide = chooseWord(SIDE, side);
+    const chosenMethod = chooseWord(BOUND_METHOD, method);
+    return boundsRow(differencesOf(first, second, 0).differences, 0.5, level, chosenSide, chosenMethod);
+  });
+}
+
+/**
+ * P-value for the hypothesis that a quantile of the population (such as the 0.9 quantile) equals a value. Values equal to it are left out.
+ * @customfunction QUANTILEPVALUE
+ * @param data Range with the measurements.
+ * @param value The hypothesised value of the quantile, such as 58.
+ * @param quantile Which quantile, between 0 and 1 (0.5 is the median, 0.9 the value 90% fall below).
+ * @param [alternative] "two-sided" (default), "greater" (the quantile is above value) or "less".
+ * @returns The p-value.
+ */
+export function quantilepvalue(data: unknown[][], value: unknown, quantile: unknown, alternative?: unknown): number | CellError {
+  return scalar(() => {
+    const at = numberArgument("value", value);
+    const q = fractionArgument("quantile", quantile, undefined, "0.9");
+    const result = quantileTest(numbersOf(data), at, q, { alternative: chooseWord(ALTERNATIVE, alternative) });
+    return result.available ? result.pValue : unavailableError(result);
+  });
+}
+
+/**
+ * Distribution-free confidence bounds for a quantile of the population. Returns one row: lower, upper, achieved confidence.
+ * @customfunction QUANTILEBOUNDS
+ * @param data Range with the measurements.
+ * @param quantile Which quantile, between 0 and 1, such as 0.9.
+ * @param [confidence] Confidence, such as 0.95 (default).
+ * @param [side] "two-sided" (default), "lower" or "upper".
+ * @returns One row: lower, upper, achieved confidence.
+ */
+export function quantilebounds(data: unknown[][], quantile: unknown, confidence?: unknown, side?: unknown): unknown[][] {
+  return oneRow(3, () => {
+    const q = fractionArgument("quantile", quantile, undefined, "0.9");
+    return boundsRow(numbersOf(data), q, fractionArgument("confidence", confidence, 0.95), chooseWord(SIDE, side), "exact");
+  });
+}
+
+// ---------------------------------------------------------------------------
+// Wilcoxon signed-rank and Hodges–Lehmann
+
+/**
+ * Wilcoxon signed-rank p-value for the centre of the data. Assumes the data are symmetric about their centre.
+ * @customfunction SIGNRANK
+ * @param data Range with the measurements.
+ * @param hypothesized_median The centre under test, such as 50.
+ * @param [alternative] "two-sided" (default), "greater" or "less".
+ * @param [method] "auto" (default: exact for small samples), "exact" or "normal" (with continuity and tie corrections).
+ * @param [zeros] Values equal to the centre: "drop" (default) or "pratt" (ranked, then left out).
+ * @returns The p-value.
+ */
+export function signrank(data: unknown[][], hypothesized_median: unknown, alternative?: unknown, method?: unknown, zeros?: unknown): number | CellError {
+  return scalar(() => {
+    const center = numberArgument("hypothesized_median", hypothesized_median);
+    const result = signedRankOf(differencesFrom(numbersOf(data), center), alternative, method, zeros);
+    return result.available ? result.pValue : unavailableError(result);
+  });
+}
+
+/**
+ * Wilcoxon signed-rank p-value on the paired differences second − first − shift.
+ * @customfunction PAIREDSIGNRANK
+ * @param first Range with the first measurement of each pair.
+ * @param second Range with the second measurement, same shape as first.
+ * @param [shift] The centre of the differences under test; default 0.
+ * @param [alternative] "two-sided" (default), "greater" or "less".
+ * @param [method] "auto" (default), "exact" or "normal".
+ * @param [zeros] Zero differences: "drop" (default) or "pratt".
+ * @returns The p-value.
+ */
+export function pairedsignrank(
+  first: unknown[][],
+  second: unknown[][],
+  shift?: unknown,
+  alternative?: unknown,
+  method?: unknown,
+  zeros?: unknown,
+): number | CellError {
+  return scalar(() => {
+    const { differences } = differencesOf(first, second, shiftOf(shift));
+    const result = signedRankOf(differences, alternative, method, zeros);
+    return result.available ? result.pValue : unavailableError(result);
+  });
+}
+
+/**
+ * Signed-rank statistic V: the sum of the ranks of the values above the hypothesised centre (ranks of distances from it).
+ * @customfunction SIGNRANKSTATISTIC
+ * @param data Range with the measurements.
+ * @param hypothesized_median The centre under test, such as 50.
+ * @param [zeros] "drop" (default) or "pratt".
+ * @returns V.
+ */
+export function signrankstatistic(data: unknown[][], hypothesized_median: unknown, zeros?: unknown): number | CellError {
+  return scalar(() => {
+    const center = numberArgument("hypothesized_median", hypothesized_median);
+    // V does not depend on how the p-value is computed; "normal" skips the exact distribution.
+    const result = signedRankOf(differencesFrom(numbersOf(data), center), null, "normal", zeros);
+    return result.available ? result.statistic : unavailableError(result);
+  });
+}
+
+/**
+ * Signed-rank statistic V on the paired differences second − first − shift.
+ * @customfunction PAIREDSIGNRANKSTATISTIC
+ * @param first Range with the first measurement of each pair.
+ * @param second Range with the second measurement, same shape as first.
+ * @param [shift] The centre of the differences under test; default 0.
+ * @param [zeros] "drop" (default) or "pratt".
+ * @returns V.
+ */
+export function pairedsignrankstatistic(first: unknown[][], second: unknown[][], shift?: unknown, zeros?: unknown): number | CellError {
+  return scalar(() => {
+    const { differences } = differencesOf(first, second, shiftOf(shift));
+    const result = signedRankOf(differences, null, "normal", zeros);
+    return result.available ? result.statistic : unavailableError(result);
+  });
+}
+
+/**
+ * Hodges–Lehmann estimate of the centre (the median of all pairwise averages) with distribution-free bounds. Returns one row: estimate, lower, upper, achieved confidence.
+ * @customfunction HODGESLEHMANN
+ * @param data Range with the measurements.
+ * @param [confidence] Confidence of the bounds, such as 0.95 (default).
+ * @returns One row: estimate, lower, upper, achieved confidence.
+ */
+export function hodgeslehmann(data: unknown[][], confidence?: unknown): unknown[][] {
+  return oneRow(4, () => {
+    const level = fractionArgument("confidence", confidence, 0.95);
+    return hodgesLehmannRow(numbersOf(data), level);
+  });
+}
+
+/**
+ * Hodges–Lehmann estimate and bounds for the centre of the paired differences second − first. Returns one row: estimate, lower, upper, achieved confidence.
+ * @customfunction PAIREDHODGESLEHMANN
+ * @param first Range with the first measurement of each pair.
+ * @param second Range with the second measurement, same shape as first.
+ * @param [confidence] Confidence of the bounds, such as 0.95 (default).
+ * @returns One row: estimate, lower, upper, achieved confidence.
+ */
+export function pairedhodgeslehmann(first: unknown[][], second: unknown[][], confidence?: unknown): unknown[][] {
+  return oneRow(4, () => {
+    const level = fractionArgument("confidence", confidence, 0.95);
+    return hodgesLehmannRow(differencesOf(first, second, 0).differences, level);
+  });
+}
+
+// ---------------------------------------------------------------------------
+// Planning and several tests
+
+/**
+ * Exact power of the sign test: the chance it rejects at alpha when each value lies above the hypothesised median with probability p_above.
+ * @customfunction POWER
+ * @param n Number of values (ties left out), such as 30.
+ * @param p_above Probability that a value lies above the hypothesised median under the alternative, such as 0.75.
+ * @param [alpha] Significance level, such as 0.05 (default).
+ * @param [alternative] "two-sided" (default), "greater" or "less".
+ * @returns The power.
+ */
+export function power(n: unknown, p_above: unknown, alpha?: unknown, alternative?: unknown): number | CellError {
+  return scalar(() => {
+    const size = sampleSizeArgument("n", n);
+    const pAbove = probabilityArgument("p_above", p_above, "0.75");
+    const level = fractionArgument("alpha", alpha, 0.05, "0.05");
+    return signTestPower(size, pAbove, { alpha: level, alternative: chooseWord(ALTERNATIVE, alternative) }).power;
+  });
+}
+
+/**
+ * Smallest number of values (ties left out) at which the sign test reaches the power asked for.
+ * @customfunction SAMPLESIZE
+ * @param p_above Probability that a value lies above the hypothesised median under the alternative, such as 0.75.
+ * @param [power] Power wanted, such as 0.8 (default).
+ * @param [alpha] Significance level, such as 0.05 (default).
+ * @param [alternative] "two-sided" (default), "greater" or "less".
+ * @returns The sample size.
+ */
+export function samplesize(p_above: unknown, power?: unknown, alpha?: unknown, alternative?: unknown): number | CellError {
+  return scalar(() => {
+    const pAbove = probabilityArgument("p_above", p_above, "0.75");
+    const target = fractionArgument("power", power, 0.8, "0.8");
+    const level = fractionArgument("alpha", alpha, 0.05, "0.05");
+    const result = signTestSampleSize(pAbove, { power: target, alpha: level, alternative: chooseWord(ALTERNATIVE, alternative) });
+    return result.available ? result.n : unavailableError(result);
+  });
+}
+
+/** A p-value cell for ADJUST: NaN for a cell that is not a number (left out), or a refusal for a number outside 0..1. */
+function pValueCell(cell: unknown, row: number, column: number): number {
+  if (typeof cell !== "number") return NaN;
+  if (cell >= 0 && cell <= 1) return cell;
+  throw new BadArgument(`pvalues must lie between 0 and 1; the cell in row ${row + 1}, column ${column + 1} of the range holds ${cell}.`);
+}
+
+/** An adjusted p-value for its cell: empty where the input was not a number; anything else is a fault of ours. */
+function adjustedCell(adjusted: number, input: number): number | "" {
+  if (Number.isNaN(input) && Number.isNaN(adjusted)) return "";
+  if (adjusted >= 0 && adjusted <= 1 && !Number.isNaN(input)) return adjusted;
+  throw new Error("an adjusted p-value left [0, 1] or lost its place");
+}
+
+/**
+ * Adjusts several p-values for multiple testing. Returns a range of the same shape; cells that are not numbers stay empty and do not count.
+ * @customfunction ADJUST
+ * @param pvalues Range with the p-values.
+ * @param [method] "holm" (default), "bonferroni", "hochberg", "bh" (Benjamini–Hochberg) or "by" (Benjamini–Yekutieli).
+ * @returns The adjusted p-values, same shape.
+ */
+export function adjust(pvalues: unknown[][], method?: unknown): unknown[][] {
+  let cells: Cells = [[null]];
+  try {
+    cells = cellsArgument("pvalues", pvalues);
+    const chosen = chooseWord(ADJUST_METHOD, method);
+    const width = cells[0].length;
+    const flat = new Float64Array(cells.length * width);
+    cells.forEach((row, r) => {
+      for (let c = 0; c < width; c++) flat[r * width + c] = pValueCell(row[c], r, c);
+    });
+    const adjusted = adjustPValues(flat, chosen);
+    return cells.map((row, r) => row.map((_, c) => adjustedCell(adjusted[r * width + c], flat[r * width + c])));
+  } catch (thrown) {
+    const error = errorFor(thrown);
+    return cells.map((row) => row.map(() => error));
+  }
+}
+
+// ---------------------------------------------------------------------------
+// The result block
+
+/**
+ * The full result of a sign test as a block of two columns, label and value: hypotheses, counts, statistic, p-value, decision, bounds and cautions. Give second for a paired test of second − first.
+ * @customfunction REPORT
+ * @param data Range with the measurements (the first measurement of each pair for a paired test).
+ * @param hypothesized_median The median under test (for a paired test: the median difference, usually 0).
+ * @param [alternative] "two-sided" (default), "greater" or "less".
+ * @param [alpha] Significance level for the decision, such as 0.05 (default).
+ * @param [confidence] Confidence of the bounds, such as 0.95 (default).
+ * @param [second] For a paired test: range with the second measurement, same shape as data.
+ * @returns Two columns: label, value.
+ */
+export function report(
+  data: unknown[][],
+  hypothesized_median: unknown,
+  alternative?: unknown,
+  alpha?: unknown,
+  confidence?: unknown,
+  second?: unknown[][],
+): unknown[][] {
+  try {
+    const isPaired = second !== null && second !== undefined;
+    const inputs = isPaired ? pairedCellsArgument(data, second) : { first: cellsArgument("data", data), second: undefined };
+    const request: BlockRequest = {
+      test: "sign",
+      paired: isPaired,
+      center: numberArgument(isPaired ? "hypothesized_median (the shift)" : "hypothesized_median", hypothesized_median),
+      alternative: chooseWord(ALTERNATIVE, alternative),
+      alpha: fractionArgument("alpha", alpha, 0.05, "0.05"),
+      confidence: fractionArgument("confidence", confidence, 0.95),
+    };
+    const cellsIn = { data: inputs.first, second: inputs.second };
+    return resultBlockRows(request).map((row) => {
+      const value = blockValue(row.value, cellsIn, callFunction);
+      return [row.label, value === null || value === undefined ? "" : value];
+    });
+  } catch (thrown) {
+    const error = errorFor(thrown);
+    return [[error, error]];
+  }
+}
+
+// ---------------------------------------------------------------------------
+// Calling the catalogue by id (REPORT, and the demo page's formula evaluator)
+
+type CatalogueFunction = (...args: unknown[]) => unknown;
+
+const CATALOGUE: Readonly<Record<string, CatalogueFunction>> = {
+  COUNTS: counts as CatalogueFunction,
+  PVALUE: pvalue as CatalogueFunction,
+  STATISTIC: statistic as CatalogueFunction,
+  PAIRED: paired as CatalogueFunction,
+  PAIREDSTATISTIC: pairedstatistic as CatalogueFunction,
+  PAIREDCOUNTS: pairedcounts as CatalogueFunction,
+  BOUNDS: bounds as CatalogueFunction,
+  PAIREDBOUNDS: pairedbounds as CatalogueFunction,
+  QUANTILEPVALUE: quantilepvalue as CatalogueFunction,
+  QUANTILEBOUNDS: quantilebounds as CatalogueFunction,
+  SIGNRANK: signrank as CatalogueFunction,
+  PAIREDSIGNRANK: pairedsignrank as CatalogueFunction,
+  SIGNRANKSTATISTIC: signrankstatistic as CatalogueFunction,
+  PAIREDSIGNRANKSTATISTIC: pairedsignrankstatistic as CatalogueFunction,
+  HODGESLEHMANN: hodgeslehmann as CatalogueFunction,
+  PAIREDHODGESLEHMANN: pairedhodgeslehmann as CatalogueFunction,
+  POWER: power as CatalogueFunction,
+  SAMPLESIZE: samplesize as CatalogueFunction,
+  ADJUST: adjust as CatalogueFunction,
+  REPORT: report as CatalogueFunction,
+};
+
+/** Every catalogue id, as registered under the EVENSPLIT namespace. */
+export const FUNCTION_IDS: readonly string[] = Object.keys(CATALOGUE);
+
+/**
+ * Runs a catalogue function by id (without the namespace) on cell matrices,
+ * numbers and words, as the spreadsheet would (missing trailing arguments
+ * mean their defaults, as omitted ones do). Returns a number, a matrix, or a
+ * cell error. An unknown id is a programming error (RangeError).
+ *
+ * @example
+ * callFunction("PVALUE", [[[52], [49], [55]], 50, "greater"]); // 0.5
+ * callFunction("COUNTS", [[[52], [49], [55]], 50]);             // [[1, 0, 2, 3]]
+ */
+export function callFunction(id: string, args: readonly unknown[]): unknown {
+  const fn = Object.prototype.hasOwnProperty.call(CATALOGUE, id) ? CATALOGUE[id] : undefined;
+  if (fn === undefined) throw new RangeError(`no EVENSPLIT function ${id}`);
+  return fn(...args);
+}

@@ -1,0 +1,119 @@
+/**
+ * The shipped dist/functions.js, loaded on its own in a fresh context with a
+ * stand-in for Excel's custom-functions runtime (dist.ts), and the
+ * dist/functions.json beside it. Expected values are worked by hand from the
+ * binomial distribution (exact arithmetic: P(X >= 2) for X ~ Bin(3, 1/2) is
+ * 4/8) or follow from the catalogue's rules (issue "The EVENSPLIT cell
+ * functions"); the metadata fields are those of Microsoft, "Manually create
+ * JSON metadata for custom functions in Excel" (Office Add-ins documentation).
+ */
+import { describe, expect, it } from "vitest";
+import { loadFunctionsBundle, metadataIds, distText, StandInError } from "./dist";
+
+const bundle = loadFunctionsBundle();
+
+interface Metadata {
+  functions: {
+    id: string;
+    name: string;
+    description?: string;
+    parameters: { name: string; description?: string; optional?: boolean; dimensionality?: string; type?: string }[];
+    result: { dimensionality?: string };
+    options?: Record<string, boolean>;
+  }[];
+}
+const metadata = JSON.parse(distText("functions.json")) as Metadata;
+
+/** A one-column range of the given cells. */
+function col(...cells: unknown[]): unknown[][] {
+  return cells.map((c) => [c]);
+}
+
+function expectError(value: unknown, code: string, pattern: RegExp): void {
+  expect(value).toBeInstanceOf(StandInError);
+  const e = value as StandInError;
+  expect(e.code).toBe(code);
+  expect(e.message).toMatch(pattern);
+}
+
+describe("dist/functions.js", () => {
+  it("registers exactly the ids functions.json lists, each once", () => {
+    expect(bundle.ids.length).toBe(new Set(bundle.ids).size);
+    expect([...bundle.ids].sort()).toEqual([...metadataIds()].sort());
+  });
+
+  it("registers functions whose metadata gives help for the function and every argument", () => {
+    for (const f of metadata.functions) {
+      expect(f.name).toBe(f.id);
+      expect(f.description, f.id).toMatch(/\w{3,}/);
+      expect(f.options?.volatile ?? false, f.id).toBe(false);
+      expect(f.options?.stream ?? false, f.id).toBe(false);
+      for (const p of f.parameters) {
+        expect(p.description, `${f.id}(${p.name})`).toMatch(/\w{3,}/);
+        expect(p.type ?? "any").toBe("any");
+      }
+      const ranges = f.parameters.filter((p) => p.dimensionality === "matrix").map((p) => p.name);
+      const expectedRanges = { pvalues: true, data: true, first: true, second: true };
+      for (const p of f.parameters) expect(ranges.includes(p.name), `${f.id}(${p.name})`).toBe(p.name in expectedRanges);
+      expect(bundle.fns.get(f.id)?.length ?? -1, f.id).toBeGreaterThanOrEqual(f.parameters.filter((p) => !p.optional).length);
+    }
+  });
+
+  it("marks the catalogue's optional arguments as optional, in the catalogue's order", () => {
+    const signature = (id: string) =>
+      metadata.functions.find((f) => f.id === id)!.parameters.map((p) => (p.optional ? `[${p.name}]` : p.name)).join(", ");
+    expect(signature("PVALUE")).toBe("data, hypothesized_median, [alternative], [ties], [method]");
+    expect(signature("PAIRED")).toBe("first, second, [shift], [alternative], [ties], [method]");
+    expect(signature("QUANTILEPVALUE")).toBe("data, value, quantile, [alternative]");
+    expect(signature("SAMPLESIZE")).toBe("p_above, [power], [alpha], [alternative]");
+    expect(signature("REPORT")).toBe("data, hypothesized_median, [alternative], [alpha], [confidence], [second]");
+  });
+
+  it("computes through the bundle, skipping blanks, text and logical values", () => {
+    // 52 and 55 above 50, 49 below: P(Bin(3, 1/2) >= 2) = 4/8.
+    const data = col(52, null, 49, "n/a", 55, true, "", 50);
+    expect(bundle.call("PVALUE", data, 50, "greater", null, null)).toBeCloseTo(0.5, 14);
+    expect(bundle.call("COUNTS", data, 50)).toEqual([[1, 1, 2, 3]]);
+    expect(bundle.call("STATISTIC", data, 50, ">")).toBe(2);
+    expect(bundle.call("PAIREDCOUNTS", col(1, 2, 3, "x"), col(2, 2, 1, 4), null)).toEqual([[1, 1, 1, 2, 1]]);
+    const block = bundle.call("REPORT", data, 50, "greater") as unknown[][];
+    expect(block.every((row) => row.length === 2)).toBe(true);
+    expect(block.find((row) => row[0] === "p-value")?.[1]).toBeCloseTo(0.5, 14);
+  });
+
+  it("answers a bad word with #VALUE! listing what is accepted", () => {
+    expectError(bundle.call("PVALUE", col(1, 2), 0, "upwards"), "#VALUE!", /alternative "upwards" is not accepted\. Use two-sided .*greater .*less/);
+    const row = (bundle.call("BOUNDS", col(1, 2), 0.95, "middle") as unknown[][])[0];
+    expect(row).toHaveLength(3);
+    for (const cell of row) expectError(cell, "#VALUE!", /^side "middle" is not accepted\. Use two-sided \(the default\), lower or upper\.$/);
+  });
+
+  it("answers data that cannot give a result with #N/A and the reason", () => {
+    expectError(bundle.call("PVALUE", col(50, 50, "x"), 50), "#N/A", /\w/);
+    const row = bundle.call("BOUNDS", col(1, 2, 3), 0.99) as unknown[][];
+    expect(row[0]).toHaveLength(3);
+    for (const cell of row[0]) expectError(cell, "#N/A", /at least \d+/);
+  });
+
+  it("refuses paired ranges of different shapes", () => {
+    expectError(bundle.call("PAIRED", col(1, 2, 3), col(1, 2)), "#VALUE!", /same shape.*3 rows × 1 column.*2 rows × 1 column/);
+  });
+
+  it("turns an unexpected failure inside into a calm #VALUE!, never the exception's text", () => {
+    const treacherous: unknown[] = [1];
+    Object.defineProperty(treacherous, 0, {
+      get() {
+        throw new Error("internal detail: cells[0] exploded");
+      },
+    });
+    const answers = [
+      bundle.call("PVALUE", [treacherous], 0),
+      (bundle.call("BOUNDS", [treacherous]) as unknown[][])[0][0],
+      (bundle.call("REPORT", [treacherous], 0) as unknown[][])[0][0],
+    ];
+    for (const answer of answers) {
+      expectError(answer, "#VALUE!", /could not work this result out/);
+      expect((answer as StandInError).message).not.toMatch(/internal|exploded|cells\[0\]/);
+    }
+  });
+});

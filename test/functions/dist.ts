@@ -1,0 +1,86 @@
+/**
+ * The built add-in for the tests that check what ships: dist/ as `npm run build`
+ * leaves it, and dist/functions.js loaded in a fresh JavaScript context with a
+ * stand-in for Excel's custom-functions runtime.
+ *
+ * The stand-in follows the runtime's documented surface: `associate(id, fn)`,
+ * `new Error(code, message)` and the `ErrorCode` strings ("#VALUE!", "#N/A", ...)
+ * (Microsoft, "CustomFunctions.ErrorCode enum" and "CustomFunctions.Error class",
+ * Office Add-ins API reference, custom-functions-runtime).
+ */
+import { existsSync, readFileSync } from "node:fs";
+import { join } from "node:path";
+import { fileURLToPath } from "node:url";
+import { createContext, runInContext } from "node:vm";
+
+export const DIST = fileURLToPath(new URL("../../dist", import.meta.url));
+
+/** Contents of a file in dist/; a clear failure when the build has not run. */
+export function distText(name: string): string {
+  const file = join(DIST, name);
+  if (!existsSync(file)) throw new Error(`dist/${name} is missing: run \`npm run build\` before these tests (npm test does).`);
+  return readFileSync(file, "utf8");
+}
+
+export const ERROR_CODES = {
+  divisionByZero: "#DIV/0!",
+  invalidName: "#NAME?",
+  invalidNumber: "#NUM!",
+  invalidReference: "#REF!",
+  invalidValue: "#VALUE!",
+  notAvailable: "#N/A",
+  nullReference: "#NULL!",
+} as const;
+
+/** An error value as the stand-in runtime makes it. */
+export class StandInError {
+  constructor(
+    readonly code: string,
+    readonly message?: string,
+  ) {}
+}
+
+export type Registered = (...args: unknown[]) => unknown;
+
+export interface LoadedBundle {
+  /** Ids in the order functions.js registered them. */
+  readonly ids: string[];
+  /** The registered function for an id. */
+  readonly fns: ReadonlyMap<string, Registered>;
+  /** Calls a registered function; throws when the id was never registered. */
+  call(id: string, ...args: unknown[]): unknown;
+}
+
+/**
+ * Runs dist/functions.js in a new context whose only globals are the
+ * JavaScript built-ins, `console` and the stand-in `CustomFunctions`.
+ */
+export function loadFunctionsBundle(): LoadedBundle {
+  const ids: string[] = [];
+  const fns = new Map<string, Registered>();
+  const CustomFunctions = {
+    associate(id: string, fn: Registered) {
+      ids.push(id);
+      fns.set(id, fn);
+    },
+    Error: StandInError,
+    ErrorCode: ERROR_CODES,
+  };
+  const context = createContext({ CustomFunctions, console });
+  runInContext(distText("functions.js"), context, { filename: "dist/functions.js" });
+  return {
+    ids,
+    fns,
+    call(id, ...args) {
+      const fn = fns.get(id);
+      if (fn === undefined) throw new Error(`functions.js did not register ${id}`);
+      return fn(...args);
+    },
+  };
+}
+
+/** The ids dist/functions.json declares. */
+export function metadataIds(): string[] {
+  const metadata = JSON.parse(distText("functions.json")) as { functions: { id: string }[] };
+  return metadata.functions.map((f) => f.id);
+}
