@@ -3,7 +3,7 @@
  */
 
 // M. F. Triola, "Elementary Statistics" (Pearson), Appendix A, Table A-7 "Critical Values for the Sign Test"
-// (page 741 of the edition consulted; edition not identified). Columns: two-tailed alpha 0.01, 0.02, 0.05, 0.10
+// (p. 741 in the copy the values were taken from; edition not identified, so treat them as from memory). Columns: two-tailed alpha 0.01, 0.02, 0.05, 0.10
 // (one-tailed 0.005, 0.01, 0.025, 0.05). Entry: reject H0 when the count of the less frequent sign is <= it;
 // null marks "not possible to reject". Each entry is also confirmed below by exact arithmetic.
 export const TRIOLA_A7: Record<number, readonly (number | null)[]> = {
