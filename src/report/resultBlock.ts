@@ -48,12 +48,16 @@ export interface CallValue {
 export type BlockValue =
   | { readonly kind: "text"; readonly text: string }
   | CallValue
-  /** Number of cells in the data range. */
-  | { readonly kind: "cells"; readonly of: "data" }
   /** Number of numeric cells in the data range. */
   | { readonly kind: "numbers"; readonly of: "data" }
-  /** Cells of the data range that are not numbers (blank, text, logical). */
+  /**
+   * Filled cells of the data range that are not numbers (text, logical).
+   * Blank cells are not counted, so an open-ended reference such as
+   * B2:B1048576 reports what it skipped, not the million empty rows below the data.
+   */
   | { readonly kind: "skipped"; readonly of: "data" }
+  /** The sum of several catalogue values (e.g. ties + used = pairs compared). */
+  | { readonly kind: "sum"; readonly terms: readonly CallValue[] }
   | { readonly kind: "decision"; readonly pValue: CallValue; readonly alpha: number; readonly reject: string; readonly keep: string };
 
 export type BlockFormat = "text" | "integer" | "number" | "pvalue" | "percent";
@@ -161,8 +165,8 @@ function countRows(request: BlockRequest, centerWords: string): BlockRow[] {
   if (request.paired) {
     const counts = (column: number): CallValue => call("PAIREDCOUNTS", [data(), second(), c], column);
     return [
-      row("pairs", "Pairs in range", { kind: "cells", of: "data" }, "integer"),
-      row("skipped", "Pairs skipped (a side blank or not a number)", counts(5), "integer"),
+      row("pairs", "Complete pairs (n total)", { kind: "sum", terms: [counts(2), counts(4)] }, "integer"),
+      row("skipped", "Pairs skipped (one side blank or not a number)", counts(5), "integer"),
       row("below", `Differences below ${centerWords}`, counts(1), "integer"),
       row("tied", `Differences equal to ${centerWords} (ties)`, counts(2), "integer"),
       row("above", `Differences above ${centerWords}`, counts(3), "integer"),
@@ -172,7 +176,7 @@ function countRows(request: BlockRequest, centerWords: string): BlockRow[] {
   const counts = (column: number): CallValue => call("COUNTS", [data(), c], column);
   return [
     row("numbers", "Numbers in range (n total)", { kind: "numbers", of: "data" }, "integer"),
-    row("skipped", "Cells skipped (blank, text or logical)", { kind: "skipped", of: "data" }, "integer"),
+    row("skipped", "Cells skipped (text or logical; blanks not counted)", { kind: "skipped", of: "data" }, "integer"),
     row("below", `Values below ${centerWords}`, counts(1), "integer"),
     row("tied", `Values equal to ${centerWords} (ties)`, counts(2), "integer"),
     row("above", `Values above ${centerWords}`, counts(3), "integer"),
@@ -373,12 +377,12 @@ export function blockFormula(value: BlockValue, refs: { data: string; second?: s
       return FORMULA_LEAD.test(value.text) ? `'${value.text}` : value.text;
     case "call":
       return `=${formulaCall(value, refs)}`;
-    case "cells":
-      return `=ROWS(${refs.data})*COLUMNS(${refs.data})`;
     case "numbers":
       return `=COUNT(${refs.data})`;
     case "skipped":
-      return `=ROWS(${refs.data})*COLUMNS(${refs.data})-COUNT(${refs.data})`;
+      return `=COUNTA(${refs.data})-COUNT(${refs.data})`;
+    case "sum":
+      return `=${value.terms.map((term) => formulaCall(term, refs)).join("+")}`;
     case "decision":
       return `=IF(${formulaCall(value.pValue, refs)}<=${formulaNumber(value.alpha)},${formulaString(value.reject)},${formulaString(value.keep)})`;
   }
@@ -393,13 +397,19 @@ export interface BlockInputs {
 /** Runs a catalogue function by id on cell matrices, numbers and words; returns a scalar or a one-row matrix. */
 export type CatalogueCall = (fn: string, args: unknown[]) => unknown;
 
-function cellCount(matrix: readonly (readonly unknown[])[]): number {
-  return matrix.reduce((sum, r) => sum + r.length, 0);
+/** What COUNT counts. */
+function isNumberCell(cell: unknown): boolean {
+  return typeof cell === "number" && Number.isFinite(cell);
 }
 
-function numberCount(matrix: readonly (readonly unknown[])[]): number {
+/** What COUNTA counts: anything but an empty cell. */
+function isFilledCell(cell: unknown): boolean {
+  return cell !== null && cell !== undefined && cell !== "";
+}
+
+function countCells(matrix: readonly (readonly unknown[])[], counts: (cell: unknown) => boolean): number {
   let count = 0;
-  for (const r of matrix) for (const cell of r) if (typeof cell === "number" && Number.isFinite(cell)) count++;
+  for (const r of matrix) for (const cell of r) if (counts(cell)) count++;
   return count;
 }
 
@@ -428,12 +438,19 @@ export function blockValue(value: BlockValue, inputs: BlockInputs, run: Catalogu
       return value.text;
     case "call":
       return evaluateCall(value, inputs, run);
-    case "cells":
-      return cellCount(inputs.data);
     case "numbers":
-      return numberCount(inputs.data);
+      return countCells(inputs.data, isNumberCell);
     case "skipped":
-      return cellCount(inputs.data) - numberCount(inputs.data);
+      return countCells(inputs.data, isFilledCell) - countCells(inputs.data, isNumberCell);
+    case "sum": {
+      let total = 0;
+      for (const term of value.terms) {
+        const part = evaluateCall(term, inputs, run);
+        if (typeof part !== "number") return part;
+        total += part;
+      }
+      return total;
+    }
     case "decision": {
       const p = evaluateCall(value.pValue, inputs, run);
       if (typeof p !== "number") return p;

@@ -100,9 +100,12 @@ describe("blockFormula", () => {
     expect(blockFormula({ kind: "call", fn: "PAIRED", args: [{ ref: "data" }, { ref: "second" }, { number: -0.25 }, { text: "less" }] }, refs)).toBe(
       '=EVENSPLIT.PAIRED(Panels[Before],Panels[After],-0.25,"less")',
     );
-    expect(blockFormula({ kind: "cells", of: "data" }, { data: "A2:A9" })).toBe("=ROWS(A2:A9)*COLUMNS(A2:A9)");
     expect(blockFormula({ kind: "numbers", of: "data" }, { data: "A2:A9" })).toBe("=COUNT(A2:A9)");
-    expect(blockFormula({ kind: "skipped", of: "data" }, { data: "A2:A9" })).toBe("=ROWS(A2:A9)*COLUMNS(A2:A9)-COUNT(A2:A9)");
+    expect(blockFormula({ kind: "skipped", of: "data" }, { data: "A2:A9" })).toBe("=COUNTA(A2:A9)-COUNT(A2:A9)");
+    const counts = (column: number): CallValue => ({ kind: "call", fn: "PAIREDCOUNTS", args: [{ ref: "data" }, { ref: "second" }], column });
+    expect(blockFormula({ kind: "sum", terms: [counts(2), counts(4)] }, refs)).toBe(
+      "=INDEX(EVENSPLIT.PAIREDCOUNTS(Panels[Before],Panels[After]),1,2)+INDEX(EVENSPLIT.PAIREDCOUNTS(Panels[Before],Panels[After]),1,4)",
+    );
     const pValue: CallValue = { kind: "call", fn: "PVALUE", args: [{ ref: "data" }, { number: 1e-7 }] };
     expect(blockFormula({ kind: "decision", pValue, alpha: 0.05, reject: 'say "no"', keep: "keep" }, { data: "B:B" })).toBe(
       '=IF(EVENSPLIT.PVALUE(B:B,1E-7)<=0.05,"say ""no""","keep")',
@@ -140,10 +143,17 @@ describe("blockValue", () => {
     throw new Error(`unexpected ${fn}`);
   };
 
-  it("evaluates counts of cells, numbers and skipped cells from the matrix itself", () => {
-    expect(blockValue({ kind: "cells", of: "data" }, { data: cells }, run)).toBe(6);
+  it("counts numbers and filled non-number cells, as COUNT and COUNTA − COUNT do", () => {
     expect(blockValue({ kind: "numbers", of: "data" }, { data: cells }, run)).toBe(3);
-    expect(blockValue({ kind: "skipped", of: "data" }, { data: cells }, run)).toBe(3);
+    expect(blockValue({ kind: "skipped", of: "data" }, { data: cells }, run)).toBe(2);
+    expect(blockValue({ kind: "skipped", of: "data" }, { data: [...cells, [""], [null], [undefined]] }, run)).toBe(2);
+  });
+
+  it("adds the terms of a sum and passes the first error through", () => {
+    const column = (k: number): CallValue => ({ kind: "call", fn: "COUNTS", args: [{ ref: "data" }, { number: 50 }], column: k });
+    expect(blockValue({ kind: "sum", terms: [column(2), column(4)] }, { data: cells }, run)).toBe(3);
+    const failing: CallValue = { kind: "call", fn: "BOUNDS", args: [{ ref: "data" }], column: 1 };
+    expect(blockValue({ kind: "sum", terms: [column(2), failing] }, { data: cells }, run)).toEqual({ code: "#N/A" });
   });
 
   it("picks a column of a one-row result and passes ranges and literals through", () => {

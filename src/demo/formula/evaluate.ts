@@ -1,0 +1,314 @@
+/**
+ * Evaluates an expression tree for one cell of the demo sheet: references,
+ * the few built-in functions the result block uses (INDEX, ROWS, COLUMNS,
+ * COUNT, COUNTA, IF), arithmetic, comparison, concatenation, and the
+ * EVENSPLIT.* functions taken from the real cell-function bundle.
+ *
+ * Method: a direct tree walk. Values follow the spreadsheet's coercions
+ * (common practice, as Excel documents them): a blank is 0 in arithmetic and
+ * "" in text; comparisons order numbers < text < logicals, text without
+ * regard to case; the first error met is the result. Custom functions get
+ * their arguments as Office JavaScript custom functions do: a range as a
+ * matrix of values with "" for blank cells, an omitted argument as null.
+ *
+ * Cost: O(size of the tree + cells read).
+ */
+import { parseAddress, rectSize } from "../../taskpane/a1";
+import type { Expression } from "./parse";
+import { errorValue, isError, isMatrix, isReference, type ErrorValue, type ReferenceValue, type Scalar, type Value } from "./values";
+
+/** How a custom function wants an argument: a matrix (a range) or a single value. */
+export type ArgumentShape = "matrix" | "scalar";
+
+export interface CustomFunction {
+  readonly fn: (...args: unknown[]) => unknown;
+  /** Per argument position; positions past the end are taken as single values. */
+  readonly shapes: readonly ArgumentShape[];
+}
+
+/** What the evaluator needs from the workbook. */
+export interface EvaluationContext {
+  /** Sheet of the cell being calculated: references without a sheet prefix point here. */
+  readonly sheet: string;
+  /** Values of a reference, row by row (null for blank cells). */
+  read(reference: ReferenceValue): Scalar[][];
+  /** The data-body cells of a table column, or an error when there is no such table or column. */
+  tableColumn(table: string, column: string): ReferenceValue | ErrorValue;
+  /** A function of the add-in's namespace by id ("PVALUE"), or undefined. */
+  customFunction(id: string): CustomFunction | undefined;
+}
+
+const NAMESPACE = "EVENSPLIT.";
+
+function single(value: Value, context: EvaluationContext): Scalar {
+  if (isReference(value)) {
+    const { rows, columns } = rectSize(value.rect);
+    if (rows !== 1 || columns !== 1) return errorValue("#VALUE!", "A range of several cells stands where one value is expected.");
+    return context.read(value)[0][0];
+  }
+  if (isMatrix(value)) {
+    if (value.rows.length !== 1 || value.rows[0].length !== 1) return errorValue("#VALUE!", "A list of values stands where one value is expected.");
+    return value.rows[0][0];
+  }
+  return value;
+}
+
+function toNumber(value: Scalar): number | ErrorValue {
+  if (isError(value)) return value;
+  if (value === null) return 0;
+  if (typeof value === "number") return value;
+  if (typeof value === "boolean") return value ? 1 : 0;
+  const trimmed = value.trim();
+  const parsed = trimmed === "" ? NaN : Number(trimmed);
+  return Number.isFinite(parsed) ? parsed : errorValue("#VALUE!", `The text "${value}" is not a number.`);
+}
+
+function toText(value: Scalar): string | ErrorValue {
+  if (isError(value)) return value;
+  if (value === null) return "";
+  if (typeof value === "boolean") return value ? "TRUE" : "FALSE";
+  return String(value);
+}
+
+function finite(x: number): number | ErrorValue {
+  return Number.isFinite(x) ? x : errorValue("#NUM!", "The result is too large or not a number.");
+}
+
+function typeRank(value: number | string | boolean): number {
+  return typeof value === "number" ? 0 : typeof value === "string" ? 1 : 2;
+}
+
+function compare(op: string, a: Scalar, b: Scalar): boolean | ErrorValue {
+  if (isError(a)) return a;
+  if (isError(b)) return b;
+  const blankAs = (other: Scalar): number | string | boolean => (typeof other === "string" ? "" : typeof other === "boolean" ? false : 0);
+  const left = a === null ? blankAs(b) : a;
+  const right = b === null ? blankAs(a) : b;
+  let order: number;
+  if (typeRank(left) !== typeRank(right)) order = typeRank(left) - typeRank(right);
+  else if (typeof left === "string") order = left.toLowerCase().localeCompare((right as string).toLowerCase());
+  else order = Number(left) - Number(right);
+  switch (op) {
+    case "=":
+      return order === 0;
+    case "<>":
+      return order !== 0;
+    case "<":
+      return order < 0;
+    case ">":
+      return order > 0;
+    case "<=":
+      return order <= 0;
+    default:
+      return order >= 0;
+  }
+}
+
+function arithmetic(op: string, a: Scalar, b: Scalar): Scalar {
+  const x = toNumber(a);
+  if (isError(x)) return x;
+  const y = toNumber(b);
+  if (isError(y)) return y;
+  switch (op) {
+    case "+":
+      return finite(x + y);
+    case "-":
+      return finite(x - y);
+    case "*":
+      return finite(x * y);
+    case "/":
+      return y === 0 ? errorValue("#DIV/0!", "Division by zero.") : finite(x / y);
+    default:
+      return finite(Math.pow(x, y));
+  }
+}
+
+function binary(op: string, left: Value, right: Value, context: EvaluationContext): Scalar {
+  const a = single(left, context);
+  const b = single(right, context);
+  if (op === "&") {
+    const s = toText(a);
+    if (isError(s)) return s;
+    const t = toText(b);
+    return isError(t) ? t : s + t;
+  }
+  if (["=", "<>", "<", ">", "<=", ">="].includes(op)) return compare(op, a, b);
+  return arithmetic(op, a, b);
+}
+
+function cellsOf(value: Value, context: EvaluationContext): Scalar[][] {
+  if (isReference(value)) return context.read(value);
+  if (isMatrix(value)) return value.rows.map((r) => [...r]);
+  return [[value]];
+}
+
+function dimensions(value: Value): { rows: number; columns: number } {
+  if (isReference(value)) return rectSize(value.rect);
+  if (isMatrix(value)) return { rows: value.rows.length, columns: value.rows[0]?.length ?? 0 };
+  return { rows: 1, columns: 1 };
+}
+
+function firstError(cells: readonly (readonly Scalar[])[]): ErrorValue | undefined {
+  for (const row of cells) for (const cell of row) if (isError(cell)) return cell;
+  return undefined;
+}
+
+function whole(x: Scalar, what: string): number | ErrorValue {
+  const n = toNumber(x);
+  if (isError(n)) return n;
+  return Number.isInteger(n) && n >= 1 ? n : errorValue("#VALUE!", `INDEX needs a ${what} number of 1 or more.`);
+}
+
+function index(args: Value[], context: EvaluationContext): Value {
+  if (args.length < 2 || args.length > 3) return errorValue("#VALUE!", "INDEX takes an array, a row and a column.");
+  const array = args[0];
+  if (isError(array)) return array;
+  const row = whole(single(args[1], context), "row");
+  if (isError(row)) return row;
+  const column = args.length === 3 ? whole(single(args[2], context), "column") : 1;
+  if (isError(column)) return column;
+  const size = dimensions(array);
+  if (row > size.rows || column > size.columns) return errorValue("#REF!", "INDEX points outside the array.");
+  if (isReference(array)) {
+    const cell = { top: array.rect.top + row - 1, left: array.rect.left + column - 1 };
+    return { kind: "reference", sheet: array.sheet, rect: { ...cell, bottom: cell.top, right: cell.left } };
+  }
+  return isMatrix(array) ? array.rows[row - 1][column - 1] : array;
+}
+
+function count(args: Value[], context: EvaluationContext, counts: (cell: Scalar) => boolean): number {
+  let total = 0;
+  for (const arg of args) for (const row of cellsOf(arg, context)) for (const cell of row) if (counts(cell)) total++;
+  return total;
+}
+
+function truth(value: Scalar): boolean | ErrorValue {
+  if (isError(value)) return value;
+  if (typeof value === "boolean") return value;
+  if (value === null) return false;
+  if (typeof value === "number") return value !== 0;
+  const upper = value.toUpperCase();
+  if (upper === "TRUE" || upper === "FALSE") return upper === "TRUE";
+  return errorValue("#VALUE!", `IF needs TRUE or FALSE, not the text "${value}".`);
+}
+
+function builtIn(name: string, args: Value[], context: EvaluationContext): Value {
+  switch (name) {
+    case "INDEX":
+      return index(args, context);
+    case "ROWS":
+    case "COLUMNS": {
+      if (args.length !== 1) return errorValue("#VALUE!", `${name} takes one range.`);
+      if (isError(args[0])) return args[0];
+      const size = dimensions(args[0]);
+      return name === "ROWS" ? size.rows : size.columns;
+    }
+    case "COUNT":
+      return count(args, context, (cell) => typeof cell === "number");
+    case "COUNTA":
+      return count(args, context, (cell) => cell !== null);
+    case "IF": {
+      if (args.length < 2 || args.length > 3) return errorValue("#VALUE!", "IF takes a condition and one or two results.");
+      const condition = truth(single(args[0], context));
+      if (isError(condition)) return condition;
+      if (condition) return args[1];
+      return args.length === 3 ? args[2] : false;
+    }
+    default:
+      return errorValue("#NAME?", `The demo sheet does not know the function ${name}.`);
+  }
+}
+
+/** A custom function's answer as a sheet value: numbers, text, logicals, one-row or larger matrices, error objects. */
+function fromCustom(result: unknown): Value {
+  if (typeof result === "number") return finite(result);
+  if (typeof result === "string" || typeof result === "boolean") return result;
+  if (Array.isArray(result)) {
+    const rows = result.map((row: unknown) => (Array.isArray(row) ? row : [row]).map((cell: unknown) => fromCustom(cell === null ? "" : cell)));
+    if (rows.some((row) => row.some((cell) => typeof cell === "object" && cell !== null && !isError(cell)))) {
+      return errorValue("#VALUE!", "The function answered with nested lists.");
+    }
+    return { kind: "matrix", rows: rows as Scalar[][] };
+  }
+  if (typeof result === "object" && result !== null && typeof (result as { code?: unknown }).code === "string") {
+    const error = result as { code: string; message?: string };
+    return errorValue(error.code, error.message ?? "");
+  }
+  return errorValue("#VALUE!", "The function gave no usable answer.");
+}
+
+function customArgument(value: Value, shape: ArgumentShape, context: EvaluationContext): unknown {
+  if (shape === "matrix") {
+    const cells = cellsOf(value, context);
+    return firstError(cells) ?? cells.map((row) => row.map((cell) => (cell === null ? "" : cell)));
+  }
+  return single(value, context);
+}
+
+function callCustom(id: string, args: readonly Expression[], context: EvaluationContext): Value {
+  const custom = context.customFunction(id);
+  if (custom === undefined) return errorValue("#NAME?", `There is no function ${NAMESPACE}${id}.`);
+  const passed: unknown[] = [];
+  for (let i = 0; i < args.length; i++) {
+    const arg = args[i];
+    if (arg.type === "missing") {
+      passed.push(null);
+      continue;
+    }
+    const value = customArgument(evaluate(arg, context), custom.shapes[i] ?? "scalar", context);
+    if (isError(value)) return value;
+    passed.push(value);
+  }
+  try {
+    return fromCustom(custom.fn(...passed));
+  } catch (thrown) {
+    return fromCustom(typeof thrown === "object" && thrown !== null && "code" in thrown ? thrown : undefined);
+  }
+}
+
+function reference(text: string, context: EvaluationContext): ReferenceValue | ErrorValue {
+  const parsed = parseAddress(text);
+  if (!parsed) return errorValue("#REF!", `${text} is not a reference.`);
+  const { sheet = context.sheet, ...rect } = parsed;
+  return { kind: "reference", sheet, rect };
+}
+
+/**
+ * The value of an expression in the context of one cell. References stay
+ * references (so ROWS and INDEX need not read them); the caller turns the
+ * final value into what the cell shows.
+ *
+ * @example
+ * evaluate(parseFormula("ROWS(A2:A26)*COLUMNS(A2:A26)"), context); // 25
+ */
+export function evaluate(expression: Expression, context: EvaluationContext): Value {
+  switch (expression.type) {
+    case "number":
+    case "string":
+    case "boolean":
+      return expression.value;
+    case "missing":
+      return null;
+    case "ref":
+      return reference(expression.text, context);
+    case "table":
+      return context.tableColumn(expression.table, expression.column);
+    case "unary": {
+      const operand = toNumber(single(evaluate(expression.operand, context), context));
+      return isError(operand) || expression.op === "+" ? operand : -operand;
+    }
+    case "percent": {
+      const operand = toNumber(single(evaluate(expression.operand, context), context));
+      return isError(operand) ? operand : operand / 100;
+    }
+    case "binary":
+      return binary(expression.op, evaluate(expression.left, context), evaluate(expression.right, context), context);
+    case "call":
+      if (expression.name.startsWith(NAMESPACE)) return callCustom(expression.name.slice(NAMESPACE.length), expression.args, context);
+      return builtIn(
+        expression.name,
+        expression.args.map((arg) => evaluate(arg, context)),
+        context,
+      );
+  }
+}

@@ -1,0 +1,269 @@
+/**
+ * The demo sheet on the page: a grid of cells with a name box and a contents
+ * bar, operable by mouse and keyboard, showing what the workbook calculates
+ * under each cell's number format; and the charts the workbook recorded,
+ * drawn below the grid.
+ *
+ * Method: the grid is an HTML table rebuilt from the workbook after every
+ * change (cell text as text nodes only). Keyboard: arrows move, Shift+arrows
+ * extend the selection, typing starts an entry in the contents bar, Enter
+ * there commits and moves down, Escape cancels, F2 edits, Delete clears the
+ * selection; Tab leaves the grid for the pane. Typing below a table
+ * lengthens it, as in the spreadsheet.
+ *
+ * Cost: O(visible cells) per change.
+ */
+import { columnLetters, formatAddress, parseAddress, type CellRect } from "../taskpane/a1";
+import { el, replaceChildren, svg } from "../taskpane/dom";
+import { formatCell } from "../taskpane/numberFormat";
+import { isError } from "./formula/values";
+import type { ChartModel, Workbook } from "./workbook";
+
+const MIN_ROWS = 32;
+const MIN_COLUMNS = 12;
+const DEFAULT_WIDTH = 84;
+const ROW_HEADER_WIDTH = 40;
+
+interface Cursor {
+  row: number;
+  column: number;
+}
+
+function shownText(workbook: Workbook, sheet: string, row: number, column: number): { text: string; error?: string; numeric: boolean } {
+  const value = workbook.value(sheet, row, column);
+  if (isError(value)) return { text: value.code, error: value.message, numeric: false };
+  return { text: formatCell(value, workbook.format(sheet, row, column).numberFormat), numeric: typeof value === "number" };
+}
+
+function chartView(workbook: Workbook, chart: ChartModel): HTMLElement {
+  const source = workbook.chartSource(chart);
+  const values = workbook.values(chart.sheet, source);
+  const header = values[0].every((v) => typeof v === "string");
+  const names = header ? values[0].map(String) : values[0].map((_, i) => `Series ${i + 1}`);
+  const rows = header ? values.slice(1) : values;
+  const numbers = rows.flatMap((r) => r.filter((v): v is number => typeof v === "number"));
+  const high = Math.max(1, ...numbers);
+  const width = 320;
+  const height = 130;
+  const base = height - 14;
+  const groups = Math.max(1, rows.length);
+  const step = (width - 20) / groups;
+  const barWidth = Math.max(1, (step * 0.8) / Math.max(1, names.length));
+  const plot = svg("svg", {
+    class: "demo-chart-plot",
+    attrs: { viewBox: `0 0 ${width} ${height}`, role: "img", "aria-label": `Column chart of ${names.join(" and ")}, ${rows.length} rows` },
+  });
+  rows.forEach((row, i) =>
+    row.forEach((v, s) => {
+      if (typeof v !== "number") return;
+      const h = (v / high) * (base - 10);
+      plot.appendChild(
+        svg("rect", {
+          class: `demo-chart-bar demo-series-${s % 2}`,
+          attrs: { x: (10 + i * step + s * barWidth).toFixed(2), y: (base - h).toFixed(2), width: barWidth.toFixed(2), height: h.toFixed(2) },
+        }),
+      );
+    }),
+  );
+  plot.appendChild(svg("line", { class: "demo-chart-axis", attrs: { x1: "10", x2: String(width - 10), y1: String(base), y2: String(base) } }));
+  const address = formatAddress(source, chart.sheet);
+  return el(
+    "figure",
+    { class: "demo-chart" },
+    el("figcaption", undefined, el("strong", undefined, chart.title || "Chart"), ` — a recorded chart object (${chart.type}) of ${address}, which Excel would float over ${chart.from}:${chart.to}. The demo draws it here; it follows the same cells.`),
+    plot,
+    el("p", { class: "demo-legend" }, ...names.map((n, s) => el("span", { class: `demo-key demo-series-${s % 2}` }, n))),
+  );
+}
+
+/**
+ * Shows the workbook's first sheet in `container` and keeps it up to date.
+ *
+ * @example
+ * mountGrid(document.getElementById("sheet")!, workbook);
+ */
+export function mountGrid(container: HTMLElement, workbook: Workbook): void {
+  const sheet = workbook.sheetNames[0];
+  let active: Cursor = { row: 0, column: 0 };
+  let anchor: Cursor = { row: 0, column: 0 };
+  let dragging = false;
+
+  const nameBox = el("input", { class: "demo-namebox", attrs: { type: "text", "aria-label": "Selected cells (type an address and press Enter)", spellcheck: "false" } });
+  const contents = el("input", { class: "demo-contents", attrs: { type: "text", "aria-label": "Contents of the active cell (Enter saves, Escape cancels)", spellcheck: "false" } });
+  const head = el("thead");
+  const body = el("tbody");
+  const grid = el("table", { class: "demo-grid", attrs: { role: "grid", tabindex: "0", "aria-label": `Sheet ${sheet}`, "aria-multiselectable": "true" } }, head, body);
+  const charts = el("section", { class: "demo-charts", attrs: { "aria-label": "Charts in the sheet" } });
+  replaceChildren(
+    container,
+    el("div", { class: "demo-bar" }, nameBox, el("span", { class: "demo-fx", attrs: { "aria-hidden": "true" } }, "fx"), contents),
+    el("div", { class: "demo-grid-wrap" }, grid),
+    el("p", { class: "demo-tab" }, el("span", undefined, sheet)),
+    charts,
+  );
+
+  const rect = (): CellRect => ({
+    top: Math.min(anchor.row, active.row),
+    bottom: Math.max(anchor.row, active.row),
+    left: Math.min(anchor.column, active.column),
+    right: Math.max(anchor.column, active.column),
+  });
+  const cellId = (r: number, c: number): string => `demo-cell-${r}-${c}`;
+
+  const select = (): void => workbook.select({ sheet, rect: rect() });
+
+  function render(): void {
+    const used = workbook.usedRect(sheet);
+    const selection = workbook.selection.rect;
+    const mine = rect();
+    if (selection.top !== mine.top || selection.left !== mine.left || selection.bottom !== mine.bottom || selection.right !== mine.right) {
+      // Someone else (the pane) selected cells: follow them.
+      active = { row: selection.top, column: selection.left };
+      anchor = { row: selection.bottom, column: selection.right };
+    }
+    const rows = Math.max(MIN_ROWS, (used?.bottom ?? 0) + 6, selection.bottom + 2);
+    const columns = Math.max(MIN_COLUMNS, (used?.right ?? 0) + 3, selection.right + 2);
+    const widths = Array.from({ length: columns }, (_, c) => workbook.columnWidth(sheet, c) ?? DEFAULT_WIDTH);
+    replaceChildren(
+      head,
+      el("tr", undefined, el("th", { class: "demo-corner", attrs: { scope: "col" } }), ...widths.map((width, c) => {
+        const th = el("th", { attrs: { scope: "col" } }, columnLetters(c));
+        th.style.width = `${width}px`;
+        return th;
+      })),
+    );
+    // A fixed layout needs a definite width: then the columns keep their widths, as a sheet's do.
+    grid.style.width = `${ROW_HEADER_WIDTH + widths.reduce((sum, w) => sum + w, 0)}px`;
+    const tableCells = new Map<string, "header" | "body">();
+    for (const t of workbook.tables.filter((x) => x.sheet === sheet)) {
+      for (let r = t.rect.top; r <= t.rect.bottom; r++) for (let c = t.rect.left; c <= t.rect.right; c++) tableCells.set(`${r},${c}`, r === t.rect.top ? "header" : "body");
+    }
+    const rowsOut: HTMLElement[] = [];
+    for (let r = 0; r < rows; r++) {
+      const tr = el("tr", undefined, el("th", { attrs: { scope: "row" } }, String(r + 1)));
+      for (let c = 0; c < columns; c++) {
+        const shown = shownText(workbook, sheet, r, c);
+        const format = workbook.format(sheet, r, c);
+        const inSelection = r >= selection.top && r <= selection.bottom && c >= selection.left && c <= selection.right;
+        const classes = ["demo-cell"];
+        if (shown.numeric) classes.push("demo-num");
+        if (format.bold) classes.push("demo-bold");
+        if (format.italic) classes.push("demo-italic");
+        if (inSelection) classes.push("demo-selected");
+        if (r === active.row && c === active.column) classes.push("demo-active");
+        const table = tableCells.get(`${r},${c}`);
+        if (table) classes.push(table === "header" ? "demo-table-header" : "demo-table-body");
+        if (shown.error) classes.push("demo-error");
+        // Text runs on over empty neighbours to its right, as in the spreadsheet.
+        if (!shown.numeric && shown.text !== "" && workbook.value(sheet, r, c + 1) === null) classes.push("demo-overflow");
+        const td = el("td", { class: classes.join(" "), id: cellId(r, c), attrs: { role: "gridcell", "aria-selected": inSelection ? "true" : "false", "data-row": String(r), "data-column": String(c) } }, shown.text);
+        if (shown.error) td.setAttribute("title", shown.error);
+        if (format.color) td.style.color = format.color;
+        tr.appendChild(td);
+      }
+      rowsOut.push(tr);
+    }
+    replaceChildren(body, ...rowsOut);
+    grid.setAttribute("aria-activedescendant", cellId(active.row, active.column));
+    nameBox.value = formatAddress(selection);
+    if (document.activeElement !== contents) contents.value = String(workbook.entry(sheet, active.row, active.column));
+    replaceChildren(charts, ...workbook.charts.filter((c) => c.sheet === sheet).map((c) => chartView(workbook, c)));
+    document.getElementById(cellId(active.row, active.column))?.scrollIntoView({ block: "nearest", inline: "nearest" });
+  }
+
+  function moveTo(row: number, column: number, extend: boolean): void {
+    active = { row: Math.max(0, row), column: Math.max(0, column) };
+    if (!extend) anchor = { ...active };
+    select();
+  }
+
+  function commit(): void {
+    workbook.writeEntries(sheet, active.row, active.column, [[contents.value]], true);
+  }
+
+  grid.addEventListener("keydown", (event) => {
+    const moves: Record<string, [number, number]> = { ArrowUp: [-1, 0], ArrowDown: [1, 0], ArrowLeft: [0, -1], ArrowRight: [0, 1] };
+    const move = moves[event.key];
+    if (move) {
+      event.preventDefault();
+      moveTo(active.row + move[0], active.column + move[1], event.shiftKey);
+      return;
+    }
+    if (event.key === "Enter" || event.key === "F2") {
+      event.preventDefault();
+      contents.focus();
+      contents.setSelectionRange(contents.value.length, contents.value.length);
+      return;
+    }
+    if (event.key === "Delete" || event.key === "Backspace") {
+      event.preventDefault();
+      const r = rect();
+      const blanks = Array.from({ length: r.bottom - r.top + 1 }, () => Array.from({ length: r.right - r.left + 1 }, () => ""));
+      workbook.writeEntries(sheet, r.top, r.left, blanks);
+      return;
+    }
+    if (event.key.length === 1 && !event.ctrlKey && !event.metaKey && !event.altKey) {
+      event.preventDefault();
+      contents.value = event.key;
+      contents.focus();
+    }
+  });
+
+  contents.addEventListener("keydown", (event) => {
+    if (event.key === "Enter") {
+      event.preventDefault();
+      grid.focus();
+      commit();
+      moveTo(active.row + 1, active.column, false);
+    } else if (event.key === "Escape") {
+      event.preventDefault();
+      contents.value = String(workbook.entry(sheet, active.row, active.column));
+      grid.focus();
+    }
+  });
+
+  nameBox.addEventListener("keydown", (event) => {
+    if (event.key !== "Enter") return;
+    event.preventDefault();
+    const parsed = parseAddress(nameBox.value);
+    if (!parsed || (parsed.sheet !== undefined && parsed.sheet.toLowerCase() !== sheet.toLowerCase())) {
+      nameBox.setAttribute("aria-invalid", "true");
+      return;
+    }
+    nameBox.removeAttribute("aria-invalid");
+    anchor = { row: parsed.bottom, column: parsed.right };
+    active = { row: parsed.top, column: parsed.left };
+    select();
+    grid.focus();
+  });
+
+  const cellAt = (target: EventTarget | null): Cursor | null => {
+    const td = (target as HTMLElement | null)?.closest?.("td[data-row]");
+    return td ? { row: Number(td.getAttribute("data-row")), column: Number(td.getAttribute("data-column")) } : null;
+  };
+  grid.addEventListener("mousedown", (event) => {
+    const cell = cellAt(event.target);
+    if (!cell) return;
+    event.preventDefault();
+    grid.focus();
+    dragging = true;
+    if (event.shiftKey) active = cell;
+    else anchor = active = cell;
+    select();
+  });
+  grid.addEventListener("mouseover", (event) => {
+    if (!dragging) return;
+    const cell = cellAt(event.target);
+    if (cell && (cell.row !== active.row || cell.column !== active.column)) {
+      active = cell;
+      select();
+    }
+  });
+  document.addEventListener("mouseup", () => {
+    dragging = false;
+  });
+  grid.addEventListener("dblclick", () => contents.focus());
+
+  workbook.onChange(render);
+  render();
+}

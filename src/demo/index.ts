@@ -1,0 +1,86 @@
+/**
+ * Entry of demo.html: the Evensplit pane beside an in-page sheet holding
+ * invented data, for trying the add-in where Excel is not installed.
+ *
+ * Start-up: install the custom-functions stand-in, load the real cell
+ * function bundle (functions.js) and its metadata (functions.json, same
+ * origin), fill the workbook with the invented data, then show the sheet and
+ * mount the pane on a host built from the demo's Excel stand-in. Nothing is
+ * sent anywhere: the page only reads its own files.
+ *
+ * Cost: O(cells) at start-up.
+ */
+import { callFunction } from "../functions/functions";
+import { el, replaceChildren } from "../taskpane/dom";
+import { createHost } from "../taskpane/host";
+import { mountPane } from "../taskpane/pane";
+import { applyTheme, type Theme } from "../taskpane/theme";
+import { fakeRun } from "./fakeExcel";
+import { mountGrid } from "./grid";
+import { DEMO_SHEET, demoRows, extraPanel } from "./inventedData";
+import { installStandIn, loadScript, shapesFrom, withShapes } from "./standIn";
+import { Workbook } from "./workbook";
+
+/** The workbook behind the page; exposed for the browser tests to inspect, never written by them. */
+declare global {
+  interface Window {
+    evensplitDemo?: { workbook: Workbook };
+  }
+}
+
+function nextEmptyRow(workbook: Workbook): number {
+  const used = workbook.usedRect(DEMO_SHEET);
+  let row = 1;
+  while (row <= (used?.bottom ?? 0) && [0, 1, 2].some((c) => workbook.value(DEMO_SHEET, row, c) !== null)) row++;
+  return row;
+}
+
+async function start(): Promise<void> {
+  const sheetHost = document.getElementById("sheet");
+  const paneHost = document.getElementById("pane");
+  const problem = document.getElementById("problem");
+  if (!sheetHost || !paneHost || !problem) return;
+  const prefersDark = window.matchMedia("(prefers-color-scheme: dark)").matches;
+  let theme: Theme = prefersDark ? "dark" : "light";
+  applyTheme(document.documentElement, theme);
+
+  const registered = installStandIn(window);
+  let metadata: unknown;
+  try {
+    await loadScript("functions.js");
+    const response = await fetch("functions.json");
+    if (!response.ok) throw new Error("functions.json could not be read; run npm run build first.");
+    metadata = await response.json();
+  } catch (thrown) {
+    problem.textContent = thrown instanceof Error ? thrown.message : "The cell functions could not be loaded.";
+    return;
+  }
+
+  const workbook = new Workbook([DEMO_SHEET]);
+  workbook.writeEntries(DEMO_SHEET, 0, 0, demoRows());
+  workbook.setFormat(DEMO_SHEET, { top: 0, left: 0, bottom: 0, right: 2 }, { bold: true });
+  [64, 150, 210].forEach((width, column) => workbook.setColumnWidth(DEMO_SHEET, column, width));
+  workbook.setFunctions(withShapes(registered, shapesFrom(metadata)));
+  window.evensplitDemo = { workbook };
+
+  mountGrid(sheetHost, workbook);
+  mountPane(paneHost, { host: createHost(fakeRun(workbook)), calculate: callFunction });
+
+  let added = 0;
+  const themeButton = el("button", { class: "demo-button", attrs: { type: "button", "aria-pressed": String(theme === "dark") } }, "Dark theme");
+  themeButton.addEventListener("click", () => {
+    theme = theme === "dark" ? "light" : "dark";
+    applyTheme(document.documentElement, theme);
+    themeButton.setAttribute("aria-pressed", String(theme === "dark"));
+  });
+  const addButton = el("button", { class: "demo-button", attrs: { type: "button" } }, "Add a panel row");
+  addButton.addEventListener("click", () => {
+    const row = nextEmptyRow(workbook);
+    workbook.writeEntries(DEMO_SHEET, row, 0, [extraPanel(added)], true);
+    added++;
+  });
+  const tools = document.getElementById("tools");
+  if (tools) replaceChildren(tools, themeButton, addButton);
+}
+
+void start();

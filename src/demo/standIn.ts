@@ -1,0 +1,113 @@
+/**
+ * A stand-in for Excel's custom-functions runtime, so that the demo sheet
+ * evaluates formulas with the very bundle Excel loads (dist/functions.js):
+ * the bundle registers each function through `CustomFunctions.associate`,
+ * and the stand-in keeps them, with the argument shapes from the bundle's
+ * metadata (dist/functions.json: a "matrix" parameter gets a range).
+ *
+ * Method: the runtime's documented surface — associate(id, fn) (or a map of
+ * ids to functions), the Error class and the ErrorCode strings (Microsoft,
+ * "CustomFunctions namespace", Office Add-ins API reference,
+ * custom-functions-runtime).
+ *
+ * Cost: O(number of functions).
+ */
+import type { ArgumentShape, CustomFunction } from "./formula/evaluate";
+
+type AnyFunction = (...args: unknown[]) => unknown;
+
+/** The error codes a custom function can answer with, as the cell shows them. */
+export const ERROR_CODES = {
+  divisionByZero: "#DIV/0!",
+  invalidName: "#NAME?",
+  invalidNumber: "#NUM!",
+  invalidReference: "#REF!",
+  invalidValue: "#VALUE!",
+  notAvailable: "#N/A",
+  nullReference: "#NULL!",
+} as const;
+
+class StandInError {
+  constructor(
+    readonly code: string,
+    readonly message?: string,
+  ) {}
+}
+
+/**
+ * Installs `CustomFunctions` on a global object and returns the map that
+ * fills up as the bundle registers its functions (ids in upper case).
+ *
+ * @example
+ * const registered = installStandIn(window);
+ * await loadScript("functions.js"); // registered.get("PVALUE") is now the bundle's function
+ */
+export function installStandIn(target: object): Map<string, AnyFunction> {
+  const registered = new Map<string, AnyFunction>();
+  const associate = (idOrMap: string | Record<string, AnyFunction>, fn?: AnyFunction): void => {
+    if (typeof idOrMap === "string") {
+      if (fn) registered.set(idOrMap.toUpperCase(), fn);
+      return;
+    }
+    for (const [id, f] of Object.entries(idOrMap)) registered.set(id.toUpperCase(), f);
+  };
+  Object.defineProperty(target, "CustomFunctions", {
+    value: { associate, Error: StandInError, ErrorCode: { ...ERROR_CODES } },
+    configurable: true,
+    writable: true,
+  });
+  return registered;
+}
+
+/**
+ * Loads a script of the page's own origin and waits for it to run.
+ *
+ * @example
+ * await loadScript("functions.js");
+ */
+export function loadScript(src: string): Promise<void> {
+  return new Promise((resolve, reject) => {
+    const script = document.createElement("script");
+    script.src = src;
+    script.addEventListener("load", () => resolve());
+    script.addEventListener("error", () => reject(new Error(`${src} could not be loaded; run npm run build first.`)));
+    document.head.appendChild(script);
+  });
+}
+
+interface MetadataParameter {
+  readonly dimensionality?: string;
+}
+
+interface MetadataFunction {
+  readonly id?: string;
+  readonly parameters?: readonly MetadataParameter[];
+}
+
+/**
+ * Argument shapes per function id from custom-functions metadata (functions.json).
+ *
+ * @example
+ * shapesFrom({ functions: [{ id: "PVALUE", parameters: [{ dimensionality: "matrix" }, { }] }] }).get("PVALUE"); // ["matrix", "scalar"]
+ */
+export function shapesFrom(metadata: unknown): Map<string, ArgumentShape[]> {
+  const shapes = new Map<string, ArgumentShape[]>();
+  const list = (metadata as { functions?: readonly MetadataFunction[] } | null)?.functions ?? [];
+  for (const f of list) {
+    if (typeof f.id !== "string") continue;
+    shapes.set(f.id.toUpperCase(), (f.parameters ?? []).map((p) => (p.dimensionality === "matrix" ? "matrix" : "scalar")));
+  }
+  return shapes;
+}
+
+/**
+ * The registered functions joined with their shapes, ready for the workbook.
+ *
+ * @example
+ * withShapes(registered, shapesFrom(metadata)).get("PVALUE"); // { fn, shapes: ["matrix", "scalar", ...] }
+ */
+export function withShapes(registered: ReadonlyMap<string, AnyFunction>, shapes: ReadonlyMap<string, ArgumentShape[]>): Map<string, CustomFunction> {
+  const joined = new Map<string, CustomFunction>();
+  for (const [id, fn] of registered) joined.set(id, { fn, shapes: shapes.get(id) ?? [] });
+  return joined;
+}

@@ -1,0 +1,503 @@
+/**
+ * The demo page's workbook: sheets of cells (constants or formulas), tables,
+ * recorded charts, the selection, and a full recalculation after every
+ * change. It stands in for the spreadsheet where Excel is not installed.
+ *
+ * Method: formulas are parsed once when entered and evaluated on every
+ * change, each cell at most once per pass (memoised, with a guard against
+ * circular references). A formula whose answer has several cells spills it
+ * right and down into empty cells, as dynamic arrays do, or shows #SPILL! when
+ * something is in the way; because a spill can change what other formulas
+ * read, passes repeat until the spilled areas stop changing (at most four).
+ * Whole-column references are read down to the last used row only: the
+ * custom functions then see fewer trailing blank cells than Excel would pass,
+ * which changes nothing but blank counts.
+ * Typing into the row just below a table makes the table one row longer, as
+ * the spreadsheet's automatic table expansion does.
+ *
+ * Cost: a recalculation is O(formula cells × cells each reads).
+ */
+import { LAST_ROW, rectContains, rectsOverlap, rectSize, type CellRect } from "../taskpane/a1";
+import { evaluate, type CustomFunction, type EvaluationContext } from "./formula/evaluate";
+import { parseFormula, type Expression } from "./formula/parse";
+import { FormulaSyntaxError } from "./formula/tokenize";
+import { errorValue, isError, isMatrix, isReference, type ErrorValue, type ReferenceValue, type Scalar, type Value } from "./formula/values";
+
+export interface CellFormat {
+  numberFormat: string;
+  bold: boolean;
+  italic: boolean;
+  color: string | null;
+}
+
+interface Cell {
+  /** Constant value, or null for a formula cell. */
+  constant: number | string | boolean | null;
+  /** Formula text with its "=", when the cell holds a formula. */
+  formula: string | null;
+  parsed: Expression | ErrorValue | null;
+  format: CellFormat;
+}
+
+export interface TableModel {
+  readonly name: string;
+  readonly sheet: string;
+  /** Header row included. */
+  rect: CellRect;
+}
+
+export interface ChartModel {
+  readonly type: string;
+  readonly sheet: string;
+  readonly source: CellRect;
+  /** Set when the source was a table's columns: the chart then follows the table as it grows. */
+  readonly table?: { readonly name: string; readonly left: number; readonly right: number };
+  title: string;
+  from: string;
+  to: string;
+}
+
+export interface Selection {
+  readonly sheet: string;
+  readonly rect: CellRect;
+}
+
+interface SheetModel {
+  readonly name: string;
+  readonly cells: Map<string, Cell>;
+  readonly columnWidths: Map<number, number>;
+}
+
+const DEFAULT_FORMAT: CellFormat = { numberFormat: "General", bold: false, italic: false, color: null };
+const MAX_PASSES = 4;
+
+function key(row: number, column: number): string {
+  return `${row},${column}`;
+}
+
+function fromKey(k: string): { row: number; column: number } {
+  const [row, column] = k.split(",").map(Number);
+  return { row, column };
+}
+
+/** A typed or API-written entry: formula, text (leading apostrophe forces text), number, logical or blank. */
+function readInput(input: unknown): { constant: number | string | boolean | null; formula: string | null } {
+  if (input === null || input === undefined || input === "") return { constant: null, formula: null };
+  if (typeof input === "number" || typeof input === "boolean") return { constant: input, formula: null };
+  const text = String(input);
+  if (text.startsWith("=") && text.length > 1) return { constant: null, formula: text };
+  if (text.startsWith("'")) return { constant: text.slice(1), formula: null };
+  const trimmed = text.trim();
+  if (trimmed !== "" && Number.isFinite(Number(trimmed))) return { constant: Number(trimmed), formula: null };
+  if (/^(true|false)$/i.test(trimmed)) return { constant: trimmed.toUpperCase() === "TRUE", formula: null };
+  return { constant: text, formula: null };
+}
+
+function parseOrError(formula: string): Expression | ErrorValue {
+  try {
+    return parseFormula(formula.slice(1));
+  } catch (thrown) {
+    if (thrown instanceof FormulaSyntaxError) return errorValue("#NAME?", thrown.message);
+    throw thrown;
+  }
+}
+
+/** The table name the spreadsheet would pick next: Table1, Table2, ... */
+function nextTableName(tables: readonly TableModel[]): string {
+  let n = 1;
+  while (tables.some((t) => t.name.toLowerCase() === `table${n}`)) n++;
+  return `Table${n}`;
+}
+
+/**
+ * A workbook of named sheets; see the module comment for how it calculates.
+ *
+ * @example
+ * const workbook = new Workbook(["Paint line"]);
+ * workbook.writeEntries("Paint line", 0, 0, [[49], [51], ["=COUNT(A1:A2)"]]);
+ * workbook.value("Paint line", 2, 0); // 2
+ */
+export class Workbook {
+  private readonly sheets: SheetModel[];
+  readonly tables: TableModel[] = [];
+  readonly charts: ChartModel[] = [];
+  private selected: Selection;
+  private readonly computed = new Map<string, Map<string, Value>>();
+  private spills = new Map<string, Map<string, CellRect>>();
+  private readonly listeners: (() => void)[] = [];
+  private functions = new Map<string, CustomFunction>();
+  /** Number of recalculations so far; tests watch it to see that a batch recalculated once. */
+  recalculations = 0;
+  private held = 0;
+  private pending = { recalculate: false, notify: false };
+
+  constructor(sheetNames: readonly string[]) {
+    if (sheetNames.length === 0) throw new RangeError("a workbook needs a sheet");
+    this.sheets = sheetNames.map((name) => ({ name, cells: new Map(), columnWidths: new Map() }));
+    this.selected = { sheet: sheetNames[0], rect: { top: 0, left: 0, bottom: 0, right: 0 } };
+  }
+
+  get sheetNames(): string[] {
+    return this.sheets.map((s) => s.name);
+  }
+
+  get selection(): Selection {
+    return this.selected;
+  }
+
+  /** Registers the add-in's functions (captured from the bundle) and recalculates. */
+  setFunctions(functions: ReadonlyMap<string, CustomFunction>): void {
+    this.functions = new Map(functions);
+    this.recalculate();
+  }
+
+  onChange(listener: () => void): void {
+    this.listeners.push(listener);
+  }
+
+  hasSheet(name: string): boolean {
+    return this.sheets.some((s) => s.name.toLowerCase() === name.toLowerCase());
+  }
+
+  private sheet(name: string): SheetModel {
+    const found = this.sheets.find((s) => s.name.toLowerCase() === name.toLowerCase());
+    if (!found) throw new RangeError(`There is no sheet named ${name}.`);
+    return found;
+  }
+
+  sheetName(name: string): string {
+    return this.sheet(name).name;
+  }
+
+  select(selection: Selection): void {
+    this.selected = { sheet: this.sheet(selection.sheet).name, rect: selection.rect };
+    this.notify();
+  }
+
+  /**
+   * Writes entries into a rectangle (one batch: one recalculation). Values
+   * follow the typing rules: "=..." is a formula, "'..." is text, numbers and
+   * TRUE/FALSE are read as such, "" clears the cell but keeps its format.
+   */
+  writeEntries(sheetName: string, top: number, left: number, entries: readonly (readonly unknown[])[], typed = false): void {
+    const sheet = this.sheet(sheetName);
+    entries.forEach((row, r) =>
+      row.forEach((entry, c) => {
+        const k = key(top + r, left + c);
+        const { constant, formula } = readInput(entry);
+        const existing = sheet.cells.get(k);
+        if (constant === null && formula === null && existing === undefined) return;
+        const format = existing?.format ?? { ...DEFAULT_FORMAT };
+        sheet.cells.set(k, { constant, formula, parsed: formula === null ? null : parseOrError(formula), format });
+      }),
+    );
+    if (typed) this.growTables(sheet.name, top, left, entries);
+    this.recalculate();
+  }
+
+  /** A person typing below a table lengthens it (only non-blank entries do). */
+  private growTables(sheetName: string, top: number, left: number, entries: readonly (readonly unknown[])[]): void {
+    const filled = entries.some((row) => row.some((e) => e !== "" && e !== null && e !== undefined));
+    if (!filled) return;
+    for (const table of this.tables) {
+      if (table.sheet !== sheetName || top !== table.rect.bottom + 1) continue;
+      if (left >= table.rect.left && left <= table.rect.right) table.rect = { ...table.rect, bottom: table.rect.bottom + 1 };
+    }
+  }
+
+  setFormat(sheetName: string, rect: CellRect, patch: Partial<CellFormat>): void {
+    const sheet = this.sheet(sheetName);
+    for (let r = rect.top; r <= rect.bottom; r++) {
+      for (let c = rect.left; c <= rect.right; c++) {
+        const k = key(r, c);
+        const cell = sheet.cells.get(k) ?? { constant: null, formula: null, parsed: null, format: { ...DEFAULT_FORMAT } };
+        cell.format = { ...cell.format, ...patch };
+        sheet.cells.set(k, cell);
+      }
+    }
+    this.notify();
+  }
+
+  /** Widens columns to fit what they show (about 7 px per character, as a plain default font). */
+  autofitColumns(sheetName: string, rect: CellRect, shown: (row: number, column: number) => string): void {
+    const sheet = this.sheet(sheetName);
+    const used = this.usedRect(sheetName);
+    for (let c = rect.left; c <= rect.right; c++) {
+      let longest = 0;
+      if (used) for (let r = used.top; r <= used.bottom; r++) longest = Math.max(longest, shown(r, c).length);
+      sheet.columnWidths.set(c, Math.min(300, Math.max(64, longest * 7 + 12)));
+    }
+    this.notify();
+  }
+
+  setColumnWidth(sheetName: string, column: number, pixels: number): void {
+    this.sheet(sheetName).columnWidths.set(column, pixels);
+    this.notify();
+  }
+
+  columnWidth(sheetName: string, column: number): number | undefined {
+    return this.sheet(sheetName).columnWidths.get(column);
+  }
+
+  format(sheetName: string, row: number, column: number): CellFormat {
+    return this.sheet(sheetName).cells.get(key(row, column))?.format ?? DEFAULT_FORMAT;
+  }
+
+  /** What a cell holds as typed: the formula, the constant, or "" for blank. */
+  entry(sheetName: string, row: number, column: number): number | string | boolean {
+    const cell = this.sheet(sheetName).cells.get(key(row, column));
+    if (!cell) return "";
+    return cell.formula ?? cell.constant ?? "";
+  }
+
+  /** The calculated value of a cell, spilled values included; null when blank. */
+  value(sheetName: string, row: number, column: number): Scalar {
+    const name = this.sheet(sheetName).name;
+    const own = this.computed.get(name)?.get(key(row, column));
+    if (own !== undefined) return this.cellValue(own, name, row, column);
+    const cell = this.sheet(name).cells.get(key(row, column));
+    if (cell && cell.formula === null) return cell.constant;
+    return this.spilledValue(name, row, column);
+  }
+
+  private spilledValue(sheetName: string, row: number, column: number): Scalar {
+    for (const [anchor, rect] of this.spills.get(sheetName) ?? []) {
+      if (!rectContains(rect, { top: row, left: column, bottom: row, right: column })) continue;
+      const value = this.computed.get(sheetName)?.get(anchor);
+      if (value !== undefined && isMatrix(value)) return value.rows[row - rect.top]?.[column - rect.left] ?? null;
+    }
+    return null;
+  }
+
+  /** What a formula cell shows: the top-left of a matrix, #SPILL! when its spill is blocked. */
+  private cellValue(value: Value, sheetName: string, row: number, column: number): Scalar {
+    if (isMatrix(value)) {
+      const spill = this.spills.get(sheetName)?.get(key(row, column));
+      const single = value.rows.length === 1 && value.rows[0].length === 1;
+      if (!single && spill === undefined) return errorValue("#SPILL!", "The result needs more cells, and something is in the way.");
+      return value.rows[0][0];
+    }
+    if (isReference(value)) return null;
+    return value;
+  }
+
+  /** The smallest rectangle around every non-blank cell (formats alone do not count), or null. */
+  usedRect(sheetName: string): CellRect | null {
+    const name = this.sheet(sheetName).name;
+    let rect: CellRect | null = null;
+    const grow = (row: number, column: number): void => {
+      rect = rect === null
+        ? { top: row, left: column, bottom: row, right: column }
+        : { top: Math.min(rect.top, row), left: Math.min(rect.left, column), bottom: Math.max(rect.bottom, row), right: Math.max(rect.right, column) };
+    };
+    for (const [k, cell] of this.sheet(name).cells) {
+      if (cell.constant === null && cell.formula === null) continue;
+      const { row, column } = fromKey(k);
+      grow(row, column);
+    }
+    for (const rectOfSpill of this.spills.get(name)?.values() ?? []) {
+      grow(rectOfSpill.top, rectOfSpill.left);
+      grow(rectOfSpill.bottom, rectOfSpill.right);
+    }
+    return rect;
+  }
+
+  /** Values of a rectangle, row by row (null for blank). */
+  values(sheetName: string, rect: CellRect): Scalar[][] {
+    const rows: Scalar[][] = [];
+    for (let r = rect.top; r <= rect.bottom; r++) {
+      const row: Scalar[] = [];
+      for (let c = rect.left; c <= rect.right; c++) row.push(this.value(sheetName, r, c));
+      rows.push(row);
+    }
+    return rows;
+  }
+
+  addTable(sheetName: string, rect: CellRect): TableModel {
+    const name = this.sheet(sheetName).name;
+    if (rect.top === rect.bottom) throw new RangeError("A table needs a header row and at least one row of data.");
+    if (this.tables.some((t) => t.sheet === name && rectsOverlap(t.rect, rect))) throw new RangeError("Tables cannot overlap.");
+    const table: TableModel = { name: nextTableName(this.tables), sheet: name, rect };
+    for (let c = rect.left; c <= rect.right; c++) {
+      const header = this.value(name, rect.top, c);
+      if (typeof header !== "string" || header === "") this.writeEntries(name, rect.top, c, [[`Column${c - rect.left + 1}`]]);
+    }
+    this.tables.push(table);
+    this.recalculate();
+    return table;
+  }
+
+  tableColumns(table: TableModel): string[] {
+    const names: string[] = [];
+    for (let c = table.rect.left; c <= table.rect.right; c++) names.push(String(this.value(table.sheet, table.rect.top, c) ?? ""));
+    return names;
+  }
+
+  addChart(chart: Omit<ChartModel, "table">): ChartModel {
+    const table = this.tables.find(
+      (t) => t.sheet === chart.sheet && rectContains(t.rect, chart.source) && chart.source.top === t.rect.top && chart.source.bottom === t.rect.bottom,
+    );
+    const model: ChartModel = table ? { ...chart, table: { name: table.name, left: chart.source.left, right: chart.source.right } } : { ...chart };
+    this.charts.push(model);
+    this.notify();
+    return model;
+  }
+
+  /** The current source of a chart: a table-linked chart covers the table's present rows. */
+  chartSource(chart: ChartModel): CellRect {
+    if (!chart.table) return chart.source;
+    const table = this.tables.find((t) => t.name === chart.table?.name);
+    return table ? { top: table.rect.top, bottom: table.rect.bottom, left: chart.table.left, right: chart.table.right } : chart.source;
+  }
+
+  /**
+   * Runs several changes as one batch: the workbook recalculates and tells
+   * its listeners once, at the end, as the spreadsheet does for one sync.
+   */
+  batch<T>(changes: () => T): T {
+    this.held++;
+    try {
+      return changes();
+    } finally {
+      this.held--;
+      if (this.held === 0) {
+        const { recalculate, notify } = this.pending;
+        this.pending = { recalculate: false, notify: false };
+        if (recalculate) this.recalculate();
+        else if (notify) this.notify();
+      }
+    }
+  }
+
+  private notify(): void {
+    if (this.held > 0) {
+      this.pending.notify = true;
+      return;
+    }
+    for (const listener of this.listeners) listener();
+  }
+
+  private context(sheetName: string, evaluateCell: (sheet: string, row: number, column: number) => Scalar): EvaluationContext {
+    return {
+      sheet: sheetName,
+      read: (reference: ReferenceValue) => {
+        const used = this.usedRect(reference.sheet);
+        const bottom = reference.rect.bottom === LAST_ROW || rectSize(reference.rect).rows > 10_000
+          ? Math.max(reference.rect.top, Math.min(reference.rect.bottom, used?.bottom ?? reference.rect.top))
+          : reference.rect.bottom;
+        const rows: Scalar[][] = [];
+        for (let r = reference.rect.top; r <= bottom; r++) {
+          const row: Scalar[] = [];
+          for (let c = reference.rect.left; c <= reference.rect.right; c++) row.push(evaluateCell(reference.sheet, r, c));
+          rows.push(row);
+        }
+        return rows;
+      },
+      tableColumn: (tableName: string, column: string) => {
+        const table = this.tables.find((t) => t.name.toLowerCase() === tableName.toLowerCase());
+        if (!table) return errorValue("#REF!", `There is no table named ${tableName}.`);
+        const index = this.tableColumns(table).findIndex((c) => c.toLowerCase() === column.toLowerCase());
+        if (index < 0) return errorValue("#REF!", `Table ${table.name} has no column ${column}.`);
+        const c = table.rect.left + index;
+        return { kind: "reference", sheet: table.sheet, rect: { top: table.rect.top + 1, bottom: table.rect.bottom, left: c, right: c } };
+      },
+      customFunction: (id: string) => this.functions.get(id.toUpperCase()),
+    };
+  }
+
+  private formulaCells(): { sheet: string; k: string; cell: Cell }[] {
+    const found: { sheet: string; k: string; cell: Cell }[] = [];
+    for (const sheet of this.sheets) for (const [k, cell] of sheet.cells) if (cell.parsed !== null) found.push({ sheet: sheet.name, k, cell });
+    return found;
+  }
+
+  private calculatePass(): void {
+    this.computed.clear();
+    const inProgress = new Set<string>();
+    const results = (sheet: string): Map<string, Value> => {
+      let map = this.computed.get(sheet);
+      if (!map) this.computed.set(sheet, (map = new Map()));
+      return map;
+    };
+    const calculate = (sheet: string, k: string, cell: Cell): Value => {
+      const done = results(sheet).get(k);
+      if (done !== undefined) return done;
+      const id = `${sheet}!${k}`;
+      if (inProgress.has(id)) return errorValue("#REF!", "This formula depends on itself (a circular reference).");
+      inProgress.add(id);
+      const parsed = cell.parsed as Expression | ErrorValue;
+      let value: Value;
+      if (isError(parsed)) value = parsed;
+      else {
+        const context = this.context(sheet, readCell);
+        value = evaluate(parsed, context);
+        if (isReference(value)) {
+          const cells = context.read(value);
+          value = cells.length === 1 && cells[0].length === 1 ? (cells[0][0] ?? 0) : { kind: "matrix", rows: cells.map((r) => r.map((x) => x ?? 0)) };
+        }
+      }
+      inProgress.delete(id);
+      results(sheet).set(k, value);
+      return value;
+    };
+    const readCell = (sheetName: string, row: number, column: number): Scalar => {
+      const sheet = this.sheet(sheetName);
+      const k = key(row, column);
+      const cell = sheet.cells.get(k);
+      if (cell && cell.parsed !== null) return this.cellValue(calculate(sheet.name, k, cell), sheet.name, row, column);
+      if (cell && cell.constant !== null) return cell.constant;
+      for (const [anchor, rect] of this.spills.get(sheet.name) ?? []) {
+        if (!rectContains(rect, { top: row, left: column, bottom: row, right: column })) continue;
+        const anchorCell = sheet.cells.get(anchor);
+        if (!anchorCell) continue;
+        const value = calculate(sheet.name, anchor, anchorCell);
+        if (isMatrix(value)) return value.rows[row - rect.top]?.[column - rect.left] ?? null;
+      }
+      return null;
+    };
+    for (const { sheet, k, cell } of this.formulaCells()) calculate(sheet, k, cell);
+  }
+
+  /** Where each matrix answer may spill this time, given what the cells hold. */
+  private spillAreas(): Map<string, Map<string, CellRect>> {
+    const areas = new Map<string, Map<string, CellRect>>();
+    for (const { sheet, k } of this.formulaCells()) {
+      const value = this.computed.get(sheet)?.get(k);
+      if (value === undefined || !isMatrix(value)) continue;
+      const { row, column } = fromKey(k);
+      const rect = { top: row, left: column, bottom: row + value.rows.length - 1, right: column + (value.rows[0]?.length ?? 1) - 1 };
+      if (rect.top === rect.bottom && rect.left === rect.right) continue;
+      const cells = this.sheet(sheet).cells;
+      let blocked = false;
+      for (let r = rect.top; r <= rect.bottom && !blocked; r++) {
+        for (let c = rect.left; c <= rect.right && !blocked; c++) {
+          if (r === row && c === column) continue;
+          const other = cells.get(key(r, c));
+          if (other && (other.constant !== null || other.formula !== null)) blocked = true;
+        }
+      }
+      const taken = [...(areas.get(sheet)?.values() ?? [])].some((a) => rectsOverlap(a, rect));
+      if (blocked || taken) continue;
+      if (!areas.has(sheet)) areas.set(sheet, new Map());
+      areas.get(sheet)?.set(k, rect);
+    }
+    return areas;
+  }
+
+  /** Recalculates every formula, lets matrices spill, then tells the listeners. */
+  recalculate(): void {
+    if (this.held > 0) {
+      this.pending.recalculate = true;
+      return;
+    }
+    for (let pass = 0; pass < MAX_PASSES; pass++) {
+      this.calculatePass();
+      const areas = this.spillAreas();
+      const same = JSON.stringify([...areas].map(([s, m]) => [s, [...m]])) === JSON.stringify([...this.spills].map(([s, m]) => [s, [...m]]));
+      this.spills = areas;
+      if (same) break;
+    }
+    this.recalculations++;
+    this.notify();
+  }
+}

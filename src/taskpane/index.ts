@@ -1,0 +1,40 @@
+/**
+ * Entry of taskpane.html inside Excel: waits for Office.js, follows the
+ * Office theme, and mounts the pane with the real Excel.run as its host.
+ * Opened outside Office, the page says so and points to the demo page.
+ *
+ * Cost: O(1) at start-up.
+ */
+import { callFunction } from "../functions/functions";
+import { el, replaceChildren } from "./dom";
+import { createHost } from "./host";
+import { mountPane } from "./pane";
+import { applyTheme, themeFor } from "./theme";
+
+function systemTheme(): "light" | "dark" {
+  return window.matchMedia("(prefers-color-scheme: dark)").matches ? "dark" : "light";
+}
+
+function start(): void {
+  const app = document.getElementById("app");
+  if (!app) return;
+  if (typeof Office === "undefined" || typeof Excel === "undefined") {
+    applyTheme(document.documentElement, systemTheme());
+    replaceChildren(
+      app,
+      el(
+        "div",
+        { class: "es-pane" },
+        el("h1", undefined, "Evensplit"),
+        el("p", undefined, "This page is the side pane of the Evensplit add-in and runs inside Excel. To try it without Excel, open demo.html from the same server."),
+      ),
+    );
+    return;
+  }
+  void Office.onReady(() => {
+    applyTheme(document.documentElement, themeFor(Office.context.officeTheme) ?? systemTheme());
+    mountPane(app, { host: createHost((batch) => Excel.run((context) => batch(context))), calculate: callFunction });
+  });
+}
+
+start();

@@ -1,0 +1,337 @@
+/**
+ * The pane's workbook steps, free of any page: reading and describing a data
+ * range, choosing how the formulas refer to it, finding the default place for
+ * the block, and writing it (after the overwrite check, the table conversion
+ * the person agreed to, the formulas in one batch, then formats, then the
+ * optional chart). Everything goes through the host module.
+ *
+ * Method: see dataInfo.ts (header and table detection), references.ts
+ * (reference forms), placement.ts (default place, overwrite list),
+ * preview.ts (rows, formulas, formats).
+ *
+ * Cost: a few `run` batches per step; O(cells of the data) in the pane.
+ */
+import type { BlockInputs, BlockRequest, CatalogueCall } from "../report/resultBlock";
+import { formatAddress, LAST_ROW, parseAddress, rectsOverlap, type CellRect } from "./a1";
+import { headerName, tablePlace, tallyCells, type CellTally, type TablePlace } from "./dataInfo";
+import type { Host, TableInfo } from "./host";
+import { blockRect, filledCells, firstFreeColumn, type FilledCell } from "./placement";
+import { blockPreview, blockWrite, type BlockRefs, type PreviewRow } from "./preview";
+import { absoluteReference, openEnded, structuredReference } from "./references";
+
+/** A range as read for the pane. */
+export interface AnalyzedRange {
+  readonly sheet: string;
+  /** The range as given (header row included when there is one). */
+  readonly rect: CellRect;
+  readonly values: readonly (readonly unknown[])[];
+  /** A header name guessed from the first row, or the table column's name. */
+  readonly header: string | null;
+  readonly place: TablePlace;
+}
+
+export type Analysis = { readonly ok: true; readonly range: AnalyzedRange } | { readonly ok: false; readonly message: string };
+
+/**
+ * Reads a range the person named (or selected) and describes it. Whole
+ * columns ("B:B") are cut to the sheet's used rows, so the pane never reads a
+ * million blank cells.
+ *
+ * @example
+ * await analyzeRange(host, "B1:B25"); // { ok: true, range: { sheet: "Paint line", header: "Thickness (µm)", place: { kind: "none" }, ... } }
+ */
+export async function analyzeRange(host: Host, text: string): Promise<Analysis> {
+  const parsed = parseAddress(text);
+  if (!parsed) return { ok: false, message: `“${text.trim()}” is not a range address; type one such as B1:B25, or select the cells and use the selection.` };
+  let address = text.trim();
+  if (parsed.bottom === LAST_ROW) {
+    const probe = await host.read(formatAddress({ ...parsed, bottom: parsed.top }, parsed.sheet));
+    if (!probe) return { ok: false, message: "That sheet or range could not be read." };
+    const used = await host.usedRect(probe.sheet);
+    const bottom = used ? Math.max(parsed.top, used.bottom) : parsed.top;
+    address = formatAddress({ ...parsed, bottom }, probe.sheet);
+  }
+  let read;
+  try {
+    read = await host.read(address);
+  } catch {
+    return { ok: false, message: `The range ${address} could not be read: check the sheet name.` };
+  }
+  if (!read) return { ok: false, message: "That sheet or range could not be read." };
+  const tables = await host.tables(read.sheet);
+  const place = tablePlace(read.rect, tables);
+  const header = place.kind === "column" ? place.match.column : headerName(read.values);
+  return { ok: true, range: { sheet: read.sheet, rect: read.rect, values: read.values, header, place } };
+}
+
+/** A range and whether its first row is taken as the header. */
+export interface DataChoice {
+  readonly range: AnalyzedRange;
+  readonly useHeader: boolean;
+}
+
+/** The cells the test reads: the range without its header row (or the table column's data rows). */
+export interface DataBody {
+  readonly sheet: string;
+  readonly rect: CellRect;
+  readonly values: readonly (readonly unknown[])[];
+  readonly name?: string;
+  readonly tally: CellTally;
+}
+
+/**
+ * The data rows of a choice.
+ *
+ * @example
+ * bodyOf({ range, useHeader: true }).rect; // the range less its first row
+ */
+export function bodyOf(choice: DataChoice): DataBody {
+  const { range } = choice;
+  if (range.place.kind === "column") {
+    const { match } = range.place;
+    const values = match.headerIncluded ? range.values.slice(1) : range.values;
+    return { sheet: range.sheet, rect: match.body, values, name: match.column, tally: tallyCells(values) };
+  }
+  if (choice.useHeader && range.header !== null && range.rect.bottom > range.rect.top) {
+    const values = range.values.slice(1);
+    return { sheet: range.sheet, rect: { ...range.rect, top: range.rect.top + 1 }, values, name: range.header, tally: tallyCells(values) };
+  }
+  return { sheet: range.sheet, rect: range.rect, values: range.values, tally: tallyCells(range.values) };
+}
+
+/**
+ * A problem with the data as chosen (nothing to test, or pairs that do not line up), or null.
+ *
+ * @example
+ * dataProblem([{ range, useHeader: true }]); // null when the range holds at least one number
+ */
+export function dataProblem(choices: readonly DataChoice[]): string | null {
+  const bodies = choices.map(bodyOf);
+  if (bodies.some((b) => b.tally.numbers === 0)) return "A range holds no numbers: there is nothing to test.";
+  if (bodies.length === 2) {
+    const [a, b] = bodies.map((body) => ({ rows: body.rect.bottom - body.rect.top + 1, columns: body.rect.right - body.rect.left + 1 }));
+    if (a.rows !== b.rows || a.columns !== b.columns) {
+      return `The two ranges must have the same shape to make pairs: the first has ${a.rows} × ${a.columns} data cells, the second ${b.rows} × ${b.columns}.`;
+    }
+    if (bodies[0].sheet === bodies[1].sheet && rectsOverlap(bodies[0].rect, bodies[1].rect)) return "The two ranges overlap: pick two separate columns.";
+  }
+  return null;
+}
+
+export type ReferenceChoice = "exact" | "table" | "open";
+
+export interface Availability {
+  readonly available: boolean;
+  /** Why not, when not. */
+  readonly reason?: string;
+}
+
+export interface ReferenceOptions {
+  /** Every range is already a whole table column: the block refers to the columns, nothing to choose. */
+  readonly allTableColumns: boolean;
+  readonly table: Availability;
+  readonly open: Availability;
+}
+
+function adjacent(a: CellRect, b: CellRect): boolean {
+  return a.top === b.top && a.bottom === b.bottom && (a.right + 1 === b.left || b.right + 1 === a.left);
+}
+
+/**
+ * Which reference forms can be offered for the chosen ranges.
+ *
+ * @example
+ * referenceOptions([{ range, useHeader: true }]); // { allTableColumns: false, table: { available: true }, open: { available: true } }
+ */
+export function referenceOptions(choices: readonly DataChoice[]): ReferenceOptions {
+  const loose = choices.filter((c) => c.range.place.kind !== "column");
+  if (loose.length === 0) return { allTableColumns: true, table: { available: false }, open: { available: false } };
+  let table: Availability = { available: true };
+  if (loose.some((c) => c.range.place.kind === "part")) table = { available: false, reason: "Part of the range is already inside a table." };
+  else if (loose.some((c) => !c.useHeader || c.range.header === null)) {
+    table = { available: false, reason: "A table needs a first row with a name for each column." };
+  }
+  let open: Availability = { available: true };
+  const bodies = choices.map(bodyOf);
+  if (loose.some((c) => c.range.place.kind === "part")) open = { available: false, reason: "The range is inside a table; refer to the table instead." };
+  else if (bodies.length === 2 && bodies[0].rect.top !== bodies[1].rect.top) {
+    open = { available: false, reason: "Both ranges must start on the same row to run on to the end of the sheet together." };
+  }
+  return { allTableColumns: false, table, open };
+}
+
+/**
+ * The rectangles to turn into tables (header row included): two adjacent ranges become one table.
+ *
+ * @example
+ * tablesToCreate([{ range: b, useHeader: true }, { range: c, useHeader: true }]); // [{ sheet: "Paint line", rect: B1:C25 }]
+ */
+export function tablesToCreate(choices: readonly DataChoice[]): { sheet: string; rect: CellRect }[] {
+  const loose = choices.filter((c) => c.range.place.kind === "none").map((c) => ({ sheet: c.range.sheet, rect: c.range.rect }));
+  if (loose.length === 2 && loose[0].sheet === loose[1].sheet && adjacent(loose[0].rect, loose[1].rect)) {
+    const [a, b] = loose;
+    return [{ sheet: a.sheet, rect: { top: a.rect.top, bottom: a.rect.bottom, left: Math.min(a.rect.left, b.rect.left), right: Math.max(a.rect.right, b.rect.right) } }];
+  }
+  return loose;
+}
+
+function createdColumn(range: AnalyzedRange, created: readonly TableInfo[]): { table: TableInfo; column: string } | null {
+  for (const table of created) {
+    if (table.sheet === range.sheet && table.rect.top === range.rect.top && range.rect.left >= table.rect.left && range.rect.right <= table.rect.right) {
+      return { table, column: table.columns[range.rect.left - table.rect.left] };
+    }
+  }
+  return null;
+}
+
+/**
+ * The text of the reference the block's formulas use for one range.
+ *
+ * @example
+ * referenceFor({ range, useHeader: true }, "open", [], "Paint line"); // "$B$2:$B$1048576"
+ */
+export function referenceFor(choice: DataChoice, reference: ReferenceChoice, created: readonly TableInfo[], formulaSheet: string): string {
+  const { range } = choice;
+  if (range.place.kind === "column") return structuredReference(range.place.match.table.name, range.place.match.column);
+  if (reference === "table") {
+    const made = createdColumn(range, created);
+    if (made) return structuredReference(made.table.name, made.column);
+  }
+  const body = bodyOf(choice);
+  return absoluteReference(reference === "open" ? openEnded(body.rect) : body.rect, body.sheet, formulaSheet);
+}
+
+/**
+ * The references for the block (data, and second when paired).
+ *
+ * @example
+ * blockRefs([{ range, useHeader: true }], "exact", [], "Paint line"); // { data: "$B$2:$B$25" }
+ */
+export function blockRefs(choices: readonly DataChoice[], reference: ReferenceChoice, created: readonly TableInfo[], formulaSheet: string): BlockRefs {
+  const data = referenceFor(choices[0], reference, created, formulaSheet);
+  return choices.length === 2 ? { data, second: referenceFor(choices[1], reference, created, formulaSheet) } : { data };
+}
+
+/**
+ * The cell values the preview evaluates: the data rows of each range.
+ *
+ * @example
+ * blockInputs([{ range, useHeader: true }]).data.length; // 24
+ */
+export function blockInputs(choices: readonly DataChoice[]): BlockInputs {
+  const bodies = choices.map(bodyOf);
+  return bodies.length === 2 ? { data: bodies[0].values, second: bodies[1].values } : { data: bodies[0].values };
+}
+
+/**
+ * The default place of a block `height` rows tall and two columns wide: the
+ * first empty area to the right of the data with an empty column before it,
+ * level with the data's first row.
+ *
+ * @example
+ * await defaultPlace(host, [{ range, useHeader: true }], 23); // { sheet: "Paint line", rect: { top: 0, left: 4, bottom: 22, right: 5 } }
+ */
+export async function defaultPlace(host: Host, choices: readonly DataChoice[], height: number): Promise<{ sheet: string; rect: CellRect }> {
+  const sheet = choices[0].range.sheet;
+  const onSheet = choices.filter((c) => c.range.sheet === sheet).map((c) => c.range.rect);
+  const top = Math.min(...onSheet.map((r) => r.top));
+  const start = Math.max(...onSheet.map((r) => r.right)) + 2;
+  const used = await host.usedRect(sheet);
+  const stripRight = Math.max(start + 1, (used?.right ?? start) + 1);
+  const strip = await host.read(formatAddress({ top, bottom: top + height - 1, left: start - 1, right: stripRight }, sheet));
+  const column = strip ? firstFreeColumn(strip, start, 2) : start;
+  return { sheet, rect: blockRect({ row: top, column }, height, 2) };
+}
+
+/**
+ * Reads a place from what the person typed: its top-left cell, on the data's
+ * sheet unless the text names another.
+ *
+ * @example
+ * placeFromText("E1", "Paint line", 23); // { sheet: "Paint line", rect: { top: 0, left: 4, bottom: 22, right: 5 } }
+ */
+export function placeFromText(text: string, defaultSheet: string, height: number): { sheet: string; rect: CellRect } | null {
+  const parsed = parseAddress(text);
+  if (!parsed) return null;
+  return { sheet: parsed.sheet ?? defaultSheet, rect: blockRect({ row: parsed.top, column: parsed.left }, height, 2) };
+}
+
+/**
+ * The chart's source: the data columns with their header row; null when paired columns are not side by side.
+ *
+ * @example
+ * chartSource([{ range: b, useHeader: true }, { range: c, useHeader: true }], []); // { sheet: "Paint line", rect: B1:C25 }
+ */
+export function chartSource(choices: readonly DataChoice[], created: readonly TableInfo[]): { sheet: string; rect: CellRect } | null {
+  const rects = choices.map((c) => {
+    const { range } = c;
+    if (range.place.kind === "column") {
+      const { table, body } = range.place.match;
+      return { sheet: range.sheet, rect: { ...body, top: table.rect.top } };
+    }
+    const made = createdColumn(range, created);
+    if (made) return { sheet: range.sheet, rect: { ...range.rect, bottom: made.table.rect.bottom } };
+    return { sheet: range.sheet, rect: range.rect };
+  });
+  if (rects.length === 1) return rects[0];
+  const [a, b] = rects;
+  if (a.sheet !== b.sheet || !adjacent(a.rect, b.rect)) return null;
+  return { sheet: a.sheet, rect: { top: a.rect.top, bottom: a.rect.bottom, left: Math.min(a.rect.left, b.rect.left), right: Math.max(a.rect.right, b.rect.right) } };
+}
+
+export interface WritePlan {
+  readonly choices: readonly DataChoice[];
+  readonly reference: ReferenceChoice;
+  readonly request: BlockRequest;
+  readonly target: { readonly sheet: string; readonly rect: CellRect };
+  readonly chart: boolean;
+  /** The person has seen the list of filled cells at this place and agreed to overwrite them. */
+  readonly overwriteConfirmed: boolean;
+  readonly calculate: CatalogueCall;
+}
+
+export type WriteOutcome =
+  | { readonly kind: "confirm"; readonly filled: readonly FilledCell[] }
+  | { readonly kind: "refused"; readonly message: string }
+  | {
+      readonly kind: "written";
+      readonly address: string;
+      readonly refs: BlockRefs;
+      readonly created: readonly TableInfo[];
+      readonly rows: readonly PreviewRow[];
+      readonly chartAt: string | null;
+    };
+
+/**
+ * Writes the block: refuses a place that covers the data; asks first when
+ * any target cell is filled; makes the agreed tables; writes the formulas in
+ * one assignment, then the formats; adds the chart when asked.
+ *
+ * @example
+ * const outcome = await writeResult(host, plan); // { kind: "confirm", filled: [{ address: "E3", content: "note" }] }
+ * if (outcome.kind === "confirm") await writeResult(host, { ...plan, overwriteConfirmed: true });
+ */
+export async function writeResult(host: Host, plan: WritePlan): Promise<WriteOutcome> {
+  const { target } = plan;
+  const covered = plan.choices.some((c) => c.range.sheet.toLowerCase() === target.sheet.toLowerCase() && rectsOverlap(c.range.rect, target.rect));
+  if (covered) return { kind: "refused", message: "The block would cover the data. Pick a place beside it." };
+  const current = await host.read(formatAddress(target.rect, target.sheet));
+  if (!current) return { kind: "refused", message: "The place for the block could not be read: check the sheet name." };
+  const filled = filledCells(current);
+  if (filled.length > 0 && !plan.overwriteConfirmed) return { kind: "confirm", filled };
+  const created: TableInfo[] = [];
+  if (plan.reference === "table") for (const t of tablesToCreate(plan.choices)) created.push(await host.createTable(t));
+  const refs = blockRefs(plan.choices, plan.reference, created, current.sheet);
+  const rows = blockPreview(plan.request, blockInputs(plan.choices), refs, plan.calculate);
+  await host.writeBlock(blockWrite(rows, current.sheet, current.rect));
+  let chartAt: string | null = null;
+  const source = plan.chart ? chartSource(plan.choices, created) : null;
+  if (source) {
+    const from = formatAddress({ top: current.rect.top, left: current.rect.right + 2, bottom: current.rect.top, right: current.rect.right + 2 });
+    const to = formatAddress({ top: current.rect.top + 14, left: current.rect.right + 8, bottom: current.rect.top + 14, right: current.rect.right + 8 });
+    const names = plan.choices.map((c) => bodyOf(c).name).filter((n): n is string => n !== undefined);
+    await host.addChart({ sheet: source.sheet, source: formatAddress(source.rect), title: names.length > 0 ? names.join(" and ") : "Data", from, to });
+    chartAt = from;
+  }
+  return { kind: "written", address: formatAddress(current.rect, current.sheet), refs, created, rows, chartAt };
+}

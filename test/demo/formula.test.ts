@@ -1,0 +1,152 @@
+/**
+ * The demo sheet's formula reader and evaluator. Expected values follow
+ * Excel's documented formula behaviour (Microsoft, "Calculation operators and
+ * precedence in Excel", and the INDEX, ROWS, COLUMNS, COUNT, COUNTA, IF
+ * function pages), as recalled — marked "from memory" where a detail is not
+ * in those pages.
+ */
+import { describe, expect, it } from "vitest";
+import { evaluate, type CustomFunction, type EvaluationContext } from "../../src/demo/formula/evaluate";
+import { parseFormula } from "../../src/demo/formula/parse";
+import { tokenize, FormulaSyntaxError } from "../../src/demo/formula/tokenize";
+import { errorValue, isError, type ReferenceValue, type Scalar, type Value } from "../../src/demo/formula/values";
+
+/** A little sheet: column A holds 1..4 with a blank in A3 and text in A5; B1 holds 10. */
+const CELLS = new Map<string, Scalar>([
+  ["0,0", 1],
+  ["1,0", 2],
+  ["3,0", 4],
+  ["4,0", "note"],
+  ["0,1", 10],
+]);
+
+function context(functions: Record<string, CustomFunction> = {}): EvaluationContext {
+  return {
+    sheet: "S",
+    read: (ref: ReferenceValue) => {
+      const bottom = Math.min(ref.rect.bottom, 9);
+      const rows: Scalar[][] = [];
+      for (let r = ref.rect.top; r <= bottom; r++) {
+        const row: Scalar[] = [];
+        for (let c = ref.rect.left; c <= ref.rect.right; c++) row.push(CELLS.get(`${r},${c}`) ?? null);
+        rows.push(row);
+      }
+      return rows;
+    },
+    tableColumn: (table, column) =>
+      table === "T" && column === "Value" ? { kind: "reference", sheet: "S", rect: { top: 0, left: 0, bottom: 4, right: 0 } } : errorValue("#REF!", "no such column"),
+    customFunction: (id) => functions[id],
+  };
+}
+
+function calc(formula: string, functions?: Record<string, CustomFunction>): Value {
+  return evaluate(parseFormula(formula), context(functions));
+}
+
+describe("tokenize", () => {
+  it("reads references with sheet prefixes, $ signs, whole columns and structured references", () => {
+    expect(tokenize("'Paint line'!$B$2:$B$25")).toEqual([{ type: "ref", text: "'Paint line'!$B$2:$B$25" }]);
+    expect(tokenize("Sheet1!A:A")).toEqual([{ type: "ref", text: "Sheet1!A:A" }]);
+    expect(tokenize("Table1[Thickness (µm)]")).toEqual([{ type: "table", table: "Table1", column: "Thickness (µm)" }]);
+    // Structured references escape [ ] # and ' with an apostrophe (Microsoft, "Using structured references with Excel tables").
+    expect(tokenize("T[Lot '#3]")).toEqual([{ type: "table", table: "T", column: "Lot #3" }]);
+    expect(tokenize("T[[Value]]")).toEqual([{ type: "table", table: "T", column: "Value" }]);
+  });
+
+  it("tells a function name from a cell that looks like it (LOG10( is a call)", () => {
+    expect(tokenize("LOG10(A1)").map((t) => t.type)).toEqual(["name", "paren", "ref", "paren"]);
+    expect(tokenize("EVENSPLIT.PVALUE(A1:A4,2)")[0]).toEqual({ type: "name", text: "EVENSPLIT.PVALUE" });
+  });
+
+  it("reads quoted text with doubled quotes", () => {
+    expect(tokenize('"say ""hi"""')).toEqual([{ type: "string", value: 'say "hi"' }]);
+    expect(() => tokenize('"open')).toThrow(FormulaSyntaxError);
+  });
+});
+
+describe("evaluate: operators", () => {
+  it("follows the spreadsheet's precedence: negation before ^, then * /, then + -, then &, then comparison", () => {
+    expect(calc("1+2*3")).toBe(7);
+    expect(calc("-2^2")).toBe(4); // Excel negates before raising to a power (Microsoft's precedence table)
+    expect(calc("2^3^2")).toBe(64); // left to right, from memory
+    expect(calc("1+2&3")).toBe("33");
+    expect(calc("1+1=2")).toBe(true);
+    expect(calc("50%")).toBe(0.5);
+  });
+
+  it("compares text without regard to case and orders numbers before text", () => {
+    expect(calc('"abc"="ABC"')).toBe(true);
+    expect(calc('1<"a"')).toBe(true); // from memory: any number is less than any text
+    expect(calc("A3=0")).toBe(true); // a blank equals 0 ...
+    expect(calc('A3=""')).toBe(true); // ... and equals the empty text
+  });
+
+  it("treats a blank as 0 in arithmetic and gives the spreadsheet's errors", () => {
+    expect(calc("A3+1")).toBe(1);
+    expect(calc("1/0")).toEqual(errorValue("#DIV/0!", "Division by zero."));
+    expect(isError(calc('"x"*2'))).toBe(true);
+    expect(isError(calc("A1:A2+1"))).toBe(true);
+  });
+});
+
+describe("evaluate: built-in functions", () => {
+  it("INDEX picks a cell of a range or a list; outside it is #REF!", () => {
+    expect(evaluate(parseFormula("INDEX(A1:B2,1,2)"), context())).toEqual({ kind: "reference", sheet: "S", rect: { top: 0, left: 1, bottom: 0, right: 1 } });
+    expect(calc("INDEX(A1:B2,1,2)+0")).toBe(10);
+    expect((calc("INDEX(A1:B2,3,1)") as { code: string }).code).toBe("#REF!");
+  });
+
+  it("ROWS and COLUMNS count without reading, including whole columns", () => {
+    expect(calc("ROWS(A2:A26)*COLUMNS(A2:A26)")).toBe(25);
+    expect(calc("ROWS(A:A)")).toBe(1048576);
+    expect(calc("COLUMNS(A:C)")).toBe(3);
+  });
+
+  it("COUNT counts numbers, COUNTA every non-blank cell", () => {
+    expect(calc("COUNT(A1:A5)")).toBe(3);
+    expect(calc("COUNTA(A1:A5)")).toBe(4);
+    expect(calc("COUNT(T[Value])")).toBe(3);
+  });
+
+  it("IF chooses, and passes an error condition through", () => {
+    expect(calc('IF(A1<=0.05,"reject","keep")')).toBe("keep");
+    expect(calc('IF(A1>=1,"yes","no")')).toBe("yes");
+    expect((calc('IF(1/0,"a","b")') as { code: string }).code).toBe("#DIV/0!");
+  });
+
+  it("unknown names are #NAME?", () => {
+    expect((calc("NOSUCH(1)") as { code: string }).code).toBe("#NAME?");
+    expect(() => parseFormula("A1+")).toThrow(FormulaSyntaxError);
+  });
+});
+
+describe("evaluate: custom functions", () => {
+  const seen: unknown[][] = [];
+  const echo: CustomFunction = {
+    fn: (...args: unknown[]) => {
+      seen.push(args);
+      return [[1, "", 3]];
+    },
+    shapes: ["matrix", "scalar", "scalar"],
+  };
+
+  it("passes a range as a matrix with \"\" for blanks, a one-cell reference as its value, an omitted argument as null", () => {
+    seen.length = 0;
+    const result = calc("EVENSPLIT.ECHO(A1:A4,B1,)", { ECHO: echo });
+    expect(seen[0]).toEqual([[[1], [2], [""], [4]], 10, null]);
+    expect(result).toEqual({ kind: "matrix", rows: [[1, "", 3]] });
+    expect(calc("INDEX(EVENSPLIT.ECHO(A1:A4,B1),1,3)", { ECHO: echo })).toBe(3);
+  });
+
+  it("turns error objects a function answers with into cell errors, and a missing function into #NAME?", () => {
+    const failing: CustomFunction = { fn: () => ({ code: "#N/A", message: "No numbers in the range." }), shapes: ["matrix"] };
+    expect(calc("EVENSPLIT.FAIL(A1:A4)", { FAIL: failing })).toEqual(errorValue("#N/A", "No numbers in the range."));
+    expect((calc("EVENSPLIT.MISSING(A1)") as { code: string }).code).toBe("#NAME?");
+  });
+
+  it("does not call the function when an argument is an error, as the spreadsheet passes the error on", () => {
+    seen.length = 0;
+    expect((calc("EVENSPLIT.ECHO(A1:A4,1/0)", { ECHO: echo }) as { code: string }).code).toBe("#DIV/0!");
+    expect(seen).toEqual([]);
+  });
+});

@@ -1,0 +1,261 @@
+/**
+ * The pane's workbook steps against the demo sheet's Excel stand-in (the
+ * fake host): reading and describing ranges, reference choices, the default
+ * place, the overwrite check, table conversion, open-ended references, the
+ * chart, and what ends up in the cells. Expected counts are by hand from the
+ * invented data; expected formulas from the block's one definition
+ * (resultBlock.ts).
+ */
+import { OfficeMockObject } from "office-addin-mock";
+import { beforeAll, describe, expect, it } from "vitest";
+import { fakeRun } from "../../src/demo/fakeExcel";
+import type { CustomFunction } from "../../src/demo/formula/evaluate";
+import { DEMO_SHEET, demoRows } from "../../src/demo/inventedData";
+import { Workbook } from "../../src/demo/workbook";
+import { callFunction } from "../../src/functions/functions";
+import type { BlockRequest } from "../../src/report/resultBlock";
+import { createHost, type Host, type RunBatch } from "../../src/taskpane/host";
+import {
+  analyzeRange,
+  bodyOf,
+  chartSource,
+  dataProblem,
+  defaultPlace,
+  placeFromText,
+  referenceOptions,
+  writeResult,
+  type AnalyzedRange,
+  type DataChoice,
+  type WritePlan,
+} from "../../src/taskpane/workflow";
+import { catalogueFunctions } from "../demo/catalogue";
+
+let functions: Map<string, CustomFunction>;
+beforeAll(async () => {
+  functions = await catalogueFunctions();
+});
+
+const SIGN: BlockRequest = { test: "sign", paired: false, center: 50, alternative: "greater", alpha: 0.05, confidence: 0.95, ties: "drop", method: "exact", dataName: "Thickness (µm)" };
+
+function demo(): { workbook: Workbook; host: Host } {
+  const workbook = new Workbook([DEMO_SHEET]);
+  workbook.writeEntries(DEMO_SHEET, 0, 0, demoRows());
+  workbook.setFunctions(functions);
+  return { workbook, host: createHost(fakeRun(workbook)) };
+}
+
+async function analyzed(host: Host, address: string): Promise<AnalyzedRange> {
+  const result = await analyzeRange(host, address);
+  if (!result.ok) throw new Error(result.message);
+  return result.range;
+}
+
+function plan(choices: DataChoice[], overrides: Partial<WritePlan> = {}): WritePlan {
+  return {
+    choices,
+    reference: "exact",
+    request: SIGN,
+    target: { sheet: DEMO_SHEET, rect: { top: 0, left: 4, bottom: 19, right: 5 } },
+    chart: false,
+    overwriteConfirmed: false,
+    calculate: callFunction,
+    ...overrides,
+  };
+}
+
+describe("reading the data", () => {
+  it("describes the thickness column: header, counts, no table", async () => {
+    const { host } = demo();
+    const range = await analyzed(host, "B1:B25");
+    expect(range.header).toBe("Thickness (µm)");
+    expect(range.place.kind).toBe("none");
+    const body = bodyOf({ range, useHeader: true });
+    expect(body.rect).toEqual({ top: 1, left: 1, bottom: 24, right: 1 });
+    // By hand: 24 cells, 22 numbers, P-108 blank, P-113 a note.
+    expect(body.tally).toEqual({ cells: 24, numbers: 22, skipped: { blank: 1, text: 1, boolean: 0, other: 0 } });
+    expect(bodyOf({ range, useHeader: false }).tally.skipped.text).toBe(2);
+  });
+
+  it("cuts a whole column to the used rows and refuses text that is no address", async () => {
+    const { host } = demo();
+    expect((await analyzed(host, "B:B")).rect).toEqual({ top: 0, left: 1, bottom: 24, right: 1 });
+    expect(await analyzeRange(host, "thickness")).toMatchObject({ ok: false, message: expect.stringContaining("not a range address") });
+    expect(await analyzeRange(host, "'No such sheet'!A1")).toMatchObject({ ok: false });
+  });
+
+  it("recognises a table column and names it after the table's header", async () => {
+    const { workbook, host } = demo();
+    workbook.addTable(DEMO_SHEET, { top: 0, left: 0, bottom: 24, right: 2 });
+    const range = await analyzed(host, "C2:C25");
+    expect(range.place).toMatchObject({ kind: "column", match: { column: "After nozzle change (µm)", headerIncluded: false } });
+    expect(referenceOptions([{ range, useHeader: true }]).allTableColumns).toBe(true);
+  });
+
+  it("checks that pairs line up", async () => {
+    const { host } = demo();
+    const first = await analyzed(host, "B1:B25");
+    const short = await analyzed(host, "C1:C20");
+    expect(dataProblem([{ range: first, useHeader: true }, { range: short, useHeader: true }])).toMatch(/same shape/);
+    const second = await analyzed(host, "C1:C25");
+    expect(dataProblem([{ range: first, useHeader: true }, { range: second, useHeader: true }])).toBeNull();
+  });
+
+  it("offers a table only with a header row, and open-ended pairs only when they start together", async () => {
+    const { host } = demo();
+    const noHeader = await analyzed(host, "B2:B25");
+    expect(referenceOptions([{ range: noHeader, useHeader: false }]).table).toMatchObject({ available: false, reason: expect.stringContaining("name") });
+    const first = await analyzed(host, "B1:B25");
+    const second = await analyzed(host, "C2:C25");
+    expect(referenceOptions([{ range: first, useHeader: true }, { range: second, useHeader: false }]).open.available).toBe(true);
+    const later = await analyzed(host, "C3:C26");
+    expect(referenceOptions([{ range: first, useHeader: true }, { range: later, useHeader: false }]).open.available).toBe(false);
+  });
+});
+
+describe("the place for the block", () => {
+  it("is the first empty area right of the data with a gap column, and moves past anything in the way", async () => {
+    const { workbook, host } = demo();
+    const range = await analyzed(host, "B1:B25");
+    // Column C holds data, so D stays as the gap and the block starts in E.
+    expect(await defaultPlace(host, [{ range, useHeader: true }], 20)).toEqual({ sheet: DEMO_SHEET, rect: { top: 0, left: 4, bottom: 19, right: 5 } });
+    workbook.writeEntries(DEMO_SHEET, 9, 5, [["note"]]);
+    expect((await defaultPlace(host, [{ range, useHeader: true }], 20)).rect.left).toBe(7);
+    expect(placeFromText("'Paint line'!J3", "Other", 20)).toEqual({ sheet: DEMO_SHEET, rect: { top: 2, left: 9, bottom: 21, right: 10 } });
+    expect(placeFromText("somewhere", DEMO_SHEET, 20)).toBeNull();
+  });
+});
+
+describe("writing the block", () => {
+  it("writes formulas that the sheet calculates, labels bold, cautions muted", async () => {
+    const { workbook, host } = demo();
+    const range = await analyzed(host, "B1:B25");
+    const outcome = await writeResult(host, plan([{ range, useHeader: true }]));
+    expect(outcome.kind).toBe("written");
+    if (outcome.kind !== "written") return;
+    expect(outcome.address).toBe("'Paint line'!E1:F20");
+    expect(workbook.entry(DEMO_SHEET, 0, 4)).toBe("Evensplit result");
+    const p = outcome.rows.findIndex((r) => r.key === "pvalue");
+    expect(workbook.entry(DEMO_SHEET, p, 5)).toBe('=EVENSPLIT.PVALUE($B$2:$B$25,50,"greater","drop","exact")');
+    // The sheet's answer is the preview's: P(X >= 16), X ~ Bin(21, 1/2) = 27896 / 2^21 (exact arithmetic).
+    expect(workbook.value(DEMO_SHEET, p, 5)).toBeCloseTo(27896 / 2097152, 14);
+    expect(outcome.rows[p].value).toBe(workbook.value(DEMO_SHEET, p, 5));
+    expect(workbook.format(DEMO_SHEET, p, 5).numberFormat).toBe("[<0.0001]0.00E+00;0.0000");
+    expect(workbook.format(DEMO_SHEET, p, 4).bold).toBe(true);
+    const caution = outcome.rows.findIndex((r) => r.style === "caution");
+    expect(workbook.format(DEMO_SHEET, caution, 5)).toMatchObject({ italic: true, color: "#595959" });
+  });
+
+  it("asks before replacing filled cells and writes nothing until confirmed", async () => {
+    const { workbook, host } = demo();
+    workbook.writeEntries(DEMO_SHEET, 4, 5, [["keep me"]]);
+    const range = await analyzed(host, "B1:B25");
+    const before = workbook.recalculations;
+    const asked = await writeResult(host, plan([{ range, useHeader: true }]));
+    expect(asked).toEqual({ kind: "confirm", filled: [{ address: "F5", content: "keep me" }] });
+    expect(workbook.recalculations).toBe(before);
+    expect(workbook.entry(DEMO_SHEET, 0, 4)).toBe("");
+    const written = await writeResult(host, plan([{ range, useHeader: true }], { overwriteConfirmed: true }));
+    expect(written.kind).toBe("written");
+    expect(workbook.entry(DEMO_SHEET, 4, 5)).not.toBe("keep me");
+  });
+
+  it("refuses a place that covers the data", async () => {
+    const { host } = demo();
+    const range = await analyzed(host, "B1:B25");
+    const outcome = await writeResult(host, plan([{ range, useHeader: true }], { target: { sheet: DEMO_SHEET, rect: { top: 5, left: 0, bottom: 24, right: 1 } } }));
+    expect(outcome).toMatchObject({ kind: "refused" });
+  });
+
+  it("turns the range into a table when agreed, so a row typed below counts", async () => {
+    const { workbook, host } = demo();
+    const range = await analyzed(host, "B1:B25");
+    const outcome = await writeResult(host, plan([{ range, useHeader: true }], { reference: "table", chart: true }));
+    if (outcome.kind !== "written") throw new Error(outcome.kind);
+    expect(outcome.created.map((t) => t.name)).toEqual(["Table1"]);
+    expect(outcome.refs.data).toBe("Table1[Thickness (µm)]");
+    expect(outcome.chartAt).toBe("H1");
+    expect(workbook.charts).toHaveLength(1);
+    const n = outcome.rows.findIndex((r) => r.key === "numbers");
+    expect(workbook.value(DEMO_SHEET, n, 5)).toBe(22);
+    workbook.writeEntries(DEMO_SHEET, 25, 1, [[53]], true);
+    expect(workbook.value(DEMO_SHEET, n, 5)).toBe(23);
+    expect(workbook.chartSource(workbook.charts[0])).toEqual({ top: 0, left: 1, bottom: 25, right: 1 });
+  });
+
+  it("reads to the end of the sheet with an open-ended reference", async () => {
+    const { workbook, host } = demo();
+    const range = await analyzed(host, "B1:B25");
+    const outcome = await writeResult(host, plan([{ range, useHeader: true }], { reference: "open" }));
+    if (outcome.kind !== "written") throw new Error(outcome.kind);
+    expect(outcome.refs.data).toBe("$B$2:$B$1048576");
+    const n = outcome.rows.findIndex((r) => r.key === "numbers");
+    workbook.writeEntries(DEMO_SHEET, 29, 1, [[48]]);
+    expect(workbook.value(DEMO_SHEET, n, 5)).toBe(23);
+  });
+
+  it("writes a paired block referring to both columns, with a chart of both", async () => {
+    const { workbook, host } = demo();
+    const first = await analyzed(host, "B1:B25");
+    const second = await analyzed(host, "C1:C25");
+    const choices = [
+      { range: first, useHeader: true },
+      { range: second, useHeader: true },
+    ];
+    expect(chartSource(choices, [])).toEqual({ sheet: DEMO_SHEET, rect: { top: 0, left: 1, bottom: 24, right: 2 } });
+    const request: BlockRequest = { test: "sign", paired: true, center: 0, alternative: "two-sided", alpha: 0.05, confidence: 0.95 };
+    const outcome = await writeResult(host, plan(choices, { request, chart: true }));
+    if (outcome.kind !== "written") throw new Error(outcome.kind);
+    expect(outcome.refs).toEqual({ data: "$B$2:$B$25", second: "$C$2:$C$25" });
+    const skipped = outcome.rows.findIndex((r) => r.key === "skipped");
+    expect(workbook.value(DEMO_SHEET, skipped, 5)).toBe(2);
+    const p = outcome.rows.findIndex((r) => r.key === "pvalue");
+    // By hand: 18 negative differences, 3 positive, 1 zero: two-sided 2 * P(X <= 3), X ~ Bin(21, 1/2) = 2 * 1562 / 2^21.
+    expect(workbook.value(DEMO_SHEET, p, 5)).toBeCloseTo((2 * 1562) / 2097152, 14);
+    expect(workbook.charts[0].source).toEqual({ top: 0, left: 1, bottom: 24, right: 2 });
+  });
+});
+
+describe("writing the block through office-addin-mock", () => {
+  function mockHost(target: { values: unknown[][]; formulas: unknown[][] }): { host: Host; written: () => unknown } {
+    const sheet = {
+      name: DEMO_SHEET,
+      target: { address: "'Paint line'!E1:F20", ...target, numberFormat: [], format: { font: {} } },
+      getRange(this: { target: unknown }) {
+        return this.target;
+      },
+    };
+    const mock = new OfficeMockObject({
+      context: {
+        workbook: {
+          worksheets: {
+            sheet,
+            getItem(this: { sheet: unknown }) {
+              return this.sheet;
+            },
+            getActiveWorksheet(this: { sheet: unknown }) {
+              return this.sheet;
+            },
+          },
+        },
+      },
+      run: async function (this: { context: unknown }, batch: (context: unknown) => Promise<unknown>) {
+        return batch(this.context);
+      },
+    }) as unknown as { run: RunBatch; context: { workbook: { worksheets: { sheet: { target: { formulas: unknown } } } } } };
+    return { host: createHost((batch) => mock.run(batch)), written: () => mock.context.workbook.worksheets.sheet.target.formulas };
+  }
+
+  it("stops at the overwrite check when a target cell holds something, before any write", async () => {
+    const { host: demoHost } = demo();
+    const range = await analyzed(demoHost, "B1:B25");
+    const blank = (): unknown[][] => Array.from({ length: 20 }, () => ["", ""]);
+    const values = blank();
+    values[3][1] = 0.5;
+    const formulas = blank();
+    formulas[3][1] = "=A1/2";
+    const { host, written } = mockHost({ values, formulas });
+    const outcome = await writeResult(host, plan([{ range, useHeader: true }]));
+    expect(outcome).toEqual({ kind: "confirm", filled: [{ address: "F4", content: "=A1/2" }] });
+    expect(written()).toBe(formulas);
+  });
+});
