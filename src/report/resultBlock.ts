@@ -263,10 +263,15 @@ function boundRows(
   bound: (column: number) => CallValue,
 ): BlockRow[] {
   const level = percentWords(request.confidence);
-  const sideWords = side === "two-sided" ? "two-sided" : `one-sided, ${side} bound only`;
+  const label = (end: "lower" | "upper"): string =>
+    side === "two-sided"
+      ? `${level} bounds for the ${what}: ${end}`
+      : side === end
+        ? `${level} ${end} bound for the ${what} (one-sided)`
+        : `${end[0].toUpperCase()}${end.slice(1)} bound (none: one-sided)`;
   return [
-    row("lower", `${level} bounds for the ${what} (${sideWords}): lower`, bound(1), "number"),
-    row("upper", `${level} bounds for the ${what} (${sideWords}): upper`, bound(2), "number"),
+    row("lower", label("lower"), bound(1), "number"),
+    row("upper", label("upper"), bound(2), "number"),
     row("achieved", "Achieved confidence", bound(3), "percent"),
   ];
 }

@@ -173,3 +173,15 @@ describe("blockValue", () => {
     expect(blockValue({ kind: "decision", pValue: failing, alpha: 0.05, reject: "R", keep: "K" }, { data: cells }, run)).toEqual({ code: "#N/A" });
   });
 });
+
+describe("bound labels", () => {
+  it("names the one bound a one-sided alternative gets, and the two of a two-sided one", () => {
+    const labels = (request: BlockRequest) =>
+      resultBlockRows(request)
+        .filter((r) => r.key === "lower" || r.key === "upper")
+        .map((r) => r.label);
+    expect(labels(oneSample)).toEqual(["95% lower bound for the median (one-sided)", "Upper bound (none: one-sided)"]);
+    expect(labels({ ...oneSample, alternative: "less", confidence: 0.9 })).toEqual(["Lower bound (none: one-sided)", "90% upper bound for the median (one-sided)"]);
+    expect(labels(paired)).toEqual(["95% bounds for the median difference: lower", "95% bounds for the median difference: upper"]);
+  });
+});
