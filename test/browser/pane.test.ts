@@ -159,7 +159,7 @@ describe.skipIf(!run)("the pane on the demo page", () => {
     // By hand: of the 22 complete pairs, 18 differences are negative, 3 positive, 1 zero; two-sided p = 2 P(X <= 3), n = 21.
     const expected = fourDecimals(2 * upperTail(18, 21));
     await eventually(() => previewValue(page, "p-value")).toBe(expected);
-    await eventually(() => previewValue(page, "Pairs skipped (a side blank or not a number)")).toBe("2");
+    await eventually(() => previewValue(page, "Pairs skipped (one side blank or not a number)")).toBe("2");
     await snap(page, "10-paired-result");
 
     // Something appears inside the place the pane chose: writing must stop and ask.
