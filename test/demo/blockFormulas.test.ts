@@ -98,6 +98,18 @@ describe("the block's formulas in the demo sheet agree with REPORT's direct eval
     });
   });
 
+  it.each([...ONE_SAMPLE, ...PAIRED].map((r) => [`${r.paired ? "pairs" : "one sample"} ${r.test} ${r.alternative}`, r] as const))(
+    "open-ended reference to the end of the sheet gives the same block as the exact cells: %s",
+    (_, request) => {
+      // The million blank rows below the data must change nothing: blanks are neither skipped cells nor pairs.
+      const refs = { data: "$B$2:$B$25", second: "$C$2:$C$25" };
+      const open = { data: "$B$2:$B$1048576", second: "$C$2:$C$1048576" };
+      const exact = sheetValues(sheetWithData(), request, refs);
+      const openEnded = sheetValues(sheetWithData(), request, open);
+      resultBlockRows(request).forEach((row, i) => expectSame(openEnded[i], exact[i], row.label));
+    },
+  );
+
   it("gives the hand-counted numbers for the invented data", () => {
     // By hand from src/demo/inventedData.ts: 22 numbers, 1 cell skipped (the text note; blanks are not counted), 5 below 50, 1 tie, 16 above.
     const request = ONE_SAMPLE[0];

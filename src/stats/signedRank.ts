@@ -1,0 +1,323 @@
+/**
+ * Wilcoxon signed-rank test on differences already taken (x - m, or paired differences).
+ *
+ * Method
+ * - Ranks: absolute differences ranked with midranks for ties. Zeros are either
+ *   dropped before ranking (Wilcoxon's rule) or ranked with the rest and then left
+ *   out of the statistic (J. W. Pratt (1959), "Remarks on zeros and ties in the
+ *   Wilcoxon signed rank procedures", JASA 54, 655-667). Statistic V = sum of the
+ *   ranks of the positive differences: F. Wilcoxon (1945), "Individual
+ *   comparisons by ranking methods", Biometrics Bulletin 1, 80-83.
+ * - Exact p-value: the permutation (conditional) null distribution given the
+ *   observed ranks, each sign + or - with probability 1/2. Scores 2 x midrank are
+ *   integers, so the distribution of the score sum follows from the subset-sum
+ *   recursion f_k(w) = f_{k-1}(w) + f_{k-1}(w - s_k) over the scores (divided by
+ *   their common divisor); with ties and Pratt's zeros this is still exact. Only
+ *   the smaller tail is summed, using the symmetry of the distribution.
+ * - Normal approximation: mean and variance of V given the ranks (with the
+ *   usual tie correction sum(t^3 - t)/48), continuity correction 1/2, as R's
+ *   wilcox.test(correct = TRUE): E. L. Lehmann (1975), "Nonparametrics:
+ *   Statistical Methods Based on Ranks", Holden-Day, ch. 3 (from memory).
+ * - `auto` uses the exact distribution for up to EXACT_AUTO_LIMIT non-zero
+ *   differences, `exact` for up to EXACT_LIMIT; see those constants for the timing.
+ *
+ * Cost: ranking O(n) (radix sort, ranks.ts); exact distribution O(n * c) time and
+ * O(c) memory, c <= n(n+1)/2 the tail cut-off (O(n^3) at worst); normal O(1) after ranking.
+ */
+import { normalLowerTail, normalUpperTail } from "./normal";
+import { sortFloat64 } from "./ranks";
+import type { Alternative, SignedRankMethod, ZeroRule } from "./types";
+import { unavailable, type Unavailable } from "./types";
+
+/**
+ * `auto` is exact up to this many non-zero differences. Chosen by measurement with
+ * `npx tsx bench/run.ts signedRank` (2-core machine shared with other work): the slowest
+ * exact case at 400 (tie pairs making every score odd, p near 1) took 73-100 ms, 6-9x a bare
+ * loop over 10^6 cells and less than the normal method on 10^6 differences (13-18x); the
+ * cost grows as n^3, so 600 would take about 0.3 s. At 400 the continuity-corrected normal
+ * p-value is off by 0.04% at p = 0.05, 0.6% at 0.01, 2.6% at 0.001 and 19% at 1e-6 (same
+ * bench), so below this size exactness is worth its cost.
+ */
+export const EXACT_AUTO_LIMIT = 400;
+
+/**
+ * `exact` is honoured up to this many non-zero differences: the slowest case took 1.1-1.6 s in
+ * the same bench. Above it the O(n^3) cost would freeze a spreadsheet, so the normal approximation
+ * is used and `method` says so (at 1000 it is off by 0.2% at p = 0.01 and 1% at 0.001).
+ */
+export const EXACT_LIMIT = 1000;
+
+export interface SignedRankResult {
+  available: true;
+  /** V: sum of the ranks of the positive differences (midranks; may end in .5 with ties). */
+  statistic: number;
+  pValue: number;
+  alternative: Alternative;
+  /** Method actually used. */
+  method: "exact" | "normal";
+  requestedMethod: SignedRankMethod;
+  zeros: ZeroRule;
+  /** Differences ranked: non-zero ones, plus the zeros under Pratt's rule. */
+  n: number;
+  nonZero: number;
+  zeroCount: number;
+  /** Whether some non-zero absolute differences share a rank. */
+  tiesPresent: boolean;
+  /** Standardised statistic with continuity correction (normal method only). */
+  z?: number;
+  /** Mean of V under the null hypothesis, given the ranks. */
+  expected: number;
+  /** Variance of V under the null hypothesis, given the ranks (tie-corrected). */
+  variance: number;
+}
+
+/** Multiplies x by 2^e without overflow or premature underflow of the power itself. */
+function timesPowerOfTwo(x: number, e: number): number {
+  let y = x;
+  let k = e;
+  while (k < -1000) {
+    y *= 2 ** -1000;
+    k += 1000;
+  }
+  while (k > 1000) {
+    y *= 2 ** 1000;
+    k -= 1000;
+  }
+  return y * 2 ** k;
+}
+
+/** Scores beyond this could not be summed in a 32-bit integer index. */
+const MAX_SCORE = 2 ** 30;
+
+/** Items between rescalings of the count table: counts grow by at most 2 per item, 2^500 is far from overflow. */
+const RESCALE_EVERY = 500;
+
+/**
+ * P(W <= w) for w = 0..cap, where W is the sum of a random subset of the positive integer
+ * `scores`, each score in with probability 1/2 independently: the null distribution of
+ * the signed-rank statistic in score units. Throws a RangeError on a non-positive or
+ * non-integer score or a negative cap.
+ *
+ * @example
+ * // Scores 1, 2, 3 (ranks without ties): sums 0,1,2,3,3,4,5,6 each with probability 1/8.
+ * signedRankNullCdf([1, 2, 3], 3); // Float64Array [0.125, 0.25, 0.375, 0.625]
+ */
+export function signedRankNullCdf(scores: ArrayLike<number>, cap: number): Float64Array {
+  if (!Number.isInteger(cap) || cap < 0) throw new RangeError(`signedRankNullCdf: cap must be a non-negative integer, got ${cap}`);
+  const sorted = Int32Array.from(scores, (s) => {
+    if (!Number.isInteger(s) || s <= 0 || s > MAX_SCORE) throw new RangeError(`signedRankNullCdf: scores must be positive integers, got ${s}`);
+    return s;
+  }).sort(); // small scores first: the reachable range grows slowly
+  const counts = new Float64Array(cap + 1);
+  counts[0] = 1;
+  let reach = 0;
+  let exponent = 0; // counts are scaled by 2^-exponent to stay in range
+  for (let k = 0; k < sorted.length; k++) {
+    const s = sorted[k];
+    reach = Math.min(cap, reach + s);
+    // Integer-typed loop variables and an Int32Array of scores keep this loop on small-integer arithmetic.
+    for (let w = reach; w >= s; w--) counts[w] += counts[w - s];
+    if ((k + 1) % RESCALE_EVERY === 0) {
+      let largest = 0;
+      for (let w = 0; w <= reach; w++) if (counts[w] > largest) largest = counts[w];
+      const shift = Math.floor(Math.log2(largest));
+      const factor = 2 ** -shift;
+      for (let w = 0; w <= reach; w++) counts[w] *= factor;
+      exponent += shift;
+    }
+  }
+  const cdf = new Float64Array(cap + 1);
+  let running = 0;
+  for (let w = 0; w <= cap; w++) {
+    running += counts[w];
+    cdf[w] = timesPowerOfTwo(running, exponent - sorted.length);
+  }
+  return cdf;
+}
+
+/** The ranked data a signed-rank test needs: V, the null moments, and the score groups for the exact distribution. */
+interface RankedDifferences {
+  statistic: number;
+  nonZero: number;
+  zeroCount: number;
+  ranked: number;
+  tiesPresent: boolean;
+  expected: number;
+  variance: number;
+  /** 2 x midrank of each tie group of non-zero |d| (integers), and how many in the group and how many positive. */
+  groupScores: number[];
+  groupSizes: number[];
+  groupPositives: number[];
+}
+
+/** How many differences are positive and how many negative; throws a RangeError on NaN. */
+function countSignsOf(differences: ArrayLike<number>): { positives: number; negatives: number } {
+  let positives = 0;
+  let negatives = 0;
+  for (let i = 0; i < differences.length; i++) {
+    const d = differences[i];
+    if (d > 0) positives++;
+    else if (d < 0) negatives++;
+    else if (d !== 0) throw new RangeError(`signedRankTest: difference ${i} is NaN`);
+  }
+  return { positives, negatives };
+}
+
+function rankDifferences(differences: ArrayLike<number>, positives: number, negatives: number, zeros: ZeroRule, keepGroups: boolean): RankedDifferences {
+  const n = differences.length;
+  const above = new Float64Array(positives);
+  const below = new Float64Array(negatives);
+  for (let i = 0, p = 0, q = 0; i < n; i++) {
+    const d = differences[i];
+    if (d > 0) above[p++] = d;
+    else if (d < 0) below[q++] = -d;
+  }
+  sortFloat64(above);
+  sortFloat64(below);
+  const zeroCount = n - positives - negatives;
+  const nonZero = positives + negatives;
+  const offset = zeros === "pratt" ? zeroCount : 0; // Pratt: the zeros hold ranks 1..zeroCount
+  const groupScores: number[] = [];
+  const groupSizes: number[] = [];
+  const groupPositives: number[] = [];
+  let rank = offset; // ranks used so far
+  let twiceV = 0; // 2V, an integer: exact in a double up to 2^53
+  let tieSum = 0; // sum of t^3 - t over tie groups of non-zero |d|
+  let i = 0;
+  let j = 0;
+  while (i < positives || j < negatives) {
+    const v = i < positives && (j >= negatives || above[i] <= below[j]) ? above[i] : below[j];
+    let tp = 0;
+    while (i < positives && above[i] === v) {
+      i++;
+      tp++;
+    }
+    let tn = 0;
+    while (j < negatives && below[j] === v) {
+      j++;
+      tn++;
+    }
+    const t = tp + tn;
+    const score = 2 * rank + t + 1; // 2 x midrank of ranks rank+1..rank+t
+    twiceV += tp * score;
+    if (t > 1) tieSum += t * t * t - t;
+    if (keepGroups) {
+      groupScores.push(score);
+      groupSizes.push(t);
+      groupPositives.push(tp);
+    }
+    rank += t;
+  }
+  const total = offset + nonZero;
+  // Sums over the non-zero ranks of r and r^2: all ranks 1..total, less the zeros' 1..offset, less the tie reduction.
+  const sumRanks = (total * (total + 1) - offset * (offset + 1)) / 2;
+  const sumSquares = (total * (total + 1) * (2 * total + 1) - offset * (offset + 1) * (2 * offset + 1)) / 6 - tieSum / 12;
+  return {
+    statistic: twiceV / 2,
+    nonZero,
+    zeroCount,
+    ranked: zeros === "pratt" ? n : nonZero,
+    tiesPresent: tieSum > 0,
+    expected: sumRanks / 2,
+    variance: sumSquares / 4,
+    groupScores,
+    groupSizes,
+    groupPositives,
+  };
+}
+
+function greatestCommonDivisor(a: number, b: number): number {
+  let x = a;
+  let y = b;
+  while (y !== 0) {
+    const r = x % y;
+    x = y;
+    y = r;
+  }
+  return x;
+}
+
+/** Exact p-value from the conditional null distribution of the score sum. */
+function exactPValue(ranked: RankedDifferences, alternative: Alternative): number {
+  const { groupScores, groupSizes, groupPositives } = ranked;
+  let divisor = 0;
+  for (const s of groupScores) divisor = greatestCommonDivisor(s, divisor);
+  const scores: number[] = [];
+  let observed = 0;
+  let total = 0;
+  for (let g = 0; g < groupScores.length; g++) {
+    const s = groupScores[g] / divisor;
+    for (let k = 0; k < groupSizes[g]; k++) scores.push(s);
+    observed += groupPositives[g] * s;
+    total += groupSizes[g] * s;
+  }
+  // P(W <= c), summing whichever tail is shorter; W and total - W have the same distribution.
+  const lowerTail = (c: number): number => {
+    if (c < 0) return 0;
+    if (c >= total) return 1;
+    if (c <= total - c - 1) return signedRankNullCdf(scores, c)[c];
+    const other = total - c - 1;
+    return 1 - signedRankNullCdf(scores, other)[other];
+  };
+  if (alternative === "less") return lowerTail(observed);
+  if (alternative === "greater") return lowerTail(total - observed);
+  return Math.min(1, 2 * lowerTail(Math.min(observed, total - observed)));
+}
+
+function normalPValue(ranked: RankedDifferences, alternative: Alternative): { pValue: number; z: number } {
+  const deviation = ranked.statistic - ranked.expected;
+  const correction = alternative === "greater" ? 0.5 : alternative === "less" ? -0.5 : 0.5 * Math.sign(deviation);
+  const z = (deviation - correction) / Math.sqrt(ranked.variance);
+  if (alternative === "greater") return { pValue: normalUpperTail(z), z };
+  if (alternative === "less") return { pValue: normalLowerTail(z), z };
+  return { pValue: 2 * normalUpperTail(Math.abs(z)), z };
+}
+
+const ALTERNATIVES: readonly Alternative[] = ["two-sided", "greater", "less"];
+const METHODS: readonly SignedRankMethod[] = ["auto", "exact", "normal"];
+const ZERO_RULES: readonly ZeroRule[] = ["drop", "pratt"];
+
+/**
+ * Wilcoxon signed-rank test of "the differences are symmetric about 0".
+ * "greater" means the differences tend to be positive. NaN differences throw a RangeError
+ * (the cell layer never produces them), as do option values outside their types.
+ *
+ * @example
+ * const r = signedRankTest([1.5, -0.5, 2, 3, 0.25, 4], { alternative: "greater" });
+ * // r.available && r.statistic === 19 (ranks 3 + 4 + 5 + 1 + 6), r.method === "exact", r.pValue === 0.046875 (3/64)
+ */
+export function signedRankTest(
+  differences: ArrayLike<number>,
+  options: { alternative?: Alternative; method?: SignedRankMethod; zeros?: ZeroRule } = {},
+): SignedRankResult | Unavailable {
+  const alternative = options.alternative ?? "two-sided";
+  const requestedMethod = options.method ?? "auto";
+  const zeros = options.zeros ?? "drop";
+  if (!ALTERNATIVES.includes(alternative)) throw new RangeError(`signedRankTest: unknown alternative ${String(alternative)}`);
+  if (!METHODS.includes(requestedMethod)) throw new RangeError(`signedRankTest: unknown method ${String(requestedMethod)}`);
+  if (!ZERO_RULES.includes(zeros)) throw new RangeError(`signedRankTest: unknown zero rule ${String(zeros)}`);
+  if (differences.length === 0) return unavailable("no-data", "There are no differences to rank.");
+  const limit = requestedMethod === "exact" ? EXACT_LIMIT : requestedMethod === "auto" ? EXACT_AUTO_LIMIT : 0;
+  const { positives, negatives } = countSignsOf(differences);
+  const exact = positives + negatives <= limit; // decides whether the score groups are worth keeping
+  const ranked = rankDifferences(differences, positives, negatives, zeros, exact);
+  if (ranked.nonZero === 0) {
+    return unavailable("too-few-values", "Every difference is zero, so there is nothing to rank: at least one non-zero difference is needed.");
+  }
+  const common = {
+    available: true as const,
+    statistic: ranked.statistic,
+    alternative,
+    requestedMethod,
+    zeros,
+    n: ranked.ranked,
+    nonZero: ranked.nonZero,
+    zeroCount: ranked.zeroCount,
+    tiesPresent: ranked.tiesPresent,
+    expected: ranked.expected,
+    variance: ranked.variance,
+  };
+  if (exact) return { ...common, pValue: exactPValue(ranked, alternative), method: "exact" };
+  const { pValue, z } = normalPValue(ranked, alternative);
+  return { ...common, pValue, method: "normal", z };
+}

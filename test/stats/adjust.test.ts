@@ -1,0 +1,84 @@
+import { describe, expect, it } from "vitest";
+import fc from "fast-check";
+import { adjustPValues } from "../../src/stats/adjust";
+import type { AdjustMethod } from "../../src/stats/types";
+import fixture from "../fixtures/adjust.json";
+
+const METHODS: AdjustMethod[] = ["holm", "bonferroni", "hochberg", "bh", "by"];
+
+type FixtureSet = { p: (number | null)[] } & Record<AdjustMethod, (number | null)[]>;
+const sets = (fixture as { sets: FixtureSet[] }).sets;
+const toNumbers = (v: (number | null)[]) => v.map((x) => (x === null ? NaN : x));
+
+describe("adjustPValues against R 4.2 p.adjust (fixture test/fixtures/adjust.R)", () => {
+  for (const method of METHODS) {
+    it(`${method}: ${sets.length} generated sets, NaN entries kept and not counted`, () => {
+      let worst = 0;
+      for (const set of sets) {
+        const got = adjustPValues(toNumbers(set.p), method);
+        const want = toNumbers(set[method]);
+        expect(got.length).toBe(want.length);
+        for (let i = 0; i < want.length; i++) {
+          if (Number.isNaN(want[i])) {
+            expect(got[i]).toBeNaN();
+            continue;
+          }
+          const rel = want[i] === 0 ? Math.abs(got[i]) : Math.abs(got[i] - want[i]) / want[i];
+          worst = Math.max(worst, rel);
+        }
+      }
+      console.log(`adjust ${method}: worst relative error vs R p.adjust ${worst.toExponential(2)}`);
+      // R sums 1/j for BY in long double; otherwise the same operations in the same order.
+      expect(worst).toBeLessThanOrEqual(method === "by" ? 1e-14 : 0);
+    });
+  }
+});
+
+describe("adjustPValues by hand", () => {
+  // Worked by hand from the definitions (Holm 1979; Benjamini & Hochberg 1995).
+  it("holm and bh on three values with a NaN", () => {
+    expect(Array.from(adjustPValues([0.01, 0.04, 0.03, NaN], "holm"))).toEqual([0.03, 0.06, 0.06, NaN]);
+    expect(Array.from(adjustPValues([0.01, 0.04, 0.03], "bh"))).toEqual([0.03, 0.04, 0.04]);
+  });
+  it("defaults to holm; empty and all-NaN inputs give NaN only", () => {
+    expect(Array.from(adjustPValues([0.02, 0.5]))).toEqual(Array.from(adjustPValues([0.02, 0.5], "holm")));
+    expect(adjustPValues([]).length).toBe(0);
+    expect(Array.from(adjustPValues([NaN, NaN], "by"))).toEqual([NaN, NaN]);
+  });
+  it("rejects p outside [0, 1] and unknown methods", () => {
+    expect(() => adjustPValues([0.2, 1.5])).toThrow(RangeError);
+    expect(() => adjustPValues([-0.1])).toThrow(RangeError);
+    expect(() => adjustPValues([0.1], "sidak" as AdjustMethod)).toThrow(RangeError);
+  });
+});
+
+describe("adjustPValues properties (fast-check)", () => {
+  const pvals = fc.array(fc.oneof(fc.double({ min: 0, max: 1, noNaN: true }), fc.constant(NaN)), { maxLength: 40 });
+  it("adjusted values lie in [p, 1], keep the order of the raw values, and bonferroni >= holm >= hochberg >= bh", () => {
+    fc.assert(
+      fc.property(pvals, (p) => {
+        const adj = Object.fromEntries(METHODS.map((m) => [m, adjustPValues(p, m)])) as Record<AdjustMethod, Float64Array>;
+        for (let i = 0; i < p.length; i++) {
+          if (Number.isNaN(p[i])) {
+            for (const m of METHODS) expect(adj[m][i]).toBeNaN();
+            continue;
+          }
+          for (const m of METHODS) {
+            expect(adj[m][i]).toBeGreaterThanOrEqual(p[i] * (1 - 1e-15));
+            expect(adj[m][i]).toBeLessThanOrEqual(1);
+          }
+          // Common practice (each step-up/step-down procedure is uniformly more powerful than the previous).
+          expect(adj.bonferroni[i]).toBeGreaterThanOrEqual(adj.holm[i] * (1 - 1e-15));
+          expect(adj.holm[i]).toBeGreaterThanOrEqual(adj.hochberg[i] * (1 - 1e-15));
+          expect(adj.hochberg[i]).toBeGreaterThanOrEqual(adj.bh[i] * (1 - 1e-15));
+          expect(adj.by[i]).toBeGreaterThanOrEqual(adj.bh[i] * (1 - 1e-15));
+          for (let j = 0; j < p.length; j++) {
+            if (Number.isNaN(p[j]) || !(p[i] < p[j])) continue;
+            for (const m of METHODS) expect(adj[m][i]).toBeLessThanOrEqual(adj[m][j]);
+          }
+        }
+      }),
+      { numRuns: 300 },
+    );
+  });
+});

@@ -1,0 +1,121 @@
+import { describe, expect, it } from "vitest";
+import fc from "fast-check";
+import { numbersFromCells, pairsFromCells, type SkippedCells } from "../../src/stats/cells";
+
+/**
+ * Reference: the definition applied cell by cell to the flattened matrix (blank = null, undefined or "";
+ * finite numbers kept; every other value counted by kind), with no attempt at speed.
+ */
+function kindOf(v: unknown): keyof SkippedCells | "number" {
+  if (typeof v === "number") return Number.isFinite(v) ? "number" : "other";
+  if (v === null || v === undefined || v === "") return "blank";
+  if (typeof v === "string") return "text";
+  if (typeof v === "boolean") return "boolean";
+  return "other";
+}
+function reference(cells: unknown[][]) {
+  const flat = cells.flat();
+  const skipped: SkippedCells = { blank: 0, text: 0, boolean: 0, other: 0 };
+  for (const v of flat) {
+    const k = kindOf(v);
+    if (k !== "number") skipped[k]++;
+  }
+  return { values: flat.filter((v) => kindOf(v) === "number") as number[], cells: flat.length, skipped };
+}
+
+const anyCell = fc.oneof(
+  { weight: 4, arbitrary: fc.constant(null) },
+  { weight: 3, arbitrary: fc.double() }, // includes NaN, ±Infinity and -0
+  { weight: 1, arbitrary: fc.constantFrom(undefined, "", " ", "12", "text", true, false, {}, new Error("#N/A"), [1]) },
+);
+const matrix = (width: fc.Arbitrary<number>) =>
+  fc.tuple(fc.integer({ min: 0, max: 60 }), width).chain(([rows, w]) => fc.array(fc.array(anyCell, { minLength: w, maxLength: w }), { minLength: rows, maxLength: rows }));
+
+describe("numbersFromCells", () => {
+  it("classifies every kind of cell (worked by hand)", () => {
+    const r = numbersFromCells([
+      [1, "a", null],
+      [undefined, true, ""],
+      [2.5, NaN, Infinity],
+      [-0, "3", { type: "error" }],
+    ]);
+    expect(Array.from(r.values)).toEqual([1, 2.5, -0]);
+    expect(r.cells).toBe(12);
+    expect(r.skipped).toEqual({ blank: 3, text: 2, boolean: 1, other: 3 });
+  });
+
+  it("matches the cell-by-cell definition, in reading order, also past the initial capacity", () => {
+    fc.assert(
+      fc.property(matrix(fc.integer({ min: 0, max: 12 })), (cells) => {
+        const got = numbersFromCells(cells);
+        const want = reference(cells);
+        expect(Array.from(got.values)).toEqual(want.values);
+        expect(got.cells).toBe(want.cells);
+        expect(got.skipped).toEqual(want.skipped);
+      }),
+      { numRuns: 300 },
+    );
+    const column = Array.from({ length: 5000 }, (_, i) => [i % 3 === 0 ? null : i]);
+    const big = numbersFromCells(column);
+    expect(Array.from(big.values)).toEqual(reference(column).values);
+  });
+
+  it("accepts jagged rows and an empty range", () => {
+    expect(Array.from(numbersFromCells([[1], [2, 3], []]).values)).toEqual([1, 2, 3]);
+    expect(numbersFromCells([])).toEqual({ values: new Float64Array(0), cells: 0, skipped: { blank: 0, text: 0, boolean: 0, other: 0 } });
+  });
+});
+
+describe("pairsFromCells", () => {
+  it("keeps a pair only when both cells are finite numbers (worked by hand)", () => {
+    const p = pairsFromCells([[1], [2], ["x"], [4]], [[1.5], [null], [4], [NaN]]);
+    expect(Array.from(p.first)).toEqual([1]);
+    expect(Array.from(p.second)).toEqual([1.5]);
+    expect(p.pairs).toBe(4);
+    expect(p.pairsSkipped).toBe(3);
+    expect(p.skippedFirst).toEqual({ blank: 0, text: 1, boolean: 0, other: 0 });
+    expect(p.skippedSecond).toEqual({ blank: 1, text: 0, boolean: 0, other: 1 });
+  });
+
+  it("matches the definition on random ranges of one shape", () => {
+    fc.assert(
+      fc.property(
+        fc.tuple(fc.integer({ min: 0, max: 400 }), fc.integer({ min: 1, max: 3 })).chain(([rows, w]) =>
+          fc.tuple(...[0, 1].map(() => fc.array(fc.array(anyCell, { minLength: w, maxLength: w }), { minLength: rows, maxLength: rows }))),
+        ),
+        ([a, b]) => {
+          const p = pairsFromCells(a, b);
+          const fa = a.flat();
+          const fb = b.flat();
+          const keep = fa.map((v, i) => kindOf(v) === "number" && kindOf(fb[i]) === "number");
+          expect(Array.from(p.first)).toEqual(fa.filter((_, i) => keep[i]));
+          expect(Array.from(p.second)).toEqual(fb.filter((_, i) => keep[i]));
+          const empty = fa.map((v, i) => kindOf(v) === "blank" && kindOf(fb[i]) === "blank");
+          const tallyOutsideEmpty = (cells: unknown[]) => reference([cells.filter((_, i) => !empty[i])]).skipped;
+          expect(p.pairs).toBe(fa.length);
+          expect(p.emptyPairs).toBe(empty.filter(Boolean).length);
+          expect(p.pairsSkipped).toBe(keep.filter((k, i) => !k && !empty[i]).length);
+          expect(p.skippedFirst).toEqual(tallyOutsideEmpty(fa));
+          expect(p.skippedSecond).toEqual(tallyOutsideEmpty(fb));
+        },
+      ),
+      { numRuns: 200 },
+    );
+  });
+
+  it("does not count a position blank on both sides as a skipped pair (an open-ended range's empty rows)", () => {
+    const first = [[1], [2], [null], ["note"], ...Array.from({ length: 1000 }, () => [null])];
+    const second = [[1.5], [null], [3], [null], ...Array.from({ length: 1000 }, () => [""])];
+    const p = pairsFromCells(first, second);
+    expect(p.pairs).toBe(1004);
+    expect(p.pairsSkipped).toBe(3);
+    expect(p.emptyPairs).toBe(1000);
+    expect(p.skippedFirst).toEqual({ blank: 1, text: 1, boolean: 0, other: 0 });
+    expect(p.skippedSecond).toEqual({ blank: 2, text: 0, boolean: 0, other: 0 });
+  });
+
+  it("throws a RangeError when the shapes differ", () => {
+    expect(() => pairsFromCells([[1], [2]], [[1]])).toThrow(RangeError);
+    expect(() => pairsFromCells([[1, 2]], [[1]])).toThrow(RangeError);
+  });
+});

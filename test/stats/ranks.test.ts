@@ -1,0 +1,88 @@
+import { describe, expect, it } from "vitest";
+import fc from "fast-check";
+import { midranks, sortFloat64 } from "../../src/stats/ranks";
+
+/** Reference order: Float64Array.prototype.sort without a comparator (ECMA-262: numeric, -0 before +0). */
+const referenceSort = (x: number[]) => Float64Array.from(x).sort();
+
+const awkward = fc.constantFrom(0, -0, Infinity, -Infinity, 5e-324, -5e-324, 2.2250738585072014e-308, -1e308, 1e308, 1, -1);
+const values = fc.oneof(
+  { weight: 3, arbitrary: fc.double({ noNaN: true }) },
+  { weight: 2, arbitrary: fc.integer({ min: -50, max: 50 }) },
+  { weight: 1, arbitrary: awkward },
+);
+
+function sameBits(a: Float64Array, b: Float64Array): boolean {
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (!Object.is(a[i], b[i])) return false;
+  return true;
+}
+
+describe("sortFloat64", () => {
+  it("orders like the built-in typed-array sort, short arrays and radix-sized ones", () => {
+    fc.assert(
+      fc.property(fc.array(values, { maxLength: 300 }), (x) => {
+        expect(sameBits(sortFloat64(Float64Array.from(x)), referenceSort(x))).toBe(true);
+      }),
+      { numRuns: 300 },
+    );
+    // Radix-sized arrays of the same awkward mixture (-0, subnormals of both signs, infinities).
+    fc.assert(
+      fc.property(fc.array(values, { minLength: 1100, maxLength: 2500 }), (x) => {
+        expect(sameBits(sortFloat64(Float64Array.from(x)), referenceSort(x))).toBe(true);
+      }),
+      { numRuns: 40 },
+    );
+    // Radix path: long arrays of several shapes (random doubles, two-decimal data that skip low digits, mixed signs).
+    let seed = 7;
+    const next = () => ((seed = (Math.imul(seed, 1103515245) + 12345) >>> 0) / 2 ** 32);
+    const shapes = [
+      () => (next() - 0.5) * 1e6,
+      () => Math.round(next() * 20000) / 100,
+      () => (next() < 0.5 ? -1 : 1) * Math.round(next() * 50),
+      () => (next() < 0.01 ? -0 : next() < 0.02 ? Infinity : -(next() * 1e-300)),
+    ];
+    for (const shape of shapes) {
+      const x = Array.from({ length: 50_000 }, shape);
+      expect(sameBits(sortFloat64(Float64Array.from(x)), referenceSort(x))).toBe(true);
+    }
+  });
+
+  it("sorts in place, returns its argument, and rejects NaN", () => {
+    const a = new Float64Array([3, -1, 2.5, -Infinity]);
+    expect(sortFloat64(a)).toBe(a);
+    expect(Array.from(a)).toEqual([-Infinity, -1, 2.5, 3]);
+    expect(() => sortFloat64(new Float64Array([1, NaN]))).toThrow(RangeError);
+    expect(() => sortFloat64(new Float64Array(10_000).fill(NaN))).toThrow(RangeError);
+  });
+
+  it("sorts a view into a larger buffer without touching the rest", () => {
+    const buffer = new Float64Array(10_002).map((_, i) => 10_002 - i);
+    const view = buffer.subarray(1, 10_001);
+    sortFloat64(view);
+    expect(buffer[0]).toBe(10_002);
+    expect(buffer[10_001]).toBe(1);
+    expect(view[0]).toBe(2);
+    expect(view[9_999]).toBe(10_001);
+  });
+});
+
+describe("midranks", () => {
+  it("equals the definition (Kendall 1945): number below + (number tied + 1) / 2", () => {
+    fc.assert(
+      fc.property(fc.array(fc.oneof(fc.integer({ min: -5, max: 5 }), fc.double({ noNaN: true })), { maxLength: 200 }), (x) => {
+        const got = midranks(x);
+        x.forEach((v, i) => {
+          const below = x.filter((w) => w < v).length;
+          const tied = x.filter((w) => w === v).length;
+          expect(got[i]).toBe(below + (tied + 1) / 2);
+        });
+      }),
+      { numRuns: 200 },
+    );
+  });
+
+  it("worked example", () => {
+    expect(Array.from(midranks([10, 30, 20, 30]))).toEqual([1, 3.5, 2, 3.5]);
+  });
+});
