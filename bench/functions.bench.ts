@@ -12,19 +12,8 @@
  */
 import { bounds, hodgeslehmann, pvalue, signrank } from "../src/functions/functions";
 import { report, timeMedian } from "./timing";
+import { xorshift32 as uniforms } from "../src/stats/xorshift";
 
-/** Deterministic uniform numbers in [0, 1) (Marsaglia 2003, "Xorshift RNGs", J. Stat. Softw. 8(14), the 32-bit xorshift). */
-function uniforms(seed: number): () => number {
-  let s = seed >>> 0 || 1;
-  return () => {
-    s ^= s << 13;
-    s >>>= 0;
-    s ^= s >>> 17;
-    s ^= s << 5;
-    s >>>= 0;
-    return s / 2 ** 32;
-  };
-}
 
 /** A one-column range of `rows` cells whose first `numbers` cells hold coating thicknesses around 50 µm; the rest are blank. */
 function column(rows: number, numbers: number, seed: number): (number | null)[][] {

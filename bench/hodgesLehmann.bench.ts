@@ -9,18 +9,8 @@ import { hodgesLehmann } from "../src/stats/hodgesLehmann";
 import { EXACT_AUTO_LIMIT } from "../src/stats/signedRank";
 import { alternate, bareLoop, columnOf } from "./cells.bench";
 import { report, timeMedian } from "./timing";
+import { xorshift32 as uniforms } from "../src/stats/xorshift";
 
-function uniforms(seed: number): () => number {
-  let s = seed >>> 0 || 1;
-  return () => {
-    s ^= s << 13;
-    s >>>= 0;
-    s ^= s >>> 17;
-    s ^= s << 5;
-    s >>>= 0;
-    return s / 2 ** 32;
-  };
-}
 
 export async function run(): Promise<void> {
   const next = uniforms(99);

@@ -14,20 +14,10 @@ import { normalLowerTail } from "../src/stats/normal";
 import { EXACT_AUTO_LIMIT, EXACT_LIMIT, signedRankNullCdf, signedRankTest } from "../src/stats/signedRank";
 import { alternate, bareLoop, columnOf } from "./cells.bench";
 import { report, timeMedian } from "./timing";
+import { xorshift32 as uniforms } from "../src/stats/xorshift";
 
 const N = 1_000_000;
 
-function uniforms(seed: number): () => number {
-  let s = seed >>> 0 || 1;
-  return () => {
-    s ^= s << 13;
-    s >>>= 0;
-    s ^= s >>> 17;
-    s ^= s << 5;
-    s >>>= 0;
-    return s / 2 ** 32;
-  };
-}
 
 /** Signs alternating in pairs of tied absolute values 1,1,2,2,...: scores 2r + 3 are all odd, V near its mean. */
 function slowestExact(m: number): Float64Array {

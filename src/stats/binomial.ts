@@ -31,6 +31,9 @@
  *   the fraction needs O(n^(1/3)) steps, Temme's uniform asymptotic expansion
  *   (N. M. Temme 1987, SIAM J. Math. Anal. 18, 1638-1663; BASYM in the same
  *   algorithm) takes over, at about 4 to 16 terms.
+ * - Fair coin, n <= 53: p = 1/2 probabilities are sums of binomial
+ *   coefficients over 2^n, held exactly in doubles (Pascal's triangle), so
+ *   the sign test's small-sample p-values are exact to the last bit.
  * - Quantile: a Cornish-Fisher start, then doubling steps and bisection on the
  *   lower tail.
  *
@@ -338,6 +341,48 @@ function pointMass(n: number, p: number): number | undefined {
 }
 
 /**
+ * Up to this n, every partial sum of a row of Pascal's triangle is an integer
+ * below 2^53, so fair-coin probabilities (p = 1/2, the sign test's null
+ * distribution) are dyadic rationals a double holds exactly: 67/1024 comes
+ * back as 67/1024, not an ulp away, and a p-value equal to alpha is not
+ * decided by rounding.
+ */
+const FAIR_EXACT_MAX_N = 53;
+
+/** FAIR_CUMULATIVE[n][k] = C(n,0) + ... + C(n,k), exact; built once by Pascal's rule (O(53^2)). */
+const FAIR_CUMULATIVE: readonly Float64Array[] = (() => {
+  const rows: Float64Array[] = [];
+  let coefficients = new Float64Array([1]);
+  for (let n = 0; n <= FAIR_EXACT_MAX_N; n++) {
+    if (n > 0) {
+      const next = new Float64Array(n + 1);
+      for (let k = 0; k <= n; k++) next[k] = (k > 0 ? coefficients[k - 1] : 0) + (k < n ? coefficients[k] : 0);
+      coefficients = next;
+    }
+    const cumulative = new Float64Array(n + 1);
+    let sum = 0;
+    for (let k = 0; k <= n; k++) cumulative[k] = sum += coefficients[k];
+    rows.push(cumulative);
+  }
+  return rows;
+})();
+
+function isFairExact(n: number, p: number): boolean {
+  return p === 0.5 && n <= FAIR_EXACT_MAX_N;
+}
+
+/** P(X <= k) at p = 1/2 for 0 <= k <= n <= FAIR_EXACT_MAX_N, exactly. */
+function fairLowerTail(k: number, n: number): number {
+  return FAIR_CUMULATIVE[n][k] * 2 ** -n;
+}
+
+/** P(X = k) at p = 1/2 for 0 <= k <= n <= FAIR_EXACT_MAX_N, exactly. */
+function fairPmf(k: number, n: number): number {
+  const row = FAIR_CUMULATIVE[n];
+  return (k > 0 ? row[k] - row[k - 1] : row[0]) * 2 ** -n;
+}
+
+/**
  * Natural logarithm of P(X = k); -Infinity for k outside 0..n. Finite and
  * accurate even where P(X = k) itself underflows.
  *
@@ -349,6 +394,7 @@ export function binomialLogPmf(k: number, n: number, p: number): number {
   if (k < 0 || k > n) return -Infinity;
   const mass = pointMass(n, p);
   if (mass !== undefined) return k === mass ? 0 : -Infinity;
+  if (isFairExact(n, p)) return Math.log(fairPmf(k, n));
   return logPmfInRange(k, n, p);
 }
 
@@ -363,6 +409,7 @@ export function binomialPmf(k: number, n: number, p: number): number {
   if (k < 0 || k > n) return 0;
   const mass = pointMass(n, p);
   if (mass !== undefined) return k === mass ? 1 : 0;
+  if (isFairExact(n, p)) return fairPmf(k, n);
   return Math.exp(logPmfInRange(k, n, p));
 }
 
@@ -378,6 +425,7 @@ export function binomialLowerTail(k: number, n: number, p: number): number {
   if (k >= n) return 1;
   const mass = pointMass(n, p);
   if (mass !== undefined) return mass <= k ? 1 : 0;
+  if (isFairExact(n, p)) return fairLowerTail(k, n);
   return sideValue(cutAt(k, n, p), false);
 }
 
@@ -394,6 +442,7 @@ export function binomialUpperTail(k: number, n: number, p: number): number {
   if (k > n) return 0;
   const mass = pointMass(n, p);
   if (mass !== undefined) return mass >= k ? 1 : 0;
+  if (isFairExact(n, p)) return fairLowerTail(n - k, n);
   return sideValue(cutAt(k - 1, n, p), true);
 }
 
@@ -409,6 +458,7 @@ export function binomialLogLowerTail(k: number, n: number, p: number): number {
   if (k >= n) return 0;
   const mass = pointMass(n, p);
   if (mass !== undefined) return mass <= k ? 0 : -Infinity;
+  if (isFairExact(n, p)) return Math.log(fairLowerTail(k, n));
   return sideLog(cutAt(k, n, p), false);
 }
 
@@ -424,6 +474,7 @@ export function binomialLogUpperTail(k: number, n: number, p: number): number {
   if (k > n) return -Infinity;
   const mass = pointMass(n, p);
   if (mass !== undefined) return mass >= k ? 0 : -Infinity;
+  if (isFairExact(n, p)) return Math.log(fairLowerTail(n - k, n));
   return sideLog(cutAt(k - 1, n, p), true);
 }
 

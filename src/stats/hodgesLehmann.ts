@@ -34,6 +34,7 @@ import { sortFloat64 } from "./ranks";
 import { selectInPlace } from "./selection";
 import { EXACT_AUTO_LIMIT, signedRankNullCdf } from "./signedRank";
 import { unavailable, type Unavailable } from "./types";
+import { xorshift32 as xorshift } from "./xorshift";
 
 export interface HodgesLehmannResult {
   available: true;
@@ -62,18 +63,6 @@ const SAMPLE = 1024;
 /** Half-width of the bracket in sample ranks: 2 sqrt(SAMPLE), four standard deviations of the target's sample rank. */
 const BRACKET = 64;
 
-/** A small deterministic generator (Marsaglia 2003, "Xorshift RNGs", J. Statistical Software 8(14)): pivots only. */
-function xorshift(seed: number): () => number {
-  let state = seed >>> 0 || 1;
-  return () => {
-    state ^= state << 13;
-    state >>>= 0;
-    state ^= state >>> 17;
-    state ^= state << 5;
-    state >>>= 0;
-    return state / 4294967296;
-  };
-}
 
 /**
  * The averages still in play: row i (sums terms[i] + terms[j], j >= i) keeps columns left[i]..right[i].

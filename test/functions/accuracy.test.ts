@@ -19,6 +19,7 @@
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
 import { loadFunctionsBundle, StandInError } from "./dist";
+import { xorshift32 as uniforms } from "../../src/stats/xorshift";
 
 const bundle = loadFunctionsBundle();
 const fixtures = JSON.parse(readFileSync(new URL("../fixtures/signTest.json", import.meta.url), "utf8")) as {
@@ -82,18 +83,6 @@ function expectClose(actual: unknown, expected: number, what: string): void {
   expect(error <= TOLERANCE * Math.abs(expected), `${what}: got ${actual as number}, expected ${expected}`).toBe(true);
 }
 
-/** Deterministic uniform numbers in [0, 1) (Marsaglia 2003, "Xorshift RNGs", J. Stat. Softw. 8(14)). */
-function uniforms(seed: number): () => number {
-  let s = seed >>> 0 || 1;
-  return () => {
-    s ^= s << 13;
-    s >>>= 0;
-    s ^= s >>> 17;
-    s ^= s << 5;
-    s >>>= 0;
-    return s / 2 ** 32;
-  };
-}
 
 function shuffle<T>(items: T[], next: () => number): T[] {
   for (let i = items.length - 1; i > 0; i--) {

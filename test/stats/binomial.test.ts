@@ -303,3 +303,33 @@ describe("binomial edge cases and argument checks", () => {
     expect(() => binomialQuantile(NaN, 10, 0.5)).toThrow(RangeError);
   });
 });
+
+describe("fair coin, small n: exact to the last bit", () => {
+  // Exact arithmetic: C(n, j) summed as BigInt, divided by 2^n; for n <= 53 the quotient is a double exactly.
+  function exactFair(n: number, k: number): { lower: number; pmf: number } {
+    let c = 1n;
+    let sum = 0n;
+    let pmf = 0n;
+    for (let j = 0; j <= k; j++) {
+      if (j > 0) c = (c * BigInt(n - j + 1)) / BigInt(j);
+      sum += c;
+      pmf = c;
+    }
+    return { lower: Number(sum) / 2 ** n, pmf: Number(pmf) / 2 ** n };
+  }
+
+  it("gives every tail and point probability for n <= 53 exactly", () => {
+    for (let n = 1; n <= 53; n++) {
+      for (let k = 0; k <= n; k++) {
+        const exact = exactFair(n, k);
+        expect(binomialLowerTail(k, n, 0.5)).toBe(exact.lower);
+        expect(binomialUpperTail(n - k, n, 0.5)).toBe(exact.lower);
+        expect(binomialPmf(k, n, 0.5)).toBe(exact.pmf);
+        expect(binomialLogLowerTail(k, n, 0.5)).toBe(Math.log(exact.lower));
+        expect(binomialLogUpperTail(n - k, n, 0.5)).toBe(Math.log(exact.lower));
+        expect(binomialLogPmf(k, n, 0.5)).toBe(Math.log(exact.pmf));
+      }
+    }
+    expect(binomialLowerTail(2, 11, 0.5)).toBe(67 / 2048); // hand computation: 1 + 11 + 55 = 67
+  });
+});
