@@ -10,10 +10,16 @@
  * CA; when there are no certificates at all it falls back to plain http and
  * says so (the demo page works over http; Excel will not load the add-in).
  *
- * Options: --no-build (serve dist/ as it is), --http (skip certificates).
+ * The demo page (the pane beside an in-page sheet, no Excel needed) is opened
+ * in the desktop's browser when there is one; with https it is also served
+ * over plain http on port 3001, so it opens without a certificate warning.
+ *
+ * Options: --no-build (serve dist/ as it is), --http (skip certificates),
+ * --no-open (print the demo address only).
  */
 import { existsSync, readFileSync } from "node:fs";
-import { createServer as createHttpServer } from "node:http";
+import { spawn } from "node:child_process";
+import { createServer as createHttpServer, type Server } from "node:http";
 import { createServer as createHttpsServer } from "node:https";
 import { createRequire } from "node:module";
 import { homedir } from "node:os";
@@ -22,6 +28,8 @@ import { fileURLToPath } from "node:url";
 import { staticHandler } from "./staticFiles";
 
 const PORT = 3000;
+/** Plain-http port for the demo page when the add-in itself is served over https. */
+const DEMO_PORT = 3001;
 const project = resolve(dirname(fileURLToPath(import.meta.url)), "..");
 const dist = join(project, "dist");
 const require = createRequire(import.meta.url);
@@ -67,11 +75,11 @@ async function certificates(): Promise<Certificates | null> {
 /** How the server ended up serving. */
 type Transport = "https" | "https-untrusted" | "http-asked" | "http-fallback";
 
-function instructions(origin: string, transport: Transport): string {
+function instructions(origin: string, transport: Transport, demoOrigin: string): string {
   const lines = [
     "",
     `Evensplit is served at ${origin}/ from dist/.`,
-    `  Demo page (no Excel needed): ${origin}/demo.html`,
+    `  Demo page (no Excel needed): ${demoOrigin}/demo.html`,
     `  Task pane page:              ${origin}/taskpane.html`,
     `  Manifest:                    ${join(project, "manifest.xml")}`,
     "",
@@ -87,8 +95,8 @@ function instructions(origin: string, transport: Transport): string {
     );
   } else if (transport === "https-untrusted") {
     lines.push(
-      "https with a certificate whose authority is not trusted on this machine yet. A browser shows",
-      "a warning you can accept for the demo page; Excel needs the authority trusted first:",
+      "https with a certificate whose authority is not trusted on this machine yet (the demo page",
+      "above is plain http and needs none). Excel needs the authority trusted first:",
       "npx office-addin-dev-certs install   (needs administrator rights), then npm start again.",
       "",
     );
@@ -122,11 +130,44 @@ async function main(): Promise<void> {
   const handler = staticHandler(dist, "demo.html");
   const server = certs ? createHttpsServer({ cert: certs.cert, key: certs.key }, handler) : createHttpServer(handler);
   const origin = `${certs ? "https" : "http"}://localhost:${PORT}`;
-  server.on("error", (error: NodeJS.ErrnoException) => {
-    console.error(error.code === "EADDRINUSE" ? `Port ${PORT} is in use: stop the other server first.` : `The server stopped: ${error.message}`);
-    process.exit(1);
+  await listen(server, PORT);
+  // The demo page needs no certificate: beside an https server for Excel it is also served over
+  // plain http, so a browser on this machine opens it without a certificate warning.
+  const demoOrigin = certs ? `http://localhost:${DEMO_PORT}` : origin;
+  if (certs) await listen(createHttpServer(handler), DEMO_PORT);
+  console.log(instructions(origin, transport, demoOrigin));
+  if (!args.has("--no-open")) openInBrowser(`${demoOrigin}/demo.html`);
+}
+
+function listen(server: Server, port: number): Promise<void> {
+  return new Promise((done) => {
+    server.on("error", (error: NodeJS.ErrnoException) => {
+      console.error(error.code === "EADDRINUSE" ? `Port ${port} is in use: stop the other server first.` : `The server stopped: ${error.message}`);
+      process.exit(1);
+    });
+    server.listen(port, "localhost", done);
   });
-  server.listen(PORT, "localhost", () => console.log(instructions(origin, transport)));
+}
+
+/**
+ * Opens the demo page with the desktop's opener when there is a desktop to
+ * open it on; elsewhere (a terminal without a display, CI) the printed
+ * address is all there is.
+ */
+function openInBrowser(url: string): void {
+  if (process.env.CI || !process.stdout.isTTY) return;
+  const opener =
+    process.platform === "darwin"
+      ? { command: "open", args: [url] }
+      : process.platform === "win32"
+        ? { command: "cmd", args: ["/c", "start", "", url] }
+        : process.env.DISPLAY || process.env.WAYLAND_DISPLAY
+          ? { command: "xdg-open", args: [url] }
+          : null;
+  if (!opener) return;
+  const child = spawn(opener.command, opener.args, { stdio: "ignore", detached: true });
+  child.on("error", () => undefined);
+  child.unref();
 }
 
 main().catch((error: unknown) => {
