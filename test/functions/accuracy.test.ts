@@ -20,35 +20,11 @@ import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
 import { loadFunctionsBundle, StandInError } from "./dist";
 import { xorshift32 as uniforms } from "../../src/stats/xorshift";
+import { signTestFixture } from "../fixtures/signTestFixture";
 
 const bundle = loadFunctionsBundle();
-const fixtures = JSON.parse(readFileSync(new URL("../fixtures/signTest.json", import.meta.url), "utf8")) as {
-  sign: SignCase[];
-  quantile: QuantileCase[];
-  bounds: BoundCase[];
-};
+const fixtures = signTestFixture;
 
-interface SignCase {
-  below: number;
-  above: number;
-  greater: number;
-  less: number;
-  twoSided: number;
-  midpGreater: number;
-  midpLess: number;
-  midpTwoSided: number;
-  normalGreater: number | null;
-  normalLess: number | null;
-  normalTwoSided: number;
-}
-interface QuantileCase {
-  below: number;
-  above: number;
-  quantile: number;
-  greater: number;
-  less: number;
-  doubling: number;
-}
 interface SignedRankCase {
   kind: string;
   x: number[];
@@ -62,16 +38,6 @@ interface SignedRankCase {
     | { reachable: false }
     | { reachable: true; estimate: number; lower: number; upper: number; achieved: number }
     | { walshMedian: number; normalLower: number; normalUpper: number };
-}
-interface BoundCase {
-  n: number;
-  quantile: number;
-  confidence: number;
-  side: "two-sided" | "lower" | "upper";
-  available: boolean;
-  lowerRank: number | null;
-  upperRank: number | null;
-  achievedConfidence: number | null;
 }
 
 const TOLERANCE = 1e-10;

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import fixtures from "../fixtures/signTest.json";
+import { signTestFixture as fixtures } from "../fixtures/signTestFixture";
 import { boundRanks, minimumSampleSize, quantileBounds, type QuantileBoundsResult } from "../../src/stats/quantileBounds";
 import { quantileTest } from "../../src/stats/quantileTest";
 import type { BoundSide } from "../../src/stats/types";
@@ -71,19 +71,9 @@ const RATIONAL_Q: readonly [number, number][] = [
   [3, 20],
 ];
 
-interface BoundFixture {
-  n: number;
-  quantile: number;
-  confidence: number;
-  side: BoundSide;
-  available: boolean;
-  lowerRank: number | null;
-  upperRank: number | null;
-  achievedConfidence: number | null;
-}
 
 describe("boundRanks against R 4.2 pbinom/qbinom (test/fixtures/signTest.R)", () => {
-  const cases = fixtures.bounds as BoundFixture[];
+  const cases = fixtures.bounds;
   it(`gives the same ranks and coverage in ${cases.length} generated cases up to n = 1e6`, () => {
     let worst = 0;
     for (const c of cases) {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import fixtures from "../fixtures/signTest.json";
+import { signTestFixture as fixtures, type QuantileCase as QuantileFixture } from "../fixtures/signTestFixture";
 import { quantileTest, type QuantileTestResult, type TwoSidedRule } from "../../src/stats/quantileTest";
 import { signTest } from "../../src/stats/signTest";
 import type { Alternative } from "../../src/stats/types";
@@ -22,18 +22,9 @@ function relErr(a: number, b: number): number {
   return a === b ? 0 : Math.abs(a - b) / Math.abs(b);
 }
 
-interface QuantileFixture {
-  below: number;
-  above: number;
-  quantile: number;
-  greater: number;
-  less: number;
-  minimumLikelihood: number;
-  doubling: number;
-}
 
 describe("quantileTest against R 4.2 binom.test (test/fixtures/signTest.R)", () => {
-  const cases = fixtures.quantile as QuantileFixture[];
+  const cases = fixtures.quantile;
   it(`matches ${cases.length} generated cases: both one-sided, doubling and minimum likelihood`, () => {
     let worst = 0;
     const checks: [Alternative, TwoSidedRule, keyof QuantileFixture][] = [

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import fixtures from "../fixtures/signTest.json";
+import { signTestFixture as fixtures } from "../fixtures/signTestFixture";
 import { signTest, type SignTestResult } from "../../src/stats/signTest";
 import type { SignCounts } from "../../src/stats/signCounts";
 import type { Alternative, SignTestMethod } from "../../src/stats/types";
@@ -20,22 +20,9 @@ function relErr(a: number, b: number): number {
 const ALTERNATIVES: readonly Alternative[] = ["two-sided", "greater", "less"];
 const METHODS: readonly SignTestMethod[] = ["exact", "midp", "normal"];
 
-interface SignFixture {
-  below: number;
-  above: number;
-  greater: number;
-  less: number;
-  twoSided: number;
-  midpGreater: number;
-  midpLess: number;
-  midpTwoSided: number;
-  normalGreater: number | null;
-  normalLess: number | null;
-  normalTwoSided: number;
-}
 
 describe("signTest against R 4.2 (test/fixtures/signTest.R: binom.test, pbinom/dbinom, prop.test)", () => {
-  const cases = fixtures.sign as SignFixture[];
+  const cases = fixtures.sign;
   it(`matches ${cases.length} generated cases for every alternative and method`, () => {
     let worst = 0;
     for (const c of cases) {
