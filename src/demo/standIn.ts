@@ -27,7 +27,8 @@ export const ERROR_CODES = {
   nullReference: "#NULL!",
 } as const;
 
-class StandInError {
+/** An error value as the stand-in runtime makes it: the code the cell shows and the message behind it. */
+export class StandInError {
   constructor(
     readonly code: string,
     readonly message?: string,

@@ -12,6 +12,7 @@ import { existsSync, readFileSync } from "node:fs";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
 import { createContext, runInContext } from "node:vm";
+import { ERROR_CODES, StandInError } from "../../src/demo/standIn";
 
 export const DIST = fileURLToPath(new URL("../../dist", import.meta.url));
 
@@ -22,23 +23,7 @@ export function distText(name: string): string {
   return readFileSync(file, "utf8");
 }
 
-export const ERROR_CODES = {
-  divisionByZero: "#DIV/0!",
-  invalidName: "#NAME?",
-  invalidNumber: "#NUM!",
-  invalidReference: "#REF!",
-  invalidValue: "#VALUE!",
-  notAvailable: "#N/A",
-  nullReference: "#NULL!",
-} as const;
-
-/** An error value as the stand-in runtime makes it. */
-export class StandInError {
-  constructor(
-    readonly code: string,
-    readonly message?: string,
-  ) {}
-}
+export { ERROR_CODES, StandInError };
 
 export type Registered = (...args: unknown[]) => unknown;
 
