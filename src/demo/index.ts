@@ -67,13 +67,13 @@ async function start(): Promise<void> {
   mountPane(paneHost, { host: createHost(fakeRun(workbook)), calculate: callFunction });
 
   let added = 0;
-  const themeButton = el("button", { class: "demo-button", attrs: { type: "button", "aria-pressed": String(theme === "dark") } }, "Dark theme");
+  const themeButton = el("button", { class: "es-button demo-button", attrs: { type: "button", "aria-pressed": String(theme === "dark") } }, "Dark theme");
   themeButton.addEventListener("click", () => {
     theme = theme === "dark" ? "light" : "dark";
     applyTheme(document.documentElement, theme);
     themeButton.setAttribute("aria-pressed", String(theme === "dark"));
   });
-  const addButton = el("button", { class: "demo-button", attrs: { type: "button" } }, "Add a panel row");
+  const addButton = el("button", { class: "es-button demo-button", attrs: { type: "button" } }, "Add a panel row");
   addButton.addEventListener("click", () => {
     const row = nextEmptyRow(workbook);
     workbook.writeEntries(DEMO_SHEET, row, 0, [extraPanel(added)], true);

@@ -7,6 +7,7 @@
 import { OfficeMockObject } from "office-addin-mock";
 import { describe, expect, it } from "vitest";
 import { CAUTION_COLOR, createHost, type RunBatch } from "../../src/taskpane/host";
+import { workbookMock } from "./officeMock";
 
 /** office-addin-mock only loads properties it knows; collections' items are given as plain, already loaded objects. */
 function itemsCollection(items: unknown[], extra: Record<string, unknown> = {}): Record<string, unknown> {
@@ -46,30 +47,6 @@ function mockRun(mock: OfficeMockObject): RunBatch {
   return (batch) => (mock as unknown as { run: RunBatch }).run(batch);
 }
 
-function workbookMock(sheet: Record<string, unknown>, selected = "'Paint line'!B1:B25"): OfficeMockObject {
-  return new OfficeMockObject({
-    context: {
-      workbook: {
-        selected: { address: selected },
-        getSelectedRange(this: { selected: unknown }) {
-          return this.selected;
-        },
-        worksheets: {
-          sheet,
-          getItem(this: { sheet: unknown }) {
-            return this.sheet;
-          },
-          getActiveWorksheet(this: { sheet: unknown }) {
-            return this.sheet;
-          },
-        },
-      },
-    },
-    run: async function (this: { context: unknown }, batch: (context: unknown) => Promise<unknown>) {
-      return batch(this.context);
-    },
-  });
-}
 
 describe("host over office-addin-mock", () => {
   it("reads the selection's address after load and sync", async () => {

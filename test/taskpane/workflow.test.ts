@@ -6,7 +6,6 @@
  * invented data; expected formulas from the block's one definition
  * (resultBlock.ts).
  */
-import { OfficeMockObject } from "office-addin-mock";
 import { beforeAll, describe, expect, it } from "vitest";
 import { fakeRun } from "../../src/demo/fakeExcel";
 import type { CustomFunction } from "../../src/demo/formula/evaluate";
@@ -29,6 +28,7 @@ import {
   type WritePlan,
 } from "../../src/taskpane/workflow";
 import { catalogueFunctions } from "../demo/catalogue";
+import { workbookMock } from "./officeMock";
 
 let functions: Map<string, CustomFunction>;
 beforeAll(async () => {
@@ -224,24 +224,7 @@ describe("writing the block through office-addin-mock", () => {
         return this.target;
       },
     };
-    const mock = new OfficeMockObject({
-      context: {
-        workbook: {
-          worksheets: {
-            sheet,
-            getItem(this: { sheet: unknown }) {
-              return this.sheet;
-            },
-            getActiveWorksheet(this: { sheet: unknown }) {
-              return this.sheet;
-            },
-          },
-        },
-      },
-      run: async function (this: { context: unknown }, batch: (context: unknown) => Promise<unknown>) {
-        return batch(this.context);
-      },
-    }) as unknown as { run: RunBatch; context: { workbook: { worksheets: { sheet: { target: { formulas: unknown } } } } } };
+    const mock = workbookMock(sheet) as unknown as { run: RunBatch; context: { workbook: { worksheets: { sheet: { target: { formulas: unknown } } } } } };
     return { host: createHost((batch) => mock.run(batch)), written: () => mock.context.workbook.worksheets.sheet.target.formulas };
   }
 
