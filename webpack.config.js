@@ -35,7 +35,8 @@ module.exports = (_env, argv) => {
       demo: "./src/demo/index.ts",
     },
     output: {
-      path: path.resolve(__dirname, "dist"),
+      // EVENSPLIT_DIST builds elsewhere (a private build beside a running test; the tests read the same variable).
+      path: process.env.EVENSPLIT_DIST ? path.resolve(process.env.EVENSPLIT_DIST) : path.resolve(__dirname, "dist"),
       filename: "[name].js",
       // The bundles share state through globalThis, which also exists where functions.js is
       // loaded outside a browser window (the bundle test).

@@ -14,7 +14,8 @@ import { fileURLToPath } from "node:url";
 import { createContext, runInContext } from "node:vm";
 import { ERROR_CODES, StandInError } from "../../src/demo/standIn";
 
-export const DIST = fileURLToPath(new URL("../../dist", import.meta.url));
+/** The built add-in; EVENSPLIT_DIST points at a private build (as for the browser tests). */
+export const DIST = process.env.EVENSPLIT_DIST ?? fileURLToPath(new URL("../../dist", import.meta.url));
 
 /** Contents of a file in dist/; a clear failure when the build has not run. */
 export function distText(name: string): string {
