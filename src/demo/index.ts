@@ -18,7 +18,7 @@ import { applyTheme, type Theme } from "../taskpane/theme";
 import { fakeRun } from "./fakeExcel";
 import { mountGrid } from "./grid";
 import { DEMO_SHEET, demoRows, extraPanel } from "./inventedData";
-import { installStandIn, loadScript, shapesFrom, withShapes } from "./standIn";
+import { addHostErrors, installStandIn, loadScript, shapesFrom, withShapes } from "./standIn";
 import { Workbook } from "./workbook";
 
 /** The workbook behind the page; exposed for the browser tests to inspect, never written by them. */
@@ -48,6 +48,7 @@ async function start(): Promise<void> {
   let metadata: unknown;
   try {
     await loadScript("functions.js");
+    addHostErrors(window);
     const response = await fetch("functions.json");
     if (!response.ok) throw new Error("functions.json could not be read; run npm run build first.");
     metadata = await response.json();

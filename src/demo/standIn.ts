@@ -36,12 +36,18 @@ export class StandInError {
 }
 
 /**
- * Installs `CustomFunctions` on a global object and returns the map that
- * fills up as the bundle registers its functions (ids in upper case).
+ * Installs `CustomFunctions` on a global object as office.js first defines
+ * it, with `associate` only (node_modules/@microsoft/office-js/dist/
+ * office.debug.js), and returns the map that fills up as the bundle registers
+ * its functions (ids in upper case, as office.js files them). The error class
+ * is not there yet: `addHostErrors` brings it, as Excel's host script does
+ * later, so a bundle that waits for it before registering fails here as it
+ * would in Excel.
  *
  * @example
  * const registered = installStandIn(window);
  * await loadScript("functions.js"); // registered.get("PVALUE") is now the bundle's function
+ * addHostErrors(window);
  */
 export function installStandIn(target: object): Map<string, AnyFunction> {
   const registered = new Map<string, AnyFunction>();
@@ -53,11 +59,24 @@ export function installStandIn(target: object): Map<string, AnyFunction> {
     for (const [id, f] of Object.entries(idOrMap)) registered.set(id.toUpperCase(), f);
   };
   Object.defineProperty(target, "CustomFunctions", {
-    value: { associate, Error: StandInError, ErrorCode: { ...ERROR_CODES } },
+    value: { associate },
     configurable: true,
     writable: true,
   });
   return registered;
+}
+
+/**
+ * Adds the `Error` class and `ErrorCode` values to the stand-in, as Excel's
+ * host script (excel-web-16.00.js in the same package) adds them to
+ * office.js's stub after the page's scripts have run.
+ *
+ * @example
+ * addHostErrors(window); // CustomFunctions.Error is now StandInError
+ */
+export function addHostErrors(target: object): void {
+  const runtime = (target as { CustomFunctions?: object }).CustomFunctions;
+  if (runtime) Object.assign(runtime, { Error: StandInError, ErrorCode: { ...ERROR_CODES } });
 }
 
 /**

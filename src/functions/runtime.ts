@@ -1,19 +1,27 @@
 /**
  * The one place that touches the host's custom-functions runtime.
  *
- * Inside Excel, Office.js defines a global `CustomFunctions` with
- * `associate(id, fn)`, the `Error` class and the `ErrorCode` values
- * ("#VALUE!", "#N/A", ...; custom messages are shown for #VALUE! and #N/A
- * only — Microsoft, "CustomFunctions.ErrorCode enum", Office Add-ins API
- * reference, custom-functions-runtime, API set CustomFunctionsRuntime 1.2).
- * Elsewhere (the in-page demo, unit tests) there is no such global; then
- * errors are plain objects of the same shape and registration does nothing,
- * so the same code runs everywhere.
+ * Inside Excel the runtime arrives in two steps. Office.js (office.js, loaded
+ * by the page) first defines a global `CustomFunctions` stub holding only
+ * `associate(id, fn)` (and the association table it fills); the `Error`
+ * class and the `ErrorCode` values ("#VALUE!", "#N/A", ...) come later with
+ * Excel's host script, which Office.js loads asynchronously once it knows it
+ * runs in Excel (seen in the package @microsoft/office-js: office.js defines
+ * the stub, excel-web-16.00.js and its siblings add `Error` and `ErrorCode`).
+ * So registration needs `associate` only, and the error class is looked up
+ * each time a function answers with an error, by which time the host script
+ * is there. Custom messages are shown for #VALUE! and #N/A (Microsoft,
+ * "CustomFunctions.ErrorCode enum", Office Add-ins API reference,
+ * custom-functions-runtime, API set CustomFunctionsRuntime 1.2).
+ *
+ * Elsewhere (the in-page demo without Office.js, unit tests) there may be no
+ * such global; then errors are plain objects of the same shape and
+ * registration does nothing, so the same code runs everywhere.
  *
  * The build appends `CustomFunctions.associate("ID", fn)` for every function
  * of functions.ts (custom-functions-metadata-plugin); webpack.config.js
  * points that free name at `registrar` below, which hands each pair on to the
- * host when there is one.
+ * host's `associate` when there is one.
  *
  * Cost: O(1) per call.
  */
@@ -24,15 +32,27 @@ export interface CellError {
   readonly message?: string;
 }
 
-interface HostRuntime {
-  associate(id: string, fn: (...args: never[]) => unknown): void;
+type Registration = (...args: never[]) => unknown;
+
+/** What office.js defines before Excel's host script has loaded. */
+interface RuntimeStub {
+  associate(id: string, fn: Registration): void;
+}
+
+/** What Excel's host script adds to the stub. */
+interface RuntimeErrors {
   Error: new (code: string, message?: string) => CellError;
   ErrorCode: { readonly invalidValue: string; readonly notAvailable: string };
 }
 
-function host(): HostRuntime | undefined {
-  const candidate = (globalThis as { CustomFunctions?: Partial<HostRuntime> }).CustomFunctions;
-  return candidate && typeof candidate.Error === "function" && candidate.ErrorCode ? (candidate as HostRuntime) : undefined;
+function customFunctionsGlobal(): Partial<RuntimeStub & RuntimeErrors> | undefined {
+  return (globalThis as { CustomFunctions?: Partial<RuntimeStub & RuntimeErrors> }).CustomFunctions;
+}
+
+/** The host's error class and codes, when its script has loaded them. */
+function runtimeErrors(): RuntimeErrors | undefined {
+  const candidate = customFunctionsGlobal();
+  return candidate && typeof candidate.Error === "function" && candidate.ErrorCode ? (candidate as RuntimeErrors) : undefined;
 }
 
 /** The codes this add-in answers with, as the cell shows them. */
@@ -40,13 +60,13 @@ export type CellErrorCode = "#VALUE!" | "#N/A";
 
 /**
  * A cell error carrying a message: the host's own error object inside Excel,
- * an object of the same shape elsewhere.
+ * an object of the same shape elsewhere (or before the host script is there).
  *
  * @example
  * cellError("#N/A", "No values left after setting aside the ties."); // { code: "#N/A", message: "No values ..." }
  */
 export function cellError(code: CellErrorCode, message: string): CellError {
-  const runtime = host();
+  const runtime = runtimeErrors();
   if (runtime === undefined) return { code, message };
   return new runtime.Error(code === "#VALUE!" ? runtime.ErrorCode.invalidValue : runtime.ErrorCode.notAvailable, message);
 }
@@ -58,13 +78,15 @@ export function isCellError(value: unknown): value is CellError {
 
 /**
  * What the build-time `CustomFunctions.associate(...)` lines call: passes each
- * registration to the host runtime when the page runs inside Excel.
+ * registration to the host's `associate` whenever the page has one, whether
+ * or not the rest of the runtime has arrived yet.
  *
  * @example
  * registrar.associate("PVALUE", pvalue); // registers with Excel; no effect on a page without Office.js
  */
 export const registrar = {
-  associate(id: string, fn: (...args: never[]) => unknown): void {
-    host()?.associate(id, fn);
+  associate(id: string, fn: Registration): void {
+    const runtime = customFunctionsGlobal();
+    if (typeof runtime?.associate === "function") runtime.associate(id, fn);
   },
 };

@@ -39,21 +39,30 @@ export interface LoadedBundle {
 
 /**
  * Runs dist/functions.js in a new context whose only globals are the
- * JavaScript built-ins, `console` and the stand-in `CustomFunctions`.
+ * JavaScript built-ins, `console` and `CustomFunctions` as Excel builds it:
+ * first office.js's stub (`associate`, `_association`, `delayInitialization`:
+ * node_modules/@microsoft/office-js/dist/office.debug.js, where `associate`
+ * files each function under its id in upper case), and only after the bundle
+ * has run the `Error` class and `ErrorCode` values, which Excel's host script
+ * adds later (excel-web-16.00.js in the same package). A bundle that waited
+ * for `Error` before registering would register nothing here.
  */
 export function loadFunctionsBundle(): LoadedBundle {
   const ids: string[] = [];
   const fns = new Map<string, Registered>();
-  const CustomFunctions = {
+  const mappings: Record<string, Registered> = {};
+  const CustomFunctions: Record<string, unknown> = {
+    delayInitialization() {},
+    _association: { mappings },
     associate(id: string, fn: Registered) {
       ids.push(id);
       fns.set(id, fn);
+      mappings[id.toUpperCase()] = fn;
     },
-    Error: StandInError,
-    ErrorCode: ERROR_CODES,
   };
   const context = createContext({ CustomFunctions, console });
   runInContext(distText("functions.js"), context, { filename: "dist/functions.js" });
+  Object.assign(CustomFunctions, { Error: StandInError, ErrorCode: ERROR_CODES });
   return {
     ids,
     fns,

@@ -38,6 +38,18 @@ describe("cell errors", () => {
     expect(isCellError(null)).toBe(false);
   });
 
+  it("registers with office.js's stub before Excel's host script brings the error class, which is looked up when a function answers", () => {
+    // office.js defines CustomFunctions with associate() only; Error and ErrorCode arrive later
+    // (node_modules/@microsoft/office-js/dist: office.debug.js, then excel-web-16.00.debug.js).
+    const registered: string[] = [];
+    globals.CustomFunctions = { associate: (id: string) => registered.push(id), _association: { mappings: {} } };
+    registrar.associate("PVALUE", () => 1);
+    expect(registered).toEqual(["PVALUE"]);
+    expect(cellError("#N/A", "too few")).toEqual({ code: "#N/A", message: "too few" });
+    Object.assign(globals.CustomFunctions as object, { Error: StandInError, ErrorCode: ERROR_CODES });
+    expect(cellError("#N/A", "too few")).toBeInstanceOf(StandInError);
+  });
+
   it("registration reaches the host when there is one and does nothing otherwise", () => {
     expect(() => registrar.associate("PVALUE", () => 1)).not.toThrow();
     const registered = installStandIn();
