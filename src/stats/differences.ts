@@ -20,7 +20,17 @@
  * Reference for correctly rounded decimal conversion: W. D. Clinger (1990),
  * "How to read floating point numbers accurately", Proc. ACM PLDI '90, 92-101.
  *
+ * The same rounding is the one tie rule of every function: a value equals a
+ * hypothesised centre when their difference rounds to zero (`compareAsShown`),
+ * whether the value came from a range (sign test, quantile test, counts) or is
+ * itself a difference (paired and signed-rank tests). Excel keeps 15 significant
+ * digits (Microsoft, "Floating-point arithmetic may give inaccurate results in
+ * Excel", Microsoft Learn troubleshooting article, from memory), so two numbers
+ * that agree in those digits read the same on the sheet and are a tie here.
+ *
  * Cost: O(1) per difference, O(n) for an array; no allocation beyond the result.
+ * A comparison costs two raw comparisons outside a narrow window around the
+ * centre (`tieWindow`), and one rounding inside it.
  */
 
 /** 10^k for k = -325..309, each the correctly rounded double (exact for 0 <= k <= 22). */
@@ -184,4 +194,50 @@ export function differencesFrom(values: ArrayLike<number>, center: number): Floa
     out[i] = roundToScale(hi, sumError(x, -center, hi), Math.max(Math.abs(x), centerSize));
   }
   return out;
+}
+
+/**
+ * How `value` compares with `center` as the sheet shows them: -1 below, 0 a tie, 1 above. It is the sign of
+ * `spreadsheetDifference(value, center)`, so 0.1 + 0.2 ties with 0.3; equal doubles (±Infinity included, and
+ * -0 with +0) always tie. NaN gives NaN.
+ *
+ * @example
+ * compareAsShown(0.1 + 0.2, 0.3); // 0
+ * compareAsShown(0.31, 0.3);      // 1
+ */
+export function compareAsShown(value: number, center: number): number {
+  if (value === center) return 0;
+  return Math.sign(spreadsheetDifference(value, center));
+}
+
+/**
+ * Raw comparison decides outside [low, high]: a value below `low` is below `center` as the sheet shows them,
+ * one above `high` is above; only values inside need `compareAsShown`.
+ */
+export interface TieWindow {
+  readonly low: number;
+  readonly high: number;
+}
+
+/**
+ * Relative half-width of the window: a difference rounds to zero only when it is under half a quantum,
+ * 0.5 × 10^(e - 14) <= 0.5e-14 × max(|value|, |center|), and any |value - center| >= 1e-13 × |center| is at
+ * least that (when |value| > |center|, max <= |center| + |value - center|). The factor of 20 also covers the
+ * rounding of center ± the half-width itself (an ulp, about 1.1e-16 relative).
+ */
+const WINDOW_RELATIVE = 1e-13;
+
+/**
+ * The window around `center` outside which raw comparison agrees with `compareAsShown`; for centre 0 it is
+ * [0, 0], since a non-zero value never rounds to zero at its own scale, and likewise [center, center] for an
+ * infinite centre.
+ *
+ * @example
+ * const w = tieWindow(50); // { low: 49.999999999995, high: 50.000000000005 }
+ * // 49.9 < w.low: below without rounding; 50 + 1e-14 lies inside: compareAsShown decides (a tie)
+ */
+export function tieWindow(center: number): TieWindow {
+  if (center - center !== 0) return { low: center, high: center }; // ±Infinity (or NaN): no finite window
+  const halfWidth = Math.abs(center) * WINDOW_RELATIVE;
+  return { low: center - halfWidth, high: center + halfWidth };
 }
