@@ -519,7 +519,7 @@ export function report(
       alpha: fractionArgument("alpha", alpha, 0.05, "0.05"),
       confidence: fractionArgument("confidence", confidence, 0.95),
     };
-    const cellsIn = { data: inputs.first, second: inputs.second };
+    const cellsIn = { data: inputs.first, second: inputs.second, passedAsArgument: true };
     return resultBlockRows(request).map((row) => {
       const value = blockValue(row.value, cellsIn, callFunction);
       return [row.label, value === null || value === undefined ? "" : value];

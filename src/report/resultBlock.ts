@@ -58,7 +58,24 @@ export type BlockValue =
   | { readonly kind: "skipped"; readonly of: "data" }
   /** The sum of several catalogue values (e.g. ties + used = pairs compared). */
   | { readonly kind: "sum"; readonly terms: readonly CallValue[] }
+  | BlankCheckValue
   | { readonly kind: "decision"; readonly pValue: CallValue; readonly alpha: number; readonly reject: string; readonly keep: string };
+
+/**
+ * The blank-cell check: the sheet's own COUNT of the ranges against the
+ * numbers Evensplit read from them (`read`, summed). Some Excel builds pass
+ * the blank cells of a range argument to an add-in's function as 0
+ * (office-js issues 5262, 4702 and 1951), which no function can tell from a
+ * measured 0; the sheet's own COUNT still skips them, so the two differ
+ * exactly when that happened to these ranges.
+ */
+export interface BlankCheckValue {
+  readonly kind: "blankCheck";
+  readonly ranges: readonly ("data" | "second")[];
+  readonly read: readonly CallValue[];
+  readonly agree: string;
+  readonly differ: string;
+}
 
 export type BlockFormat = "text" | "integer" | "number" | "pvalue" | "percent";
 
@@ -167,6 +184,7 @@ function countRows(request: BlockRequest, centerWords: string): BlockRow[] {
     return [
       row("pairs", "Complete pairs (n total)", { kind: "sum", terms: [counts(2), counts(4)] }, "integer"),
       row("skipped", "Pairs skipped (one side blank or not a number)", counts(5), "integer"),
+      blankCheckRow(["data", "second"]),
       row("below", `Differences below ${centerWords}`, counts(1), "integer"),
       row("tied", `Differences equal to ${centerWords} (ties)`, counts(2), "integer"),
       row("above", `Differences above ${centerWords}`, counts(3), "integer"),
@@ -177,11 +195,28 @@ function countRows(request: BlockRequest, centerWords: string): BlockRow[] {
   return [
     row("numbers", "Numbers in range (n total)", { kind: "numbers", of: "data" }, "integer"),
     row("skipped", "Cells skipped (text or logical; blanks not counted)", { kind: "skipped", of: "data" }, "integer"),
+    blankCheckRow(["data"]),
     row("below", `Values below ${centerWords}`, counts(1), "integer"),
     row("tied", `Values equal to ${centerWords} (ties)`, counts(2), "integer"),
     row("above", `Values above ${centerWords}`, counts(3), "integer"),
     row("used", "Used (n, ties left out)", counts(4), "integer"),
   ];
+}
+
+/** What the check row says when the counts agree, and when they do not. */
+export const BLANK_CHECK_WORDS = {
+  agree: "Agrees: Evensplit read as many numbers as the sheet's COUNT finds",
+  differ: "Differs from the sheet's COUNT: this Excel passed blank cells as zeros; use a table column and leave no cell in it empty",
+} as const;
+
+/**
+ * The row comparing the sheet's COUNT of the ranges with the numbers Evensplit
+ * read from them: tied + used (= below + tied + above) of COUNTS on each
+ * range; the hypothesised value does not change that sum, so 0 is passed.
+ */
+function blankCheckRow(ranges: readonly ("data" | "second")[]): BlockRow {
+  const read = ranges.flatMap((range) => [2, 4].map((column) => call("COUNTS", [{ ref: range }, num(0)], column)));
+  return row("blanks", "Blank cells (the sheet's COUNT against the numbers read)", { kind: "blankCheck", ranges, read, ...BLANK_CHECK_WORDS }, "text");
 }
 
 function row(key: string, label: string, value: BlockValue, format: BlockFormat, style: BlockRow["style"] = "plain"): BlockRow {
@@ -390,6 +425,11 @@ export function blockFormula(value: BlockValue, refs: { data: string; second?: s
       return `=${value.terms.map((term) => formulaCall(term, refs)).join("+")}`;
     case "decision":
       return `=IF(${formulaCall(value.pValue, refs)}<=${formulaNumber(value.alpha)},${formulaString(value.reject)},${formulaString(value.keep)})`;
+    case "blankCheck": {
+      const sheetCount = `COUNT(${value.ranges.map((range) => formulaOperand({ ref: range }, refs)).join(",")})`;
+      const read = value.read.map((term) => formulaCall(term, refs)).join("+");
+      return `=IF(${sheetCount}=${read},${formulaString(value.agree)},${formulaString(value.differ)})`;
+    }
   }
 }
 
@@ -397,6 +437,12 @@ export function blockFormula(value: BlockValue, refs: { data: string; second?: s
 export interface BlockInputs {
   readonly data: readonly (readonly unknown[])[];
   readonly second?: readonly (readonly unknown[])[];
+  /**
+   * True when the cells arrived as a custom function's range argument (REPORT), where some Excel
+   * builds pass a blank cell as 0; absent or false when they were read from the sheet itself
+   * (the pane reads `Range.values`, where a blank is always empty).
+   */
+  readonly passedAsArgument?: boolean;
 }
 
 /** Runs a catalogue function by id on cell matrices, numbers and words; returns a scalar or a one-row matrix. */
@@ -418,15 +464,40 @@ function countCells(matrix: readonly (readonly unknown[])[], counts: (cell: unkn
   return count;
 }
 
+function rangeOf(range: "data" | "second", inputs: BlockInputs): readonly (readonly unknown[])[] {
+  if (range === "data") return inputs.data;
+  if (inputs.second === undefined) throw new RangeError("this block needs a second range");
+  return inputs.second;
+}
+
+/**
+ * What REPORT can say when the counts agree but cells arrived as 0: inside one cell a blank passed as 0
+ * looks like a measured 0, so only the sheet's own COUNT beside it can settle the question.
+ */
+export function blankCheckUncheckedWords(zeros: number, read: number): string {
+  return `Cannot be checked inside REPORT: ${zeros} cell${zeros === 1 ? "" : "s"} arrived as 0. If the sheet's COUNT of the range is less than ${read}, this Excel passed blank cells as zeros; use a table column and leave no cell in it empty`;
+}
+
+function blankCheck(value: BlankCheckValue, inputs: BlockInputs, run: CatalogueCall): unknown {
+  let read = 0;
+  for (const term of value.read) {
+    const part = evaluateCall(term, inputs, run);
+    if (typeof part !== "number") return part;
+    read += part;
+  }
+  let sheetCount = 0;
+  let zeros = 0;
+  for (const range of value.ranges) {
+    const cells = rangeOf(range, inputs);
+    sheetCount += countCells(cells, isNumberCell);
+    zeros += countCells(cells, (cell) => cell === 0);
+  }
+  if (sheetCount !== read) return value.differ;
+  return inputs.passedAsArgument === true && zeros > 0 ? blankCheckUncheckedWords(zeros, read) : value.agree;
+}
+
 function evaluateCall(value: CallValue, inputs: BlockInputs, run: CatalogueCall): unknown {
-  const args = value.args.map((operand) => {
-    if ("ref" in operand) {
-      if (operand.ref === "data") return inputs.data;
-      if (inputs.second === undefined) throw new RangeError("this block needs a second range");
-      return inputs.second;
-    }
-    return "number" in operand ? operand.number : operand.text;
-  });
+  const args = value.args.map((operand) => ("ref" in operand ? rangeOf(operand.ref, inputs) : "number" in operand ? operand.number : operand.text));
   const result = run(value.fn, args);
   if (value.column === undefined || !Array.isArray(result)) return result;
   return (result as unknown[][])[0][value.column - 1];
@@ -461,5 +532,7 @@ export function blockValue(value: BlockValue, inputs: BlockInputs, run: Catalogu
       if (typeof p !== "number") return p;
       return p <= value.alpha ? value.reject : value.keep;
     }
+    case "blankCheck":
+      return blankCheck(value, inputs, run);
   }
 }
