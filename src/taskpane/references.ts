@@ -3,24 +3,35 @@
  * (structured reference, so rows added to the table count), the exact cells,
  * or an open-ended range down to the last row of the sheet.
  *
- * Method: Excel's reference syntax (Microsoft, "Using structured references
- * with Excel tables": the characters [ ] # and ' inside a column name are
- * escaped with a leading apostrophe). Cell references are absolute ($B$2) so
- * that a copied block keeps pointing at the same data.
+ * Method: Excel's reference syntax. A column name goes inside a second pair
+ * of brackets (Table1[[Temp. °C]]) whenever it holds anything but letters,
+ * digits and underscores, and the characters [ ] # and ' are escaped with a
+ * leading apostrophe (Microsoft, "Using structured references with Excel
+ * tables", the rules on special characters and escape characters). The page
+ * lists the characters that need the inner brackets (space only excepted);
+ * the doubled form is valid for every name, so it is used for any character
+ * outside the plain ones rather than trusting that list to be complete (an @,
+ * for one, would otherwise read as "this row"). Cell references are absolute
+ * ($B$2) so that a copied block keeps pointing at the same data.
  *
  * Cost: O(length of the names).
  */
 import { columnLetters, LAST_ROW, quoteSheet, type CellRect } from "./a1";
 
+/** A column name that needs no inner brackets: letters, digits and underscores of any script only. */
+const PLAIN_NAME = /^[\p{L}\p{N}_]+$/u;
+
 /**
- * A structured reference to a table column.
+ * A structured reference to a table column, in the form Excel accepts for any header.
  *
  * @example
- * structuredReference("Table1", "Thickness (µm)"); // "Table1[Thickness (µm)]"
- * structuredReference("Table1", "Lot #3");          // "Table1[Lot '#3]"
+ * structuredReference("Table1", "Thickness");      // "Table1[Thickness]"
+ * structuredReference("Table1", "Temp. °C");       // "Table1[[Temp. °C]]"
+ * structuredReference("Table1", "Lot #3");         // "Table1[[Lot '#3]]"
  */
 export function structuredReference(table: string, column: string): string {
-  return `${table}[${column.replace(/['[\]#]/g, (ch) => `'${ch}`)}]`;
+  const escaped = column.replace(/['[\]#]/g, (ch) => `'${ch}`);
+  return PLAIN_NAME.test(column) ? `${table}[${escaped}]` : `${table}[[${escaped}]]`;
 }
 
 /**

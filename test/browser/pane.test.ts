@@ -123,7 +123,7 @@ describe.skipIf(!run)("the pane on the demo page", () => {
     const pLine = await rowOfLabel(page, 4, "p-value");
     expect(await cellText(page, pLine, 5)).toBe(expected);
     const formula = await page.evaluate(([sheet, row]) => window.evensplitDemo?.workbook.entry(sheet as string, row as number, 5), [SHEET, pLine]);
-    expect(formula).toBe('=EVENSPLIT.PVALUE(Table1[Thickness (µm)],50,"greater","drop","exact")');
+    expect(formula).toBe('=EVENSPLIT.PVALUE(Table1[[Thickness (µm)]],50,"greater","drop","exact")');
     await snap(page, "05-one-sample-written", true);
 
     // A new panel typed below the table: the table grows and the block recalculates.

@@ -51,6 +51,14 @@ describe("tokenize", () => {
     // Structured references escape [ ] # and ' with an apostrophe (Microsoft, "Using structured references with Excel tables").
     expect(tokenize("T[Lot '#3]")).toEqual([{ type: "table", table: "T", column: "Lot #3" }]);
     expect(tokenize("T[[Value]]")).toEqual([{ type: "table", table: "T", column: "Value" }]);
+    // One space is allowed inside the outer brackets, for readability (same page).
+    expect(tokenize("T[ [Temp. °C] ]")).toEqual([{ type: "table", table: "T", column: "Temp. °C" }]);
+  });
+
+  it("refuses structured references Excel refuses: special characters in single brackets, bad escapes, unclosed brackets", () => {
+    for (const text of ["T[Temp. °C]", "T[pH-value]", "T[A/B]", "T[Weight, g]", "T[Lot #3]", "T[a[1]", "T[[it's]]", "T[[x]", "T[[A]:[B]]", "T[]"]) {
+      expect(() => tokenize(text), text).toThrow(FormulaSyntaxError);
+    }
   });
 
   it("tells a function name from a cell that looks like it (LOG10( is a call)", () => {
@@ -116,6 +124,8 @@ describe("evaluate: built-in functions", () => {
 
   it("unknown names are #NAME?", () => {
     expect((calc("NOSUCH(1)") as { code: string }).code).toBe("#NAME?");
+    // Excel takes a formula with a name it does not know and shows #NAME?; only malformed text is refused.
+    expect((calc("nosuch+1") as { code: string }).code).toBe("#NAME?");
     expect(() => parseFormula("A1+")).toThrow(FormulaSyntaxError);
   });
 });

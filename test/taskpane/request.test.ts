@@ -66,8 +66,8 @@ describe("notation", () => {
 
 describe("references", () => {
   it("writes structured, absolute and open-ended references", () => {
-    expect(structuredReference("Table1", "Thickness (µm)")).toBe("Table1[Thickness (µm)]");
-    expect(structuredReference("T", "a[1]'#")).toBe("T[a'[1']'''#]");
+    expect(structuredReference("Table1", "Thickness (µm)")).toBe("Table1[[Thickness (µm)]]");
+    expect(structuredReference("T", "a[1]'#")).toBe("T[[a'[1']'''#]]");
     // The demo sheet's reader undoes the escapes: the column name survives the round trip.
     expect(tokenize(structuredReference("T", "a[1]'#"))).toEqual([{ type: "table", table: "T", column: "a[1]'#" }]);
     expect(absoluteReference({ top: 1, left: 1, bottom: 24, right: 1 }, "Paint line", "Paint line")).toBe("$B$2:$B$25");

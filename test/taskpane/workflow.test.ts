@@ -172,7 +172,7 @@ describe("writing the block", () => {
     const outcome = await writeResult(host, plan([{ range, useHeader: true }], { reference: "table", chart: true }));
     if (outcome.kind !== "written") throw new Error(outcome.kind);
     expect(outcome.created.map((t) => t.name)).toEqual(["Table1"]);
-    expect(outcome.refs.data).toBe("Table1[Thickness (µm)]");
+    expect(outcome.refs.data).toBe("Table1[[Thickness (µm)]]");
     expect(outcome.chartAt).toBe("H1");
     expect(workbook.charts).toHaveLength(1);
     const n = outcome.rows.findIndex((r) => r.key === "numbers");

@@ -289,6 +289,8 @@ export function evaluate(expression: Expression, context: EvaluationContext): Va
       return expression.value;
     case "missing":
       return null;
+    case "unknownName":
+      return errorValue("#NAME?", `The name "${expression.text}" is not known.`);
     case "ref":
       return reference(expression.text, context);
     case "table":

@@ -6,7 +6,9 @@
  * addition (+ -), multiplication (* /), power (^), prefix sign (- +), postfix
  * percent (%) — as in Excel's documented "operator precedence" table (common
  * practice). An empty argument ("f(a,,b)") is kept as a missing argument,
- * which the sheet passes to custom functions as null.
+ * which the sheet passes to custom functions as null. A FormulaSyntaxError
+ * means Excel would refuse the formula text itself; a name it does not know
+ * is kept and shows #NAME? when evaluated.
  *
  * Cost: O(number of tokens).
  */
@@ -19,6 +21,7 @@ export type Expression =
   | { readonly type: "ref"; readonly text: string }
   | { readonly type: "table"; readonly table: string; readonly column: string }
   | { readonly type: "missing" }
+  | { readonly type: "unknownName"; readonly text: string }
   | { readonly type: "call"; readonly name: string; readonly args: readonly Expression[] }
   | { readonly type: "unary"; readonly op: "-" | "+"; readonly operand: Expression }
   | { readonly type: "percent"; readonly operand: Expression }
@@ -91,7 +94,8 @@ class Parser {
         }
         const upper = token.text.toUpperCase();
         if (upper === "TRUE" || upper === "FALSE") return { type: "boolean", value: upper === "TRUE" };
-        throw new FormulaSyntaxError(`The name "${token.text}" is not known.`);
+        // Excel takes a formula with an undefined name and shows #NAME? in the cell; it is not a syntax error.
+        return { type: "unknownName", text: token.text };
       }
       case "paren": {
         if (token.text === ")") throw new FormulaSyntaxError("A closing bracket has no opening one.");

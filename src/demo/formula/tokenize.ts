@@ -43,24 +43,71 @@ const NUMBER = /^(?:[0-9]+\.?[0-9]*|\.[0-9]+)(?:[eE][+-]?[0-9]+)?/;
 const NAME = /^[A-Za-z_\\][A-Za-z0-9_.]*/;
 const OPERATORS = ["<=", ">=", "<>", "=", "<", ">", "+", "-", "*", "/", "^", "&", "%"];
 
-/** Reads a bracketed column specifier, unescaping the apostrophe escapes; returns the column and the end index. */
+/**
+ * Characters that a column name may hold only inside the inner brackets of
+ * Table1[[...]], as listed by Microsoft, "Using structured references with
+ * Excel tables" (special characters): tab, line feed, carriage return, comma,
+ * colon, period, brackets, pound sign, quotation marks, braces, dollar sign,
+ * caret, ampersand, asterisk, plus, equal and minus signs, greater-than and
+ * less-than, division sign. A space alone is the page's one exception. The @
+ * is added here because in single brackets it means "this row", which the
+ * demo sheet does not read: refusing it is stricter than Excel, never laxer.
+ */
+const NEEDS_INNER_BRACKETS = new Set(["\t", "\n", "\r", ",", ":", ".", "[", "]", "#", "'", '"', "{", "}", "$", "^", "&", "*", "+", "=", "-", ">", "<", "/", "@"]);
+/** Characters that take the apostrophe escape inside a column name (same page, escape characters). */
+const ESCAPABLE = new Set(["[", "]", "#", "'"]);
+
+/**
+ * Reads a column name up to its closing ], undoing the apostrophe escapes.
+ * Spaces at either end belong to the bracket, not to the name (Microsoft,
+ * [MS-OE376] 3.2.3.1.1 "Structure References": a simple column name starts
+ * and ends with a character other than a space).
+ */
+function readColumnName(text: string, start: number, inner: boolean): { name: string; end: number } {
+  let name = "";
+  let i = start;
+  for (;;) {
+    if (i >= text.length) throw new FormulaSyntaxError("A table column reference is not closed with ].");
+    const ch = text[i];
+    if (ch === "]") break;
+    if (ch === "'") {
+      const next = text[i + 1];
+      if (next === undefined || !ESCAPABLE.has(next)) throw new FormulaSyntaxError("In a column name an apostrophe must be followed by [, ], # or ' (the escape).");
+      name += next;
+      i += 2;
+      continue;
+    }
+    if (ch === "[") throw new FormulaSyntaxError("A [ inside a column name needs the escape '[.");
+    if (ch === "#") throw new FormulaSyntaxError("A # inside a column name needs the escape '#; the demo sheet reads no items such as [#All].");
+    if (!inner && NEEDS_INNER_BRACKETS.has(ch)) {
+      throw new FormulaSyntaxError(`The column name holds "${ch}", so Excel needs it in a second pair of brackets, as in Table1[[Temp. °C]].`);
+    }
+    name += ch;
+    i++;
+  }
+  const trimmed = name.replace(/^ +| +$/g, "");
+  if (trimmed === "") throw new FormulaSyntaxError("A table column reference names no column.");
+  return { name: trimmed, end: i };
+}
+
+/**
+ * Reads the bracketed part after a table name: Table1[Name] or
+ * Table1[[Name]], one optional space inside the outer brackets (Microsoft,
+ * "Using structured references with Excel tables": spaces for readability).
+ * Column ranges and lists ([[A]:[B]], [[#Headers],[A]]) are not read.
+ */
 function readColumn(text: string, open: number): { column: string; end: number } {
   let i = open + 1;
-  const doubled = text[i] === "[";
-  if (doubled) i++;
-  let column = "";
-  while (i < text.length && text[i] !== "]") {
-    if (text[i] === "'" && i + 1 < text.length) i++;
-    column += text[i];
+  if (text[i] === " ") i++;
+  const inner = text[i] === "[";
+  const read = readColumnName(text, inner ? i + 1 : i, inner);
+  i = read.end + 1;
+  if (inner) {
+    if (text[i] === " ") i++;
+    if (text[i] !== "]") throw new FormulaSyntaxError("The demo sheet reads one table column per reference, closed with ]].");
     i++;
   }
-  if (i >= text.length) throw new FormulaSyntaxError("A table column reference is not closed with ].");
-  i++;
-  if (doubled) {
-    if (text[i] !== "]") throw new FormulaSyntaxError("A table column reference is not closed with ]].");
-    i++;
-  }
-  return { column, end: i };
+  return { column: read.name, end: i };
 }
 
 function readString(text: string, start: number): { value: string; end: number } {
