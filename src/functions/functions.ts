@@ -18,13 +18,13 @@
  */
 import { blockValue, resultBlockRows, type BlockRequest } from "../report/resultBlock";
 import { adjustPValues } from "../stats/adjust";
-import { numbersFromCells, pairsFromCells } from "../stats/cells";
+import { numbersFromCells, pairsFromCells, signCountsFromCells } from "../stats/cells";
 import { differencesFrom, pairedDifferences } from "../stats/differences";
-import { hodgesLehmann } from "../stats/hodgesLehmann";
+import { hodgesLehmann, hodgesLehmannEstimate } from "../stats/hodgesLehmann";
 import { signTestPower, signTestSampleSize } from "../stats/power";
 import { quantileBounds } from "../stats/quantileBounds";
 import { quantileTest } from "../stats/quantileTest";
-import { countSigns } from "../stats/signCounts";
+import { countSigns, type SignCounts } from "../stats/signCounts";
 import { EXACT_LIMIT, signedRankTest, type SignedRankResult } from "../stats/signedRank";
 import { signTest } from "../stats/signTest";
 import { unavailable, type BoundMethod, type BoundSide, type Unavailable } from "../stats/types";
@@ -61,8 +61,13 @@ function shiftOf(shift: unknown): number {
   return numberArgument("shift", shift, 0);
 }
 
-function signTestOf(values: ArrayLike<number>, center: number, alternative: unknown, ties: unknown, method?: unknown) {
-  return signTest(countSigns(values, center), {
+/** Counts of the data below, at and above the centre, taken in the one pass that reads the cells. */
+function countsOf(data: unknown, center: number): SignCounts {
+  return signCountsFromCells(cellsArgument("data", data), center).counts;
+}
+
+function signTestOf(counts: SignCounts, alternative: unknown, ties: unknown, method?: unknown) {
+  return signTest(counts, {
     alternative: chooseWord(ALTERNATIVE, alternative),
     ties: chooseWord(TIES, ties),
     method: chooseWord(SIGN_METHOD, method),
@@ -101,10 +106,17 @@ function boundsRow(values: ArrayLike<number>, quantile: number, confidence: numb
   return [result.lower ?? "", result.upper ?? "", result.achievedConfidence];
 }
 
+/**
+ * Estimate, lower, upper, achieved confidence. Too few values for the bounds
+ * still give the estimate (it needs one value): only the bound cells say why
+ * they are empty, so what can be given is not lost with what cannot.
+ */
 function hodgesLehmannRow(values: ArrayLike<number>, confidence: number): RowCell[] | CellError {
   const result = hodgesLehmann(values, { confidence });
-  if (!result.available) return unavailableError(result);
-  return [result.estimate, result.lower, result.upper, result.achievedConfidence];
+  if (result.available) return [result.estimate, result.lower, result.upper, result.achievedConfidence];
+  if (values.length === 0) return unavailableError(result);
+  const missing = unavailableError(result);
+  return [hodgesLehmannEstimate(values), missing, missing, missing];
 }
 
 // ---------------------------------------------------------------------------
@@ -120,7 +132,7 @@ function hodgesLehmannRow(values: ArrayLike<number>, confidence: number): RowCel
 export function counts(data: unknown[][], hypothesized_median: unknown): unknown[][] {
   return oneRow(4, () => {
     const center = numberArgument("hypothesized_median", hypothesized_median);
-    const c = countSigns(numbersOf(data), center);
+    const c = countsOf(data, center);
     return [c.below, c.tied, c.above, c.below + c.above];
   });
 }
@@ -138,7 +150,7 @@ export function counts(data: unknown[][], hypothesized_median: unknown): unknown
 export function pvalue(data: unknown[][], hypothesized_median: unknown, alternative?: unknown, ties?: unknown, method?: unknown): number | CellError {
   return scalar(() => {
     const center = numberArgument("hypothesized_median", hypothesized_median);
-    const result = signTestOf(numbersOf(data), center, alternative, ties, method);
+    const result = signTestOf(countsOf(data, center), alternative, ties, method);
     return result.available ? result.pValue : unavailableError(result);
   });
 }
@@ -155,7 +167,7 @@ export function pvalue(data: unknown[][], hypothesized_median: unknown, alternat
 export function statistic(data: unknown[][], hypothesized_median: unknown, alternative?: unknown, ties?: unknown): number | CellError {
   return scalar(() => {
     const center = numberArgument("hypothesized_median", hypothesized_median);
-    const result = signTestOf(numbersOf(data), center, alternative, ties);
+    const result = signTestOf(countsOf(data, center), alternative, ties);
     return result.available ? result.statistic : unavailableError(result);
   });
 }
@@ -181,7 +193,7 @@ export function paired(
 ): number | CellError {
   return scalar(() => {
     const { differences } = differencesOf(first, second, shiftOf(shift));
-    const result = signTestOf(differences, 0, alternative, ties, method);
+    const result = signTestOf(countSigns(differences, 0), alternative, ties, method);
     return result.available ? result.pValue : unavailableError(result);
   });
 }
@@ -199,7 +211,7 @@ export function paired(
 export function pairedstatistic(first: unknown[][], second: unknown[][], shift?: unknown, alternative?: unknown, ties?: unknown): number | CellError {
   return scalar(() => {
     const { differences } = differencesOf(first, second, shiftOf(shift));
-    const result = signTestOf(differences, 0, alternative, ties);
+    const result = signTestOf(countSigns(differences, 0), alternative, ties);
     return result.available ? result.statistic : unavailableError(result);
   });
 }
