@@ -67,6 +67,8 @@ module.exports = (_env, argv) => {
           { from: "assets/*.png", to: "assets/[name][ext]" },
           // The pages link their style sheets as files (their content security policy allows no inline styles).
           { from: "src/taskpane/*.css", to: "[name][ext]", noErrorOnMissing: true },
+          // ES5 on purpose, copied untouched: it must run in webviews that cannot parse the bundles.
+          { from: "src/taskpane/legacy-check.js", to: "legacy-check.js" },
           { from: "src/demo/*.css", to: "[name][ext]", noErrorOnMissing: true },
         ],
       }),

@@ -15,23 +15,38 @@ function systemTheme(): "light" | "dark" {
   return window.matchMedia("(prefers-color-scheme: dark)").matches ? "dark" : "light";
 }
 
+/** What the page shows when it is not inside Excel. */
+function showOutsideExcel(app: HTMLElement): void {
+  applyTheme(document.documentElement, systemTheme());
+  replaceChildren(
+    app,
+    el(
+      "div",
+      { class: "es-pane" },
+      el("h1", undefined, "Evensplit"),
+      el("p", undefined, "This page is the side pane of the Evensplit add-in and runs inside Excel. To try it without Excel, open demo.html from the same server."),
+    ),
+  );
+}
+
+/**
+ * Office.js loads Excel's host script (and with it the `Excel` namespace)
+ * asynchronously, so `Excel` is only known to be there once `Office.onReady`
+ * has said the host is Excel; outside Office, onReady answers at once with no
+ * host (seen with the real office.js of @microsoft/office-js).
+ */
 function start(): void {
   const app = document.getElementById("app");
   if (!app) return;
-  if (typeof Office === "undefined" || typeof Excel === "undefined") {
-    applyTheme(document.documentElement, systemTheme());
-    replaceChildren(
-      app,
-      el(
-        "div",
-        { class: "es-pane" },
-        el("h1", undefined, "Evensplit"),
-        el("p", undefined, "This page is the side pane of the Evensplit add-in and runs inside Excel. To try it without Excel, open demo.html from the same server."),
-      ),
-    );
+  if (typeof Office === "undefined") {
+    showOutsideExcel(app);
     return;
   }
-  void Office.onReady(() => {
+  void Office.onReady((info) => {
+    if (info.host !== Office.HostType.Excel || typeof Excel === "undefined") {
+      showOutsideExcel(app);
+      return;
+    }
     applyTheme(document.documentElement, themeFor(Office.context.officeTheme) ?? systemTheme());
     mountPane(app, { host: createHost((batch) => Excel.run((context) => batch(context))), calculate: callFunction });
   });

@@ -7,7 +7,7 @@
  * Without /usr/bin/chromium the suite is skipped on a developer's machine and
  * fails in CI (CI=true), where .ci/run installs it.
  */
-import { existsSync, mkdirSync, mkdtempSync, rmSync } from "node:fs";
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync } from "node:fs";
 import { createServer, type Server } from "node:http";
 import type { AddressInfo } from "node:net";
 import { tmpdir } from "node:os";
@@ -124,4 +124,49 @@ export async function rowOfLabel(page: Page, column: number, label: string | Reg
     if (typeof label === "string" ? text === label : label.test(text)) return r;
   }
   throw new Error(`no row labelled ${String(label)}`);
+}
+
+/** Where the platform's real Office.js lives in the package @microsoft/office-js. */
+export const OFFICE_JS = join(PROJECT, "node_modules", "@microsoft", "office-js", "dist");
+const OFFICE_CDN = "https://appsforoffice.microsoft.com/lib/1/hosted/";
+
+/**
+ * Answers the pages' requests for Office.js at its CDN address with the
+ * package's own files, and any other https request (the frames Office.js
+ * opens) with an empty page, so nothing reaches the network. Returns the
+ * https addresses asked for.
+ */
+export async function serveOfficeJs(context: BrowserContext): Promise<string[]> {
+  const asked: string[] = [];
+  await context.route(/^https:\/\//, async (route) => {
+    const url = route.request().url();
+    asked.push(url);
+    if (!url.startsWith(OFFICE_CDN)) {
+      await route.fulfill({ status: 200, contentType: "text/html", body: "<!doctype html><title>stand-in frame</title>" });
+      return;
+    }
+    const file = join(OFFICE_JS, new URL(url).pathname.slice(new URL(OFFICE_CDN).pathname.length));
+    if (!file.startsWith(OFFICE_JS) || !existsSync(file)) {
+      await route.fulfill({ status: 404, body: "" });
+      return;
+    }
+    await route.fulfill({ status: 200, contentType: "text/javascript", body: readFileSync(file) });
+  });
+  return asked;
+}
+
+/** A content-security-policy violation as the page's securitypolicyviolation event reports it. */
+export interface Violation {
+  readonly directive: string;
+  readonly blocked: string;
+  readonly source: string;
+}
+
+/** Records every content-security-policy violation of the pages of a context in `window.cspViolations`. */
+export async function recordViolations(context: BrowserContext): Promise<void> {
+  await context.addInitScript(() => {
+    const found: Violation[] = [];
+    (window as unknown as { cspViolations: Violation[] }).cspViolations = found;
+    document.addEventListener("securitypolicyviolation", (e) => found.push({ directive: e.effectiveDirective, blocked: e.blockedURI, source: e.sourceFile }));
+  });
 }
