@@ -179,6 +179,10 @@ function checkRequest(request: BlockRequest): void {
 /** Rows describing the data: how many cells, how many numbers, what was set aside. */
 function countRows(request: BlockRequest, centerWords: string): BlockRow[] {
   const c = num(request.center);
+  // The sign test keeps some ties under "split" and "conservative": the used row then states the n its p-value used.
+  const ties = request.test === "sign" ? (request.ties ?? "drop") : "drop";
+  const tieArgs = ties === "drop" ? [] : [word(ties)];
+  const usedLabel = ties === "drop" ? "Used (n, ties left out)" : `Used by the test (n, ${TIE_WORDS[ties]})`;
   if (request.paired) {
     const counts = (column: number): CallValue => call("PAIREDCOUNTS", [data(), second(), c], column);
     return [
@@ -188,7 +192,7 @@ function countRows(request: BlockRequest, centerWords: string): BlockRow[] {
       row("below", `Differences below ${centerWords}`, counts(1), "integer"),
       row("tied", `Differences equal to ${centerWords} (ties)`, counts(2), "integer"),
       row("above", `Differences above ${centerWords}`, counts(3), "integer"),
-      row("used", "Used (n, ties left out)", counts(4), "integer"),
+      row("used", usedLabel, call("PAIREDCOUNTS", [data(), second(), c, ...tieArgs], 4), "integer"),
     ];
   }
   const counts = (column: number): CallValue => call("COUNTS", [data(), c], column);
@@ -199,7 +203,7 @@ function countRows(request: BlockRequest, centerWords: string): BlockRow[] {
     row("below", `Values below ${centerWords}`, counts(1), "integer"),
     row("tied", `Values equal to ${centerWords} (ties)`, counts(2), "integer"),
     row("above", `Values above ${centerWords}`, counts(3), "integer"),
-    row("used", "Used (n, ties left out)", counts(4), "integer"),
+    row("used", usedLabel, call("COUNTS", [data(), c, ...tieArgs], 4), "integer"),
   ];
 }
 
