@@ -11,8 +11,15 @@
  * Leiserson, R. L. Rivest, C. Stein (2009), "Introduction to Algorithms", 3rd ed.,
  * section 17.4 "Dynamic tables" (from memory).
  *
- * Cost: O(cells) time; O(numbers) extra memory (at most twice the numbers kept).
+ * A test that needs only the counts below, at and above a centre (the sign
+ * test, COUNTS) takes them in the same pass (`signCountsFromCells`) and keeps
+ * no numbers at all; the comparison is the shared tie rule of differences.ts.
+ *
+ * Cost: O(cells) time; O(numbers) extra memory (at most twice the numbers kept),
+ * none for the counts.
  */
+import { compareAsShown, tieWindow } from "./differences";
+import type { SignCounts } from "./signCounts";
 
 /** Cells that were not numbers, by kind. `other` holds error values, objects and non-finite numbers. */
 export interface SkippedCells {
@@ -28,6 +35,14 @@ export interface CellNumbers {
   /** Cells visited (numbers plus skipped). */
   cells: number;
   skipped: SkippedCells;
+}
+
+/** The sign counts of a range's finite numbers against a centre, and what was skipped. */
+export interface CellSignCounts {
+  readonly counts: SignCounts;
+  /** Cells visited (numbers plus skipped). */
+  readonly cells: number;
+  readonly skipped: SkippedCells;
 }
 
 /** Numbers taken pairwise from two ranges of the same shape: a pair is kept only when both cells are numbers. */
@@ -133,6 +148,56 @@ export function numbersFromCells(cells: readonly (readonly unknown[])[]): CellNu
 }
 
 /**
+ * Counts the finite numbers of a range below, at and above `center` as the sheet shows them (the tie rule
+ * of `compareAsShown`), in the one pass that reads the cells, and counts the cells that are not numbers.
+ * The same counts as `countSigns(numbersFromCells(cells).values, center)`, without keeping the numbers.
+ * Throws a RangeError when `center` is NaN.
+ *
+ * @example
+ * const r = signCountsFromCells([[0.1 + 0.2], [0.31], ["a"], [null], [0.29]], 0.3);
+ * // r.counts: { below: 1, tied: 1, above: 1 }; r.cells: 5; r.skipped: { blank: 1, text: 1, boolean: 0, other: 0 }
+ */
+export function signCountsFromCells(cells: readonly (readonly unknown[])[], center: number): CellSignCounts {
+  if (Number.isNaN(center)) throw new RangeError("signCountsFromCells: the centre is NaN");
+  const { low, high } = tieWindow(center);
+  let below = 0;
+  let above = 0;
+  let numbers = 0;
+  let visited = 0;
+  let nulls = 0;
+  const skipped: SkippedCells = { blank: 0, text: 0, boolean: 0, other: 0 };
+  const rows = cells.length;
+  for (let r = 0; r < rows; r++) {
+    const row = cells[r];
+    const width = row.length;
+    visited += width;
+    for (let c = 0; c < width; c++) {
+      const v = row[c];
+      if (v === null) {
+        nulls++;
+        continue;
+      }
+      if (typeof v === "number" && v - v === 0) {
+        numbers++;
+        // Branch-free counting: the side of a value is unpredictable in real data, a mispredicted branch
+        // costs more than the comparison. Only values inside the narrow tie window (rare) take a branch.
+        const isBelow = +(v < low);
+        const isAbove = +(v > high);
+        below += isBelow;
+        above += isAbove;
+        if ((isBelow | isAbove) === 0) {
+          const sign = compareAsShown(v, center);
+          if (sign < 0) below++;
+          else if (sign > 0) above++;
+        }
+      } else tallyNonNumber(skipped, v);
+    }
+  }
+  skipped.blank += nulls;
+  return { counts: { below, tied: numbers - below - above, above }, cells: visited, skipped };
+}
+
+/**
  * Pairs up two ranges of the same shape cell by cell, keeping the pairs where both cells are finite numbers.
  * Throws a RangeError when the shapes differ (the cell-function layer checks this first and says so to the user).
  *
@@ -196,6 +261,7 @@ export function pairsFromCells(first: readonly (readonly unknown[])[], second: r
 // Feedback is only recorded once a function has been called a few times, hence the repetitions.
 for (let i = 0; i < 20; i++) {
   numbersFromCells(Array.from({ length: 40 }, () => [0, null, undefined, "", "a", true, {}, NaN]));
+  signCountsFromCells(Array.from({ length: 40 }, () => [0, -1, 1, 1e-20, null, undefined, "", "a", true, {}, NaN]), 0);
   pairsFromCells(
     Array.from({ length: 40 }, () => [0, null, "a", true, {}]),
     Array.from({ length: 40 }, () => [0, 1, 2, 3, 4]),

@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import { numbersFromCells, pairsFromCells, type SkippedCells } from "../../src/stats/cells";
+import { numbersFromCells, pairsFromCells, signCountsFromCells, type SkippedCells } from "../../src/stats/cells";
+import { compareAsShown } from "../../src/stats/differences";
 
 /**
  * Reference: the definition applied cell by cell to the flattened matrix (blank = null, undefined or "";
@@ -63,6 +64,35 @@ describe("numbersFromCells", () => {
   it("accepts jagged rows and an empty range", () => {
     expect(Array.from(numbersFromCells([[1], [2, 3], []]).values)).toEqual([1, 2, 3]);
     expect(numbersFromCells([])).toEqual({ values: new Float64Array(0), cells: 0, skipped: { blank: 0, text: 0, boolean: 0, other: 0 } });
+  });
+});
+
+describe("signCountsFromCells", () => {
+  it("counts as the sheet shows the numbers, in the one pass over the cells (exact decimals, worked by hand)", () => {
+    const r = signCountsFromCells([[0.1 + 0.2, 0.7 - 0.4], [0.31, "0.3"], [null, true], [0.29, 0.32]], 0.3);
+    expect(r.counts).toEqual({ below: 1, tied: 2, above: 2 });
+    expect(r.cells).toBe(8);
+    expect(r.skipped).toEqual({ blank: 1, text: 1, boolean: 1, other: 0 });
+    expect(() => signCountsFromCells([[1]], NaN)).toThrow(RangeError);
+  });
+
+  it("matches the cell-by-cell definition with compareAsShown for every kind of cell (property)", () => {
+    const near = fc.oneof(fc.constantFrom(0, 0.3, 50, -2.5), fc.double({ noNaN: true, noDefaultInfinity: true, min: -100, max: 100 }));
+    fc.assert(
+      fc.property(matrix(fc.integer({ min: 0, max: 6 })), near, (cells, center) => {
+        const want = reference(cells);
+        const signs = want.values.map((v) => compareAsShown(v, center));
+        const got = signCountsFromCells(cells, center);
+        expect(got.counts).toEqual({
+          below: signs.filter((s) => s < 0).length,
+          tied: signs.filter((s) => s === 0).length,
+          above: signs.filter((s) => s > 0).length,
+        });
+        expect(got.cells).toBe(want.cells);
+        expect(got.skipped).toEqual(want.skipped);
+      }),
+      { numRuns: 300 },
+    );
   });
 });
 
