@@ -9,7 +9,9 @@
  * extend the selection, typing starts an entry in the contents bar, Enter
  * there commits and moves down, Escape cancels, F2 edits, Delete clears the
  * selection; Tab leaves the grid for the pane. Typing below a table
- * lengthens it, as in the spreadsheet.
+ * lengthens it, as in the spreadsheet. An entry Excel would not take (see
+ * limits.ts) is refused with the reason, and the contents bar keeps it for
+ * correcting, as Excel keeps a formula it cannot accept in edit mode.
  *
  * Cost: O(visible cells) per change.
  */
@@ -17,6 +19,7 @@ import { columnLetters, formatAddress, parseAddress, type CellRect } from "../ta
 import { el, replaceChildren, svg } from "../taskpane/dom";
 import { formatCell } from "../taskpane/numberFormat";
 import { isError } from "./formula/values";
+import { RefusedEntry } from "./limits";
 import type { ChartModel, Workbook } from "./workbook";
 
 const MIN_ROWS = 32;
@@ -94,9 +97,11 @@ export function mountGrid(container: HTMLElement, workbook: Workbook): void {
   const body = el("tbody");
   const grid = el("table", { class: "demo-grid", attrs: { role: "grid", tabindex: "0", "aria-label": `Sheet ${sheet}`, "aria-multiselectable": "true" } }, head, body);
   const charts = el("section", { class: "demo-charts", attrs: { "aria-label": "Charts in the sheet" } });
+  const refusal = el("p", { class: "demo-problem", attrs: { role: "alert" } });
   replaceChildren(
     container,
     el("div", { class: "demo-bar" }, nameBox, el("span", { class: "demo-fx", attrs: { "aria-hidden": "true" } }, "fx"), contents),
+    refusal,
     el("div", { class: "demo-grid-wrap" }, grid),
     el("p", { class: "demo-tab" }, el("span", undefined, sheet)),
     charts,
@@ -177,8 +182,19 @@ export function mountGrid(container: HTMLElement, workbook: Workbook): void {
     select();
   }
 
-  function commit(): void {
-    workbook.writeEntries(sheet, active.row, active.column, [[contents.value]], true);
+  /** Enters the contents bar into the active cell; false (with the reason shown) when the sheet refuses it. */
+  function commit(): boolean {
+    try {
+      workbook.writeEntries(sheet, active.row, active.column, [[contents.value]], true);
+    } catch (thrown) {
+      if (!(thrown instanceof RefusedEntry)) throw thrown;
+      refusal.textContent = thrown.message;
+      contents.setAttribute("aria-invalid", "true");
+      return false;
+    }
+    refusal.textContent = "";
+    contents.removeAttribute("aria-invalid");
+    return true;
   }
 
   grid.addEventListener("keydown", (event) => {
@@ -212,11 +228,13 @@ export function mountGrid(container: HTMLElement, workbook: Workbook): void {
   contents.addEventListener("keydown", (event) => {
     if (event.key === "Enter") {
       event.preventDefault();
+      if (!commit()) return;
       grid.focus();
-      commit();
       moveTo(active.row + 1, active.column, false);
     } else if (event.key === "Escape") {
       event.preventDefault();
+      refusal.textContent = "";
+      contents.removeAttribute("aria-invalid");
       contents.value = String(workbook.entry(sheet, active.row, active.column));
       grid.focus();
     }

@@ -21,7 +21,8 @@ import { LAST_ROW, rectContains, rectsOverlap, rectSize, type CellRect } from ".
 import { evaluate, type CustomFunction, type EvaluationContext } from "./formula/evaluate";
 import { parseFormula, type Expression } from "./formula/parse";
 import { FormulaSyntaxError } from "./formula/tokenize";
-import { errorValue, isError, isMatrix, isReference, type ErrorValue, type ReferenceValue, type Scalar, type Value } from "./formula/values";
+import { areaRefusal, lengthRefusal, RefusedEntry } from "./limits";
+import { errorValue, isMatrix, isReference, type ReferenceValue, type Scalar, type Value } from "./formula/values";
 
 export interface CellFormat {
   numberFormat: string;
@@ -35,7 +36,7 @@ interface Cell {
   constant: number | string | boolean | null;
   /** Formula text with its "=", when the cell holds a formula. */
   formula: string | null;
-  parsed: Expression | ErrorValue | null;
+  parsed: Expression | null;
   format: CellFormat;
 }
 
@@ -93,11 +94,17 @@ function readInput(input: unknown): { constant: number | string | boolean | null
   return { constant: text, formula: null };
 }
 
-function parseOrError(formula: string): Expression | ErrorValue {
+/** An entry as the cell will hold it, or a RefusedEntry when Excel would not take it. */
+function checkedEntry(input: unknown): { constant: number | string | boolean | null; formula: string | null; parsed: Expression | null } {
+  const { constant, formula } = readInput(input);
+  const text = formula ?? (typeof constant === "string" ? constant : "");
+  const tooLong = lengthRefusal(text, formula !== null);
+  if (tooLong) throw new RefusedEntry(tooLong);
+  if (formula === null) return { constant, formula, parsed: null };
   try {
-    return parseFormula(formula.slice(1));
+    return { constant, formula, parsed: parseFormula(formula.slice(1)) };
   } catch (thrown) {
-    if (thrown instanceof FormulaSyntaxError) return errorValue("#NAME?", thrown.message);
+    if (thrown instanceof FormulaSyntaxError) throw new RefusedEntry(`Excel would not take the formula ${formula.length > 60 ? `${formula.slice(0, 60)}…` : formula}: ${thrown.message}`);
     throw thrown;
   }
 }
@@ -181,14 +188,18 @@ export class Workbook {
    */
   writeEntries(sheetName: string, top: number, left: number, entries: readonly (readonly unknown[])[], typed = false): void {
     const sheet = this.sheet(sheetName);
-    entries.forEach((row, r) =>
-      row.forEach((entry, c) => {
+    const width = Math.max(0, ...entries.map((row) => row.length));
+    const outside = entries.length === 0 || width === 0 ? null : areaRefusal({ top, left, bottom: top + entries.length - 1, right: left + width - 1 });
+    if (outside) throw new RefusedEntry(outside);
+    // Every entry is checked before any is written: a refused write changes nothing.
+    const checked = entries.map((row) => row.map(checkedEntry));
+    checked.forEach((row, r) =>
+      row.forEach(({ constant, formula, parsed }, c) => {
         const k = key(top + r, left + c);
-        const { constant, formula } = readInput(entry);
         const existing = sheet.cells.get(k);
         if (constant === null && formula === null && existing === undefined) return;
         const format = existing?.format ?? { ...DEFAULT_FORMAT };
-        sheet.cells.set(k, { constant, formula, parsed: formula === null ? null : parseOrError(formula), format });
+        sheet.cells.set(k, { constant, formula, parsed, format });
       }),
     );
     if (typed) this.growTables(sheet.name, top, left, entries);
@@ -425,16 +436,11 @@ export class Workbook {
       const id = `${sheet}!${k}`;
       if (inProgress.has(id)) return errorValue("#REF!", "This formula depends on itself (a circular reference).");
       inProgress.add(id);
-      const parsed = cell.parsed as Expression | ErrorValue;
-      let value: Value;
-      if (isError(parsed)) value = parsed;
-      else {
-        const context = this.context(sheet, readCell);
-        value = evaluate(parsed, context);
-        if (isReference(value)) {
-          const cells = context.read(value);
-          value = cells.length === 1 && cells[0].length === 1 ? (cells[0][0] ?? 0) : { kind: "matrix", rows: cells.map((r) => r.map((x) => x ?? 0)) };
-        }
+      const context = this.context(sheet, readCell);
+      let value = evaluate(cell.parsed as Expression, context);
+      if (isReference(value)) {
+        const cells = context.read(value);
+        value = cells.length === 1 && cells[0].length === 1 ? (cells[0][0] ?? 0) : { kind: "matrix", rows: cells.map((r) => r.map((x) => x ?? 0)) };
       }
       inProgress.delete(id);
       results(sheet).set(k, value);

@@ -70,6 +70,12 @@ describe("tokenize", () => {
     expect(tokenize('"say ""hi"""')).toEqual([{ type: "string", value: 'say "hi"' }]);
     expect(() => tokenize('"open')).toThrow(FormulaSyntaxError);
   });
+
+  it("refuses a text constant longer than 255 characters inside a formula, as Excel does ([MS-XLS] PtgStr)", () => {
+    expect(tokenize(`"${"a".repeat(255)}"`)).toEqual([{ type: "string", value: "a".repeat(255) }]);
+    expect(tokenize(`"${'"'.repeat(2 * 255)}"`)).toEqual([{ type: "string", value: '"'.repeat(255) }]);
+    expect(() => tokenize(`"${"a".repeat(256)}"`)).toThrow(FormulaSyntaxError);
+  });
 });
 
 describe("evaluate: operators", () => {
@@ -152,6 +158,18 @@ describe("evaluate: custom functions", () => {
     const failing: CustomFunction = { fn: () => ({ code: "#N/A", message: "No numbers in the range." }), shapes: ["matrix"] };
     expect(calc("EVENSPLIT.FAIL(A1:A4)", { FAIL: failing })).toEqual(errorValue("#N/A", "No numbers in the range."));
     expect((calc("EVENSPLIT.MISSING(A1)") as { code: string }).code).toBe("#NAME?");
+  });
+
+  it("shows a null inside a returned array as 0, not as a blank (office-js issue 1503, by design)", () => {
+    const withNull: CustomFunction = { fn: () => [[1, null, ""]], shapes: [] };
+    expect(calc("EVENSPLIT.HOLES()", { HOLES: withNull })).toEqual({ kind: "matrix", rows: [[1, 0, ""]] });
+  });
+
+  it("does not call the function when a range argument holds an error cell (Microsoft, \"Handle and return errors from your custom function\")", () => {
+    seen.length = 0;
+    const withError: EvaluationContext = { ...context({ ECHO: echo }), read: () => [[1], [errorValue("#N/A", "no value")], [3]] };
+    expect(evaluate(parseFormula("EVENSPLIT.ECHO(A1:A3,1)"), withError)).toEqual(errorValue("#N/A", "no value"));
+    expect(seen).toEqual([]);
   });
 
   it("does not call the function when an argument is an error, as the spreadsheet passes the error on", () => {

@@ -219,12 +219,19 @@ function builtIn(name: string, args: Value[], context: EvaluationContext): Value
   }
 }
 
-/** A custom function's answer as a sheet value: numbers, text, logicals, one-row or larger matrices, error objects. */
+/**
+ * A custom function's answer as a sheet value: numbers, text, logicals,
+ * one-row or larger matrices, error objects. A null inside a returned array
+ * shows as 0, not as a blank: the behaviour Microsoft confirmed as by design
+ * in the office-js tracker (OfficeDev/office-js issue 1503, "Excel custom
+ * function: null is converted to 0 when returning an array"), so a function
+ * that means "empty" must answer "".
+ */
 function fromCustom(result: unknown): Value {
   if (typeof result === "number") return finite(result);
   if (typeof result === "string" || typeof result === "boolean") return result;
   if (Array.isArray(result)) {
-    const rows = result.map((row: unknown) => (Array.isArray(row) ? row : [row]).map((cell: unknown) => fromCustom(cell === null ? "" : cell)));
+    const rows = result.map((row: unknown) => (Array.isArray(row) ? row : [row]).map((cell: unknown) => fromCustom(cell === null ? 0 : cell)));
     if (rows.some((row) => row.some((cell) => typeof cell === "object" && cell !== null && !isError(cell)))) {
       return errorValue("#VALUE!", "The function answered with nested lists.");
     }
@@ -237,6 +244,14 @@ function fromCustom(result: unknown): Value {
   return errorValue("#VALUE!", "The function gave no usable answer.");
 }
 
+/**
+ * The value a custom function receives for one argument, or the error that
+ * stops the call: Excel does not run a custom function whose argument (a
+ * range included) holds an error unless its metadata sets
+ * allowErrorForDataTypeAny (Microsoft, "Handle and return errors from your
+ * custom function", errors as custom function inputs). Evensplit's
+ * functions.json does not set it, so the first error met is the cell's answer.
+ */
 function customArgument(value: Value, shape: ArgumentShape, context: EvaluationContext): unknown {
   if (shape === "matrix") {
     const cells = cellsOf(value, context);

@@ -110,6 +110,14 @@ function readColumn(text: string, open: number): { column: string; end: number }
   return { column: read.name, end: i };
 }
 
+/**
+ * Characters of a text constant inside a formula. Excel refuses longer ones
+ * ("Text values in formulas are limited to 255 characters", its message when
+ * one is entered, from memory); the file format stores a formula's string
+ * constant with a count of at most 255 (Microsoft, [MS-XLS] 2.5.198.91 PtgStr).
+ */
+const MAX_TEXT_CONSTANT = 255;
+
 function readString(text: string, start: number): { value: string; end: number } {
   let i = start + 1;
   let value = "";
@@ -120,6 +128,9 @@ function readString(text: string, start: number): { value: string; end: number }
         value += '"';
         i += 2;
         continue;
+      }
+      if (value.length > MAX_TEXT_CONSTANT) {
+        throw new FormulaSyntaxError(`A text in quotes holds at most 255 characters in a formula; this one has ${value.length}.`);
       }
       return { value, end: i + 1 };
     }
