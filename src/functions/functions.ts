@@ -20,7 +20,7 @@ import { blockValue, resultBlockRows, type BlockRequest } from "../report/result
 import { adjustPValues } from "../stats/adjust";
 import { numbersFromCells, pairsFromCells, signCountsFromCells } from "../stats/cells";
 import { differencesFrom, pairedDifferences } from "../stats/differences";
-import { hodgesLehmann } from "../stats/hodgesLehmann";
+import { hodgesLehmann, hodgesLehmannEstimate } from "../stats/hodgesLehmann";
 import { signTestPower, signTestSampleSize } from "../stats/power";
 import { quantileBounds } from "../stats/quantileBounds";
 import { quantileTest } from "../stats/quantileTest";
@@ -55,6 +55,12 @@ function differencesOf(first: unknown, second: unknown, shift: number): { differ
   const ranges = pairedCellsArgument(first, second);
   const pairs = pairsFromCells(ranges.first, ranges.second);
   return { differences: pairedDifferences(pairs.first, pairs.second, shift), pairsSkipped: pairs.pairsSkipped };
+}
+
+/** How many values the sign test uses under a tie rule: below + above, plus the ties it keeps. */
+function usedUnder(c: SignCounts, ties: unknown): number {
+  const result = signTest(c, { ties: chooseWord(TIES, ties) });
+  return result.available ? result.used : 0;
 }
 
 function shiftOf(shift: unknown): number {
@@ -106,27 +112,35 @@ function boundsRow(values: ArrayLike<number>, quantile: number, confidence: numb
   return [result.lower ?? "", result.upper ?? "", result.achievedConfidence];
 }
 
+/**
+ * Estimate, lower, upper, achieved confidence. Too few values for the bounds
+ * still give the estimate (it needs one value): only the bound cells say why
+ * they are empty, so what can be given is not lost with what cannot.
+ */
 function hodgesLehmannRow(values: ArrayLike<number>, confidence: number): RowCell[] | CellError {
   const result = hodgesLehmann(values, { confidence });
-  if (!result.available) return unavailableError(result);
-  return [result.estimate, result.lower, result.upper, result.achievedConfidence];
+  if (result.available) return [result.estimate, result.lower, result.upper, result.achievedConfidence];
+  if (values.length === 0) return unavailableError(result);
+  const missing = unavailableError(result);
+  return [hodgesLehmannEstimate(values), missing, missing, missing];
 }
 
 // ---------------------------------------------------------------------------
 // Sign test
 
 /**
- * Counts the numbers below, equal to and above a hypothesised median. Returns one row: below, tied, above, used (below + above, the values a sign test uses when ties are left out). Blank cells, text and logical values are skipped.
+ * Counts the numbers below, equal to and above a hypothesised median. Returns one row: below, tied, above, used (the values the sign test uses: below + above, or with ties given, the count after that tie rule). Blank cells, text and logical values are skipped.
  * @customfunction COUNTS
  * @param data Range with the measurements, such as A2:A40 or Table1[Thickness].
  * @param hypothesized_median The median under test, such as 50.
+ * @param [ties] The tie rule for the last column: "drop" (default: ties left out), "split" or "conservative" (ties kept).
  * @returns One row: below, tied, above, used.
  */
-export function counts(data: unknown[][], hypothesized_median: unknown): unknown[][] {
+export function counts(data: unknown[][], hypothesized_median: unknown, ties?: unknown): unknown[][] {
   return oneRow(4, () => {
     const center = numberArgument("hypothesized_median", hypothesized_median);
     const c = countsOf(data, center);
-    return [c.below, c.tied, c.above, c.below + c.above];
+    return [c.below, c.tied, c.above, usedUnder(c, ties)];
   });
 }
 
@@ -210,18 +224,19 @@ export function pairedstatistic(first: unknown[][], second: unknown[][], shift?:
 }
 
 /**
- * Counts the paired differences second − first − shift below, equal to and above zero. Returns one row: below, tied, above, used, pairs skipped.
+ * Counts the paired differences second − first − shift below, equal to and above zero. Returns one row: below, tied, above, used (as COUNTS), pairs skipped.
  * @customfunction PAIREDCOUNTS
  * @param first Range with the first measurement of each pair.
  * @param second Range with the second measurement, same shape as first.
  * @param [shift] The median difference under test; default 0.
+ * @param [ties] The tie rule for the used column: "drop" (default), "split" or "conservative".
  * @returns One row: below, tied, above, used, pairs skipped.
  */
-export function pairedcounts(first: unknown[][], second: unknown[][], shift?: unknown): unknown[][] {
+export function pairedcounts(first: unknown[][], second: unknown[][], shift?: unknown, ties?: unknown): unknown[][] {
   return oneRow(5, () => {
     const { differences, pairsSkipped } = differencesOf(first, second, shiftOf(shift));
     const c = countSigns(differences, 0);
-    return [c.below, c.tied, c.above, c.below + c.above, pairsSkipped];
+    return [c.below, c.tied, c.above, usedUnder(c, ties), pairsSkipped];
   });
 }
 
