@@ -166,7 +166,9 @@ function lowerRankFor(n: number, quantile: number, allowance: number): number | 
 function upperRankFor(n: number, quantile: number, allowance: number): number | null {
   const guess = normalGuess(n, quantile, -normalQuantile(allowance)) + 1;
   const k = lastHolding((j) => !withinAllowance(binomialUpperTail(j, n, quantile), allowance), 0, n, guess);
-  return k + 1 > n ? null : k + 1;
+  // At a confidence near 0 the slack of withinAllowance admits even P(B >= 0) = 1, which would make the rank 0;
+  // X(1) is then the answer (its tail is no larger), and there is no X(0) to select.
+  return k + 1 > n ? null : Math.max(1, k + 1);
 }
 
 /**

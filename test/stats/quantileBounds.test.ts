@@ -443,3 +443,12 @@ describe("exact helper", () => {
     expect(ranks(10, 0.5, 0.95, "two-sided").achievedConfidence).toBe(0.978515625);
   });
 });
+
+describe("confidence near 0", () => {
+  it("gives X(1) as the upper bound, never a rank of 0", () => {
+    // Exact arithmetic: P(B >= 1) = 1 - (1/2)^3 = 0.875 <= 1 - 1e-11 < P(B >= 0) = 1, so u = 1 and the coverage is 1 - 0.875.
+    const r = quantileBounds([3, 1, 2], { confidence: 1e-11, side: "upper" }) as QuantileBoundsResult;
+    expect([r.upperRank, r.upper, r.achievedConfidence]).toEqual([1, 1, 0.125]);
+    expect((boundRanks(3, 0.5, 1e-11, "upper") as { upperRank: number }).upperRank).toBe(1);
+  });
+});
