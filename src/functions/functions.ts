@@ -63,6 +63,22 @@ function usedUnder(c: SignCounts, ties: unknown): number {
   return result.available ? result.used : 0;
 }
 
+/**
+ * Differences beyond the largest double (about ±1.8E+308; the sheet holds values up to ±9.99999999999999E+307)
+ * keep their sign but lose their size: enough for a sign test, not for ranks, averages or bounds.
+ */
+function oversizedDifference(differences: ArrayLike<number>): Unavailable | null {
+  for (let i = 0; i < differences.length; i++) {
+    if (!Number.isFinite(differences[i])) {
+      return unavailable(
+        "unreachable",
+        "A difference is too large to hold as a number (values near ±1E+308 on opposite sides): ranks, averages and bounds need its size. Check the data, or rescale it (other units).",
+      );
+    }
+  }
+  return null;
+}
+
 function shiftOf(shift: unknown): number {
   return numberArgument("shift", shift, 0);
 }
@@ -88,6 +104,8 @@ function signTestOf(counts: SignCounts, alternative: unknown, ties: unknown, met
  */
 function signedRankOf(differences: ArrayLike<number>, alternative: unknown, method: unknown, zeros: unknown): SignedRankResult | Unavailable {
   const requested = chooseWord(SIGNED_RANK_METHOD, method);
+  const oversized = oversizedDifference(differences);
+  if (oversized !== null) return oversized;
   const result = signedRankTest(differences, {
     alternative: chooseWord(ALTERNATIVE, alternative),
     method: requested,
@@ -107,6 +125,8 @@ function boundsRow(values: ArrayLike<number>, quantile: number, confidence: numb
   if (method === "interpolated" && side !== "two-sided" && !(confidence > 0.5)) {
     throw new BadArgument(`a one-sided interpolated bound needs confidence above 0.5; got ${confidence}.`);
   }
+  const oversized = oversizedDifference(values);
+  if (oversized !== null) return unavailableError(oversized);
   const result = quantileBounds(values, { quantile, confidence, side, method });
   if (!result.available) return unavailableError(result);
   return [result.lower ?? "", result.upper ?? "", result.achievedConfidence];
@@ -118,6 +138,8 @@ function boundsRow(values: ArrayLike<number>, quantile: number, confidence: numb
  * they are empty, so what can be given is not lost with what cannot.
  */
 function hodgesLehmannRow(values: ArrayLike<number>, confidence: number): RowCell[] | CellError {
+  const oversized = oversizedDifference(values);
+  if (oversized !== null) return unavailableError(oversized);
   const result = hodgesLehmann(values, { confidence });
   if (result.available) return [result.estimate, result.lower, result.upper, result.achievedConfidence];
   if (values.length === 0) return unavailableError(result);
