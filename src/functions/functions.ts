@@ -489,11 +489,29 @@ export function samplesize(p_above: unknown, power?: unknown, alpha?: unknown, a
   });
 }
 
-/** A p-value cell for ADJUST: NaN for a cell that is not a number (left out), or a refusal for a number outside 0..1. */
+/** How a cell that is neither blank nor a number is named in a message. */
+function cellDescription(cell: unknown): string {
+  if (typeof cell === "string") return `the text "${cell}"`;
+  if (typeof cell === "boolean") return `the logical value ${cell ? "TRUE" : "FALSE"}`;
+  if (typeof cell === "object" && cell !== null && typeof (cell as { code?: unknown }).code === "string") return `the error ${(cell as { code: string }).code}`;
+  return "a value that is not a number";
+}
+
+/**
+ * A p-value cell for ADJUST: NaN for a blank cell (not a test; left out), the number for a p-value, and a
+ * refusal for anything else. Leaving out a text, logical or error cell would adjust as if fewer tests had
+ * been run, which makes every other adjusted p-value smaller than it should be.
+ */
 function pValueCell(cell: unknown, row: number, column: number): number {
-  if (typeof cell !== "number") return NaN;
+  if (cell === null || cell === undefined || cell === "") return NaN;
+  const where = `the cell in row ${row + 1}, column ${column + 1} of the range`;
+  if (typeof cell !== "number") {
+    throw new BadArgument(
+      `The range pvalues must hold p-values and blank cells only; ${where} holds ${cellDescription(cell)}. Type the p-value as a number, or clear the cell if it is not a test: leaving it out would adjust for fewer tests than were run.`,
+    );
+  }
   if (cell >= 0 && cell <= 1) return cell;
-  throw new BadArgument(`pvalues must lie between 0 and 1; the cell in row ${row + 1}, column ${column + 1} of the range holds ${cell}.`);
+  throw new BadArgument(`The range pvalues must hold numbers from 0 to 1; ${where} holds ${cell}.`);
 }
 
 /** An adjusted p-value for its cell: empty where the input was not a number; anything else is a fault of ours. */
@@ -504,7 +522,7 @@ function adjustedCell(adjusted: number, input: number): number | "" {
 }
 
 /**
- * Adjusts several p-values for multiple testing. Returns a range of the same shape; cells that are not numbers stay empty and do not count.
+ * Adjusts several p-values for multiple testing. Returns a range of the same shape; blank cells stay blank and do not count, and any other cell that is not a p-value is refused.
  * @customfunction ADJUST
  * @param pvalues Range with the p-values.
  * @param [method] "holm" (default), "bonferroni", "hochberg", "bh" (Benjamini–Hochberg) or "by" (Benjamini–Yekutieli).

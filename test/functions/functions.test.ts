@@ -161,9 +161,9 @@ describe("planning functions", () => {
 });
 
 describe("ADJUST", () => {
-  it("adjusts by hand-checked rules, keeps the shape, leaves non-numbers empty", () => {
+  it("adjusts by hand-checked rules, keeps the shape, leaves blank cells blank", () => {
     // Holm: sorted 0.01, 0.03, 0.04 -> 3×0.01, max(0.03, 2×0.03), max(0.06, 1×0.04).
-    expect(adjust([[0.01, null], [0.04, "x"], [0.03, true]], "holm")).toEqual([[0.03, ""], [0.06, ""], [0.06, ""]]);
+    expect(adjust([[0.01, null], [0.04, ""], [0.03, null]], "holm")).toEqual([[0.03, ""], [0.06, ""], [0.06, ""]]);
     expect(adjust(col(0.01, 0.04, 0.5), "bonferroni")).toEqual(col(0.03, 0.12, 1));
   });
 
@@ -172,6 +172,16 @@ describe("ADJUST", () => {
     expect(out).toHaveLength(2);
     for (const [cell] of out) expectError(cell, "#VALUE!", /row 2, column 1 of the range holds 1\.5/);
     for (const [cell] of adjust(col(0.2), "sidak")) expectError(cell, "#VALUE!", /method "sidak" is not accepted/);
+  });
+
+  it("never shrinks the number of tests: a text, logical or error cell is refused, naming its place", () => {
+    // Left out, "0.02" would make Holm adjust 0.01 as one of three tests (0.03) instead of four (0.04): by hand, Holm (1979).
+    for (const row of adjust(col(0.01, "0.02", 0.04, 0.03), "holm")) {
+      expectError(row[0], "#VALUE!", /row 2, column 1 of the range holds the text "0\.02".*fewer tests/);
+    }
+    expectError(adjust([[0.01, true]], "bh")[0][1], "#VALUE!", /row 1, column 2 of the range holds the logical value TRUE/);
+    expectError(adjust(col(0.01, { code: "#N/A" }), "holm")[0][0], "#VALUE!", /row 2, column 1 of the range holds the error #N\/A/);
+    expect(adjust(col(0.01, null, 0.04, 0.03), "holm")).toEqual(col(0.03, "", 0.06, 0.06));
   });
 });
 
