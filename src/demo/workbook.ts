@@ -22,7 +22,7 @@ import { evaluate, type CustomFunction, type EvaluationContext } from "./formula
 import { parseFormula, type Expression } from "./formula/parse";
 import { FormulaSyntaxError } from "./formula/tokenize";
 import { areaRefusal, lengthRefusal, RefusedEntry } from "./limits";
-import { errorValue, isMatrix, isReference, type ReferenceValue, type Scalar, type Value } from "./formula/values";
+import { errorValue, isError, isMatrix, isReference, type ReferenceValue, type Scalar, type Value } from "./formula/values";
 
 export interface CellFormat {
   numberFormat: string;
@@ -107,6 +107,28 @@ function checkedEntry(input: unknown): { constant: number | string | boolean | n
     if (thrown instanceof FormulaSyntaxError) throw new RefusedEntry(`Excel would not take the formula ${formula.length > 60 ? `${formula.slice(0, 60)}…` : formula}: ${thrown.message}`);
     throw thrown;
   }
+}
+
+/**
+ * Column names as Excel gives a new table's header row: its shown values as
+ * text, a blank as ColumnN (N the place in the table), and a repeated name
+ * (compared without regard to case) made unique by a number: Thickness,
+ * Thickness2. Microsoft, "Overview of Excel tables" (default ColumnN names
+ * and unique headers); the numbering of repeats from memory.
+ *
+ * @example
+ * tableHeaders(["Thickness", "thickness", 2024, null]); // ["Thickness", "thickness2", "2024", "Column4"]
+ */
+export function tableHeaders(shown: readonly Scalar[]): string[] {
+  const taken = new Set<string>();
+  return shown.map((value, i) => {
+    const text = value === null ? "" : isError(value) ? value.code : typeof value === "boolean" ? (value ? "TRUE" : "FALSE") : String(value);
+    const base = text === "" ? `Column${i + 1}` : text;
+    let header = base;
+    for (let n = 2; taken.has(header.toLowerCase()); n++) header = `${base}${n}`;
+    taken.add(header.toLowerCase());
+    return header;
+  });
 }
 
 /** The table name the spreadsheet would pick next: Table1, Table2, ... */
@@ -329,10 +351,9 @@ export class Workbook {
     if (rect.top === rect.bottom) throw new RangeError("A table needs a header row and at least one row of data.");
     if (this.tables.some((t) => t.sheet === name && rectsOverlap(t.rect, rect))) throw new RangeError("Tables cannot overlap.");
     const table: TableModel = { name: nextTableName(this.tables), sheet: name, rect };
-    for (let c = rect.left; c <= rect.right; c++) {
-      const header = this.value(name, rect.top, c);
-      if (typeof header !== "string" || header === "") this.writeEntries(name, rect.top, c, [[`Column${c - rect.left + 1}`]]);
-    }
+    const headers = tableHeaders(this.values(name, { ...rect, bottom: rect.top })[0]);
+    // The header row becomes text, as Excel makes it: a leading apostrophe keeps "2024" or "=1+1" a text.
+    this.batch(() => this.writeEntries(name, rect.top, rect.left, [headers.map((h) => `'${h}`)]));
     this.tables.push(table);
     this.recalculate();
     return table;
@@ -391,6 +412,7 @@ export class Workbook {
   private context(sheetName: string, evaluateCell: (sheet: string, row: number, column: number) => Scalar): EvaluationContext {
     return {
       sheet: sheetName,
+      hasSheet: (name: string) => this.hasSheet(name),
       read: (reference: ReferenceValue) => {
         const used = this.usedRect(reference.sheet);
         const bottom = reference.rect.bottom === LAST_ROW || rectSize(reference.rect).rows > 10_000

@@ -23,6 +23,7 @@ const CELLS = new Map<string, Scalar>([
 function context(functions: Record<string, CustomFunction> = {}): EvaluationContext {
   return {
     sheet: "S",
+    hasSheet: (name) => name === "S" || name === "Sheet1" || name === "Paint line",
     read: (ref: ReferenceValue) => {
       const bottom = Math.min(ref.rect.bottom, 9);
       const rows: Scalar[][] = [];
@@ -126,6 +127,14 @@ describe("evaluate: built-in functions", () => {
     expect(calc('IF(A1<=0.05,"reject","keep")')).toBe("keep");
     expect(calc('IF(A1>=1,"yes","no")')).toBe("yes");
     expect((calc('IF(1/0,"a","b")') as { code: string }).code).toBe("#DIV/0!");
+  });
+
+  it("refuses more than 255 arguments or calls nested deeper than 64 (Microsoft, \"Excel specifications and limits\")", () => {
+    const nested = (depth: number): string => `${"IF(TRUE,".repeat(depth)}1${")".repeat(depth)}`;
+    expect(calc(nested(64))).toBe(1);
+    expect(() => parseFormula(nested(65))).toThrow(FormulaSyntaxError);
+    expect(calc(`COUNT(${Array(255).fill(1).join(",")})`)).toBe(255);
+    expect(() => parseFormula(`COUNT(${Array(256).fill(1).join(",")})`)).toThrow(FormulaSyntaxError);
   });
 
   it("unknown names are #NAME?", () => {

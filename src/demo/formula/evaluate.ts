@@ -30,6 +30,8 @@ export interface CustomFunction {
 export interface EvaluationContext {
   /** Sheet of the cell being calculated: references without a sheet prefix point here. */
   readonly sheet: string;
+  /** True when the workbook has a sheet of this name (any case). */
+  hasSheet(name: string): boolean;
   /** Values of a reference, row by row (null for blank cells). */
   read(reference: ReferenceValue): Scalar[][];
   /** The data-body cells of a table column, or an error when there is no such table or column. */
@@ -285,6 +287,8 @@ function reference(text: string, context: EvaluationContext): ReferenceValue | E
   const parsed = parseAddress(text);
   if (!parsed) return errorValue("#REF!", `${text} is not a reference.`);
   const { sheet = context.sheet, ...rect } = parsed;
+  // A reference to a sheet that is not there is #REF!, as Excel shows it once the sheet is gone.
+  if (!context.hasSheet(sheet)) return errorValue("#REF!", `There is no sheet named ${sheet}.`);
   return { kind: "reference", sheet, rect };
 }
 

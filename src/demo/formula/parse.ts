@@ -29,8 +29,17 @@ export type Expression =
 
 const LEVELS: readonly (readonly string[])[] = [["=", "<>", "<", ">", "<=", ">="], ["&"], ["+", "-"], ["*", "/"], ["^"]];
 
+/**
+ * Limits Excel puts on a formula (Microsoft, "Excel specifications and
+ * limits": arguments in a function 255, nested levels of functions 64); a
+ * formula beyond them is refused.
+ */
+const MAX_ARGUMENTS = 255;
+const MAX_NESTED_CALLS = 64;
+
 class Parser {
   private position = 0;
+  private calls = 0;
   constructor(private readonly tokens: readonly Token[]) {}
 
   parseAll(): Expression {
@@ -90,7 +99,11 @@ class Parser {
       case "name": {
         if (this.peek()?.type === "paren" && (this.peek() as { text: string }).text === "(") {
           this.position++;
-          return { type: "call", name: token.text.toUpperCase(), args: this.argumentsUntilClose() };
+          if (++this.calls > MAX_NESTED_CALLS) throw new FormulaSyntaxError("Excel nests functions at most 64 levels deep.");
+          const args = this.argumentsUntilClose();
+          this.calls--;
+          if (args.length > MAX_ARGUMENTS) throw new FormulaSyntaxError(`A function takes at most 255 arguments; ${token.text} has ${args.length}.`);
+          return { type: "call", name: token.text.toUpperCase(), args };
         }
         const upper = token.text.toUpperCase();
         if (upper === "TRUE" || upper === "FALSE") return { type: "boolean", value: upper === "TRUE" };
