@@ -14,6 +14,7 @@
  */
 import { resultBlockRows, type BlockRequest, type BlockTest, type CatalogueCall } from "../report/resultBlock";
 import { pairedDifferences } from "../stats/differences";
+import { EXACT_AUTO_LIMIT, EXACT_LIMIT } from "../stats/signedRank";
 import { numbersFromCells, pairsFromCells } from "../stats/cells";
 import type { Alternative, SignTestMethod, SignedRankMethod, TieRule, ZeroRule } from "../stats/types";
 import { formatAddress, type CellRect } from "./a1";
@@ -202,8 +203,16 @@ const SIGN_METHOD_CHOICES: readonly Choice<SignTestMethod>[] = [
 ];
 
 const RANK_METHOD_CHOICES: readonly Choice<SignedRankMethod>[] = [
-  { value: "auto", label: "Exact when feasible (default)", hint: "Exact distribution for small and medium samples, normal approximation beyond." },
-  { value: "exact", label: "Exact", hint: "Exact distribution given the ties, at any size (slower for large samples)." },
+  {
+    value: "auto",
+    label: "Exact when feasible (default)",
+    hint: `Exact distribution up to ${EXACT_AUTO_LIMIT.toLocaleString("en-US")} non-zero differences, normal approximation beyond; the block states which ran.`,
+  },
+  {
+    value: "exact",
+    label: "Exact",
+    hint: `Exact distribution given the ties, for up to ${EXACT_LIMIT.toLocaleString("en-US")} non-zero differences (slower as they grow); beyond that the cells answer #N/A and say so.`,
+  },
   { value: "normal", label: "Normal approximation", hint: "With continuity and tie corrections." },
 ];
 
