@@ -14,8 +14,8 @@
  * in the desktop's browser when there is one; with https it is also served
  * over plain http on port 3001, so it opens without a certificate warning.
  *
- * Options: --no-build (serve dist/ as it is), --http (skip certificates),
- * --no-open (print the demo address only).
+ * Options: --no-build (serve dist/ as it is), --watch (rebuild as sources
+ * change), --http (skip certificates), --no-open (print the demo address only).
  */
 import { existsSync, readFileSync } from "node:fs";
 import { spawn } from "node:child_process";
@@ -31,7 +31,8 @@ const PORT = 3000;
 /** Plain-http port for the demo page when the add-in itself is served over https. */
 const DEMO_PORT = 3001;
 const project = resolve(dirname(fileURLToPath(import.meta.url)), "..");
-const dist = join(project, "dist");
+/** What webpack.config.js builds into: dist/, or EVENSPLIT_DIST for a private build. */
+const dist = process.env.EVENSPLIT_DIST ? resolve(process.env.EVENSPLIT_DIST) : join(project, "dist");
 const require = createRequire(import.meta.url);
 
 interface Certificates {
@@ -40,16 +41,31 @@ interface Certificates {
   trusted: boolean;
 }
 
-function build(): Promise<void> {
+/**
+ * Builds dist/ in development mode; with `watch`, keeps rebuilding as sources
+ * change (resolving after the first build), so a reload of the pane or the
+ * demo page shows the change.
+ */
+function build(watch: boolean): Promise<void> {
   const webpack = require("webpack") as typeof import("webpack");
   const config = require(join(project, "webpack.config.js")) as (env: unknown, argv: { mode: string }) => import("webpack").Configuration;
+  const compiler = webpack(config({}, { mode: "development" }));
+  let first = true;
   return new Promise((done, fail) => {
-    webpack(config({}, { mode: "development" }), (error, stats) => {
-      if (error) return fail(error);
-      if (stats?.hasErrors()) return fail(new Error(stats.toString({ all: false, errors: true })));
-      console.log(`Built dist/ in ${((stats?.endTime ?? 0) - (stats?.startTime ?? 0)) / 1000} s.`);
+    const report = (error: Error | null, stats?: import("webpack").Stats): void => {
+      const problem = error ?? (stats?.hasErrors() ? new Error(stats.toString({ all: false, errors: true })) : null);
+      const seconds = ((stats?.endTime ?? 0) - (stats?.startTime ?? 0)) / 1000;
+      if (!first) {
+        console.log(problem ? `Rebuild failed: ${problem.message}` : `Rebuilt dist/ in ${seconds} s.`);
+        return;
+      }
+      first = false;
+      if (problem) return fail(problem);
+      console.log(`Built dist/ in ${seconds} s.${watch ? " Watching the sources; reload the page after a change." : ""}`);
       done();
-    });
+    };
+    if (watch) compiler.watch({}, report);
+    else compiler.run((error, stats) => compiler.close(() => report(error, stats)));
   });
 }
 
@@ -119,7 +135,7 @@ function instructions(origin: string, transport: Transport, demoOrigin: string):
 
 async function main(): Promise<void> {
   const args = new Set(process.argv.slice(2));
-  if (!args.has("--no-build")) await build();
+  if (!args.has("--no-build")) await build(args.has("--watch"));
   if (!existsSync(join(dist, "demo.html"))) {
     console.error("dist/ has no demo.html: run npm run build first (or npm start without --no-build).");
     process.exit(1);
