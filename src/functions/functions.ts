@@ -137,11 +137,11 @@ function boundsRow(values: ArrayLike<number>, quantile: number, confidence: numb
  * still give the estimate (it needs one value): only the bound cells say why
  * they are empty, so what can be given is not lost with what cannot.
  */
-function hodgesLehmannRow(values: ArrayLike<number>, confidence: number): RowCell[] | CellError {
+function hodgesLehmannRow(values: ArrayLike<number>, confidence: number, side: BoundSide): RowCell[] | CellError {
   const oversized = oversizedDifference(values);
   if (oversized !== null) return unavailableError(oversized);
-  const result = hodgesLehmann(values, { confidence });
-  if (result.available) return [result.estimate, result.lower, result.upper, result.achievedConfidence];
+  const result = hodgesLehmann(values, { confidence, side });
+  if (result.available) return [result.estimate, result.lower ?? "", result.upper ?? "", result.achievedConfidence];
   if (values.length === 0) return unavailableError(result);
   const missing = unavailableError(result);
   return [hodgesLehmannEstimate(values), missing, missing, missing];
@@ -421,16 +421,17 @@ export function pairedsignrankstatistic(first: unknown[][], second: unknown[][],
 }
 
 /**
- * Hodges–Lehmann estimate of the centre (the median of all pairwise averages) with distribution-free bounds. Returns one row: estimate, lower, upper, achieved confidence.
+ * Hodges–Lehmann estimate of the centre (the median of all pairwise averages) with distribution-free bounds. Returns one row: estimate, lower, upper, achieved confidence; with side "lower" or "upper" the other end is left empty.
  * @customfunction HODGESLEHMANN
  * @param data Range with the measurements.
  * @param [confidence] Confidence of the bounds, such as 0.95 (default).
+ * @param [side] "two-sided" (default), "lower" (a lower bound only) or "upper".
  * @returns One row: estimate, lower, upper, achieved confidence.
  */
-export function hodgeslehmann(data: unknown[][], confidence?: unknown): unknown[][] {
+export function hodgeslehmann(data: unknown[][], confidence?: unknown, side?: unknown): unknown[][] {
   return oneRow(4, () => {
     const level = fractionArgument("confidence", confidence, 0.95);
-    return hodgesLehmannRow(numbersOf(data), level);
+    return hodgesLehmannRow(numbersOf(data), level, chooseWord(SIDE, side));
   });
 }
 
@@ -440,12 +441,14 @@ export function hodgeslehmann(data: unknown[][], confidence?: unknown): unknown[
  * @param first Range with the first measurement of each pair.
  * @param second Range with the second measurement, same shape as first.
  * @param [confidence] Confidence of the bounds, such as 0.95 (default).
+ * @param [side] "two-sided" (default), "lower" or "upper".
  * @returns One row: estimate, lower, upper, achieved confidence.
  */
-export function pairedhodgeslehmann(first: unknown[][], second: unknown[][], confidence?: unknown): unknown[][] {
+export function pairedhodgeslehmann(first: unknown[][], second: unknown[][], confidence?: unknown, side?: unknown): unknown[][] {
   return oneRow(4, () => {
     const level = fractionArgument("confidence", confidence, 0.95);
-    return hodgesLehmannRow(differencesOf(first, second, 0).differences, level);
+    const chosenSide = chooseWord(SIDE, side);
+    return hodgesLehmannRow(differencesOf(first, second, 0).differences, level, chosenSide);
   });
 }
 

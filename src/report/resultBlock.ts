@@ -9,6 +9,7 @@
  * pane puts into `Range.formulas`, and `blockValue` evaluates it on cell
  * matrices through the catalogue's own functions, as REPORT does.
  */
+import { EXACT_AUTO_LIMIT } from "../stats/signedRank";
 import type { Alternative, SignTestMethod, SignedRankMethod, TieRule, ZeroRule } from "../stats/types";
 
 export type BlockTest = "sign" | "signed-rank" | "quantile";
@@ -59,7 +60,9 @@ export type BlockValue =
   /** The sum of several catalogue values (e.g. ties + used = pairs compared). */
   | { readonly kind: "sum"; readonly terms: readonly CallValue[] }
   | BlankCheckValue
-  | { readonly kind: "decision"; readonly pValue: CallValue; readonly alpha: number; readonly reject: string; readonly keep: string };
+  | { readonly kind: "decision"; readonly pValue: CallValue; readonly alpha: number; readonly reject: string; readonly keep: string }
+  /** One text when a catalogue value is at most a limit, another above it (e.g. which method a size led to). */
+  | { readonly kind: "atMost"; readonly value: CallValue; readonly limit: number; readonly then: string; readonly otherwise: string };
 
 /**
  * The blank-cell check: the sheet's own COUNT of the ranges against the
@@ -116,11 +119,8 @@ const SIGN_METHOD_WORDS: Readonly<Record<SignTestMethod, string>> = {
   normal: "normal approximation with continuity correction",
 };
 
-const SIGNED_RANK_METHOD_WORDS: Readonly<Record<SignedRankMethod, string>> = {
-  auto: "exact when the sample is small enough, otherwise normal approximation",
-  exact: "exact (conditional on ties)",
-  normal: "normal approximation with continuity and tie corrections",
-};
+const SIGNED_RANK_EXACT_WORDS = "exact (conditional on ties)";
+const SIGNED_RANK_NORMAL_WORDS = "normal approximation with continuity and tie corrections";
 
 /** Formats a number the way it appears in the block's wording: as typed, no trailing zeros. */
 function numberWords(x: number): string {
@@ -227,7 +227,7 @@ function row(key: string, label: string, value: BlockValue, format: BlockFormat,
   return { key, label, value, format, style };
 }
 
-function signRows(request: BlockRequest): { statistic: BlockRow; pValue: CallValue; method: string; bounds: BlockRow[] } {
+function signRows(request: BlockRequest): { statistic: BlockRow; pValue: CallValue; method: BlockValue; bounds: BlockRow[] } {
   const ties = request.ties ?? "drop";
   const method = (request.method as SignTestMethod | undefined) ?? "exact";
   const alt = word(request.alternative);
@@ -248,12 +248,33 @@ function signRows(request: BlockRequest): { statistic: BlockRow; pValue: CallVal
   return {
     statistic: row("statistic", `Sign statistic (${statisticWords})`, statistic, "integer"),
     pValue,
-    method: `Sign test, ${SIGN_METHOD_WORDS[method]}${request.alternative === "two-sided" ? " (twice the smaller tail, at most 1)" : ""}; ${TIE_WORDS[ties]}`,
+    method: text(`Sign test, ${SIGN_METHOD_WORDS[method]}${request.alternative === "two-sided" ? " (twice the smaller tail, at most 1)" : ""}; ${TIE_WORDS[ties]}`),
     bounds: boundRows(request, what, side, bound),
   };
 }
 
-function signedRankRows(request: BlockRequest): { statistic: BlockRow; pValue: CallValue; method: string; bounds: BlockRow[] } {
+/**
+ * The method row of a signed-rank block: the method that ran. Under "auto" that depends on how many
+ * non-zero differences there are (used, below + above), so the row is live and states it.
+ */
+function signedRankMethod(request: BlockRequest, method: SignedRankMethod, zeros: ZeroRule): BlockValue {
+  const zeroWords = `zero differences ${zeros === "pratt" ? "ranked, then left out (Pratt)" : "left out"}`;
+  const words = (what: string): string => `Wilcoxon signed-rank test, ${what}; ${zeroWords}`;
+  if (method === "exact") return text(words(SIGNED_RANK_EXACT_WORDS));
+  if (method === "normal") return text(words(SIGNED_RANK_NORMAL_WORDS));
+  const c = num(request.center);
+  const nonZero = request.paired ? call("PAIREDCOUNTS", [data(), second(), c], 4) : call("COUNTS", [data(), c], 4);
+  const limit = EXACT_AUTO_LIMIT.toLocaleString("en-US");
+  return {
+    kind: "atMost",
+    value: nonZero,
+    limit: EXACT_AUTO_LIMIT,
+    then: words(`${SIGNED_RANK_EXACT_WORDS}, as there are at most ${limit} non-zero differences`),
+    otherwise: words(`${SIGNED_RANK_NORMAL_WORDS}, as there are more than ${limit} non-zero differences`),
+  };
+}
+
+function signedRankRows(request: BlockRequest): { statistic: BlockRow; pValue: CallValue; method: BlockValue; bounds: BlockRow[] } {
   const method = (request.method as SignedRankMethod | undefined) ?? "auto";
   const zeros = request.zeros ?? "drop";
   const alt = word(request.alternative);
@@ -264,25 +285,23 @@ function signedRankRows(request: BlockRequest): { statistic: BlockRow; pValue: C
   const pValue = request.paired
     ? call("PAIREDSIGNRANK", [data(), second(), c, alt, word(method), word(zeros)])
     : call("SIGNRANK", [data(), c, alt, word(method), word(zeros)]);
+  // A one-sided question gets the one-sided bound, as in the sign-test block.
+  const side = boundSideFor(request.alternative);
+  const hlArgs = [num(request.confidence), word(side)];
   const hl = (column: number): CallValue =>
-    request.paired
-      ? call("PAIREDHODGESLEHMANN", [data(), second(), num(request.confidence)], column)
-      : call("HODGESLEHMANN", [data(), num(request.confidence)], column);
-  const level = percentWords(request.confidence);
+    request.paired ? call("PAIREDHODGESLEHMANN", [data(), second(), ...hlArgs], column) : call("HODGESLEHMANN", [data(), ...hlArgs], column);
   return {
     statistic: row("statistic", "Signed-rank statistic V (sum of ranks of positive differences)", statistic, "number"),
     pValue,
-    method: `Wilcoxon signed-rank test, ${SIGNED_RANK_METHOD_WORDS[method]}; zero differences ${zeros === "pratt" ? "ranked, then left out (Pratt)" : "left out"}`,
+    method: signedRankMethod(request, method, zeros),
     bounds: [
       row("estimate", "Hodges–Lehmann estimate", hl(1), "number"),
-      row("lower", `${level} bounds (two-sided): lower`, hl(2), "number"),
-      row("upper", `${level} bounds (two-sided): upper`, hl(3), "number"),
-      row("achieved", "Achieved confidence", hl(4), "percent"),
+      ...boundRows(request, request.paired ? "centre of the differences" : "centre", side, (column) => hl(column + 1)),
     ],
   };
 }
 
-function quantileRows(request: BlockRequest): { statistic: BlockRow; pValue: CallValue; method: string; bounds: BlockRow[] } {
+function quantileRows(request: BlockRequest): { statistic: BlockRow; pValue: CallValue; method: BlockValue; bounds: BlockRow[] } {
   const q = request.quantile as number;
   const c = num(request.center);
   const side = boundSideFor(request.alternative);
@@ -290,7 +309,7 @@ function quantileRows(request: BlockRequest): { statistic: BlockRow; pValue: Cal
   return {
     statistic: row("statistic", `Quantile statistic (count below ${numberWords(request.center)})`, call("COUNTS", [data(), c], 1), "integer"),
     pValue: call("QUANTILEPVALUE", [data(), c, num(q), word(request.alternative)]),
-    method: `Quantile test, exact binomial with p = ${numberWords(q)}${request.alternative === "two-sided" ? " (twice the smaller tail, at most 1)" : ""}; ties left out`,
+    method: text(`Quantile test, exact binomial with p = ${numberWords(q)}${request.alternative === "two-sided" ? " (twice the smaller tail, at most 1)" : ""}; ties left out`),
     bounds: boundRows(request, `${numberWords(q)} quantile`, side, bound),
   };
 }
@@ -362,7 +381,7 @@ export function resultBlockRows(request: BlockRequest): BlockRow[] {
     ...countRows(request, centerWords),
     parts.statistic,
     row("pvalue", "p-value", parts.pValue, "pvalue"),
-    row("method", "Method", text(parts.method), "text"),
+    row("method", "Method", parts.method, "text"),
     row(
       "decision",
       `Decision at alpha = ${alphaWords}`,
@@ -429,6 +448,8 @@ export function blockFormula(value: BlockValue, refs: { data: string; second?: s
       return `=${value.terms.map((term) => formulaCall(term, refs)).join("+")}`;
     case "decision":
       return `=IF(${formulaCall(value.pValue, refs)}<=${formulaNumber(value.alpha)},${formulaString(value.reject)},${formulaString(value.keep)})`;
+    case "atMost":
+      return `=IF(${formulaCall(value.value, refs)}<=${formulaNumber(value.limit)},${formulaString(value.then)},${formulaString(value.otherwise)})`;
     case "blankCheck": {
       const sheetCount = `COUNT(${value.ranges.map((range) => formulaOperand({ ref: range }, refs)).join(",")})`;
       const read = value.read.map((term) => formulaCall(term, refs)).join("+");
@@ -535,6 +556,11 @@ export function blockValue(value: BlockValue, inputs: BlockInputs, run: Catalogu
       const p = evaluateCall(value.pValue, inputs, run);
       if (typeof p !== "number") return p;
       return p <= value.alpha ? value.reject : value.keep;
+    }
+    case "atMost": {
+      const x = evaluateCall(value.value, inputs, run);
+      if (typeof x !== "number") return x;
+      return x <= value.limit ? value.then : value.otherwise;
     }
     case "blankCheck":
       return blankCheck(value, inputs, run);

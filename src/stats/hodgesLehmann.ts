@@ -33,21 +33,23 @@ import { normalLowerTail, normalQuantile } from "./normal";
 import { sortFloat64 } from "./ranks";
 import { selectInPlace } from "./selection";
 import { EXACT_AUTO_LIMIT, signedRankNullCdf } from "./signedRank";
-import { unavailable, type Unavailable } from "./types";
+import { unavailable, type BoundSide, type Unavailable } from "./types";
 import { xorshift32 as xorshift } from "./xorshift";
 
 export interface HodgesLehmannResult {
   available: true;
   /** Median of the Walsh averages. */
   estimate: number;
-  /** k-th smallest Walsh average. */
-  lower: number;
-  /** k-th largest Walsh average. */
-  upper: number;
+  /** k-th smallest Walsh average, or null for an upper one-sided bound. */
+  lower: number | null;
+  /** k-th largest Walsh average, or null for a lower one-sided bound. */
+  upper: number | null;
   /** Coverage of [lower, upper] under the signed-rank null distribution used; >= confidence. */
   achievedConfidence: number;
   /** Confidence asked for. */
   confidence: number;
+  /** Which bounds: both ends, or one end at the full confidence. */
+  side: BoundSide;
   n: number;
   /** Where k came from: the exact signed-rank distribution or its normal approximation. */
   method: "exact" | "normal";
@@ -257,71 +259,86 @@ export function hodgesLehmannEstimate(values: ArrayLike<number>): number {
   return walshMedian(walshTerms(values, "hodgesLehmannEstimate"));
 }
 
-/** Rank k of the bounds and its achieved coverage, or null when even k = 1 does not reach the confidence. */
-function boundRankFor(n: number, confidence: number): { k: number; achieved: number; method: "exact" | "normal" } | null {
-  const alpha = 1 - confidence;
+/**
+ * Rank k of the bounds and their achieved coverage, or null when even k = 1 does not reach the confidence.
+ * `tails` is 2 for two-sided bounds (each tail may miss (1 - confidence)/2) and 1 for a one-sided bound.
+ */
+function boundRankFor(n: number, confidence: number, tails: 1 | 2): { k: number; achieved: number; method: "exact" | "normal" } | null {
+  const allowance = (1 - confidence) / tails;
   const count = (n * (n + 1)) / 2;
   const mean = count / 2;
   const sd = Math.sqrt((n * (n + 1) * (2 * n + 1)) / 24);
-  const zq = normalQuantile(alpha / 2);
+  const zq = normalQuantile(allowance);
   if (n <= EXACT_AUTO_LIMIT) {
     const scores = Array.from({ length: n }, (_, i) => i + 1);
     const half = Math.floor(count / 2);
-    // The exact alpha/2 quantile lies within a small fraction of an sd of the normal one, so the recursion
+    // The exact quantile lies within a small fraction of an sd of the normal one, so the recursion
     // stops one sd (plus a few units, for small n) beyond it; should that fall short, the full half is used.
     let cap = Math.min(half, Math.max(0, Math.ceil(mean + zq * sd + sd + 10)));
     let cdf = signedRankNullCdf(scores, cap);
-    if (cdf[cap] <= alpha / 2 && cap < half) {
+    if (cdf[cap] <= allowance && cap < half) {
       cap = half;
       cdf = signedRankNullCdf(scores, cap);
     }
-    if (cdf[0] > alpha / 2) return null;
+    if (cdf[0] > allowance) return null;
     let x = 0;
-    while (x + 1 <= cap && cdf[x + 1] <= alpha / 2) x++;
-    return { k: x + 1, achieved: 1 - 2 * cdf[x], method: "exact" };
+    while (x + 1 <= cap && cdf[x + 1] <= allowance) x++;
+    return { k: x + 1, achieved: 1 - tails * cdf[x], method: "exact" };
   }
   const k = Math.floor(mean + 0.5 + zq * sd);
   if (k < 1) return null;
-  return { k, achieved: 1 - 2 * normalLowerTail((k - 0.5 - mean) / sd), method: "normal" };
+  return { k, achieved: 1 - tails * normalLowerTail((k - 0.5 - mean) / sd), method: "normal" };
 }
 
-/** Smallest n whose extreme Walsh averages reach the confidence: k = 1 needs P(V <= 0) = 2^-n <= alpha/2. */
-function smallestSufficientN(confidence: number): number {
+/** Smallest n whose extreme Walsh averages reach the confidence: k = 1 needs P(V <= 0) = 2^-n <= the allowance. */
+function smallestSufficientN(confidence: number, tails: 1 | 2): number {
   let n = 1;
-  while (2 ** -n > (1 - confidence) / 2) n++;
+  while (2 ** -n > (1 - confidence) / tails) n++;
   return n;
 }
 
 /**
- * Hodges–Lehmann estimate with two-sided distribution-free bounds (default confidence 0.95).
- * Returns Unavailable for no values, or when n is too small for the confidence (with the n that would do).
- * Throws a RangeError for a confidence outside (0, 1) or a non-finite value.
+ * Hodges–Lehmann estimate with distribution-free bounds (default: two-sided at confidence 0.95). A one-sided
+ * `side` ("lower" or "upper") gives that bound alone, at the full confidence, and null for the other end,
+ * as one-sided order-statistic bounds do. Returns Unavailable for no values, or when n is too small for the
+ * confidence (with the n that would do). Throws a RangeError for a confidence outside (0, 1), an unknown side
+ * or a non-finite value.
  *
  * @example
  * const r = hodgesLehmann([1.2, 3.4, -0.5, 2.2, 5.1, 0.7, 2.9, 4.4], { confidence: 0.9 });
  * // r.available && r.estimate === 2.425, r.lower === 0.95, r.upper === 3.9000000000000004 ((3.4 + 4.4) / 2
  * // in binary), r.boundRank === 6, r.achievedConfidence === 0.921875 (exact: 1 - 2 * 10/256)
+ * hodgesLehmann([1.2, 3.4, -0.5, 2.2, 5.1, 0.7, 2.9, 4.4], { confidence: 0.9, side: "lower" });
+ * // lower bound only: rank 9 (P(V <= 8) = 24/256 <= 0.1 < P(V <= 9) = 29/256), achievedConfidence 1 - 24/256
  */
-export function hodgesLehmann(values: ArrayLike<number>, options: { confidence?: number } = {}): HodgesLehmannResult | Unavailable {
+export function hodgesLehmann(
+  values: ArrayLike<number>,
+  options: { confidence?: number; side?: BoundSide } = {},
+): HodgesLehmannResult | Unavailable {
   const confidence = options.confidence ?? 0.95;
+  const side = options.side ?? "two-sided";
   if (!(confidence > 0 && confidence < 1)) throw new RangeError(`hodgesLehmann: confidence must lie strictly between 0 and 1, got ${confidence}`);
+  if (side !== "two-sided" && side !== "lower" && side !== "upper") throw new RangeError(`hodgesLehmann: unknown side ${String(side)}`);
+  const tails = side === "two-sided" ? 2 : 1;
   const n = values.length;
   if (n === 0) return unavailable("no-data", "There are no values to estimate from.");
   const terms = walshTerms(values, "hodgesLehmann");
-  const rank = boundRankFor(n, confidence);
+  const rank = boundRankFor(n, confidence, tails);
   if (rank === null) {
-    const needed = smallestSufficientN(confidence);
+    const needed = smallestSufficientN(confidence, tails);
     const percent = Number((confidence * 100).toPrecision(12)); // 29, not 28.999999999999996
-    return unavailable("unreachable", `Bounds at ${percent}% confidence need at least ${needed} values; there are ${n}.`, needed);
+    const what = side === "two-sided" ? `Bounds at ${percent}% confidence need` : `A one-sided ${side} bound at ${percent}% confidence needs`;
+    return unavailable("unreachable", `${what} at least ${needed} values; there are ${n}.`, needed);
   }
   const count = (n * (n + 1)) / 2;
   return {
     available: true,
     estimate: walshMedian(terms),
-    lower: walshAt(terms, rank.k),
-    upper: walshAt(terms, count - rank.k + 1),
+    lower: side === "upper" ? null : walshAt(terms, rank.k),
+    upper: side === "lower" ? null : walshAt(terms, count - rank.k + 1),
     achievedConfidence: rank.achieved,
     confidence,
+    side,
     n,
     method: rank.method,
     boundRank: rank.k,

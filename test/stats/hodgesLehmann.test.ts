@@ -174,7 +174,7 @@ describe("hodgesLehmann: duality with the signed-rank test, coverage, data condi
           if (k >= 2) expect(p((w[k - 2] + w[k - 1]) / 2)).toBeLessThanOrEqual(alpha); // just outside
           expect(r.achievedConfidence).toBeGreaterThanOrEqual(confidence);
           expect(r.lower).toBeLessThanOrEqual(r.estimate);
-          expect(r.estimate).toBeLessThanOrEqual(r.upper);
+          expect(r.estimate).toBeLessThanOrEqual(r.upper!);
         },
       ),
       { numRuns: 150 },
@@ -188,8 +188,8 @@ describe("hodgesLehmann: duality with the signed-rank test, coverage, data condi
         const a = run(x);
         const b = run(x.map((v) => 4 * v + shift));
         expect(b.estimate).toBe(4 * a.estimate + shift);
-        expect(b.lower).toBe(4 * a.lower + shift);
-        expect(b.upper).toBe(4 * a.upper + shift);
+        expect(b.lower).toBe(4 * a.lower! + shift);
+        expect(b.upper).toBe(4 * a.upper! + shift);
         expect(b.achievedConfidence).toBe(a.achievedConfidence);
       }),
       { numRuns: 100 },
@@ -252,5 +252,52 @@ describe("hodgesLehmann: duality with the signed-rank test, coverage, data condi
     // k = floor(N/2 + 1/2 + z_0.025 sd), z_0.025 = -1.959963984540054 (standard normal table value).
     expect(r.boundRank).toBe(Math.floor((n * (n + 1)) / 4 + 0.5 - 1.959963984540054 * sd));
     expect(r.achievedConfidence).toBeGreaterThanOrEqual(0.95);
+  });
+});
+
+describe("one-sided Hodges–Lehmann bounds", () => {
+  /** P(V <= v) for ranks 1..n by enumerating all 2^n sign patterns (exact arithmetic). */
+  function enumeratedCdf(n: number): number[] {
+    const counts = new Array<number>((n * (n + 1)) / 2 + 1).fill(0);
+    for (let mask = 0; mask < 2 ** n; mask++) {
+      let v = 0;
+      for (let i = 0; i < n; i++) if (mask & (1 << i)) v += i + 1;
+      counts[v]++;
+    }
+    let running = 0;
+    return counts.map((c) => (running += c) / 2 ** n);
+  }
+
+  const x = [1.2, 3.4, -0.5, 2.2, 5.1, 0.7, 2.9, 4.4];
+
+  it("takes the whole miss in one tail: rank and coverage by enumeration, bound by brute force", () => {
+    const cdf = enumeratedCdf(x.length);
+    let k = 0;
+    while (cdf[k] <= 0.1) k++; // largest k with P(V <= k - 1) <= 0.1
+    const walsh = walshAverages(x);
+    const lower = hodgesLehmann(x, { confidence: 0.9, side: "lower" });
+    expect(lower).toMatchObject({ available: true, boundRank: k, upper: null, achievedConfidence: 1 - cdf[k - 1] });
+    expect((lower as HodgesLehmannResult).lower).toBe(walsh[k - 1]);
+    const upper = hodgesLehmann(x, { confidence: 0.9, side: "upper" }) as HodgesLehmannResult;
+    expect([upper.lower, upper.upper]).toEqual([null, walsh[walsh.length - k]]);
+  });
+
+  it("is the end of the two-sided bounds at confidence 2γ − 1 (the same tail allowance)", () => {
+    fc.assert(
+      fc.property(fc.array(fc.integer({ min: -500, max: 500 }), { minLength: 6, maxLength: 80 }), fc.constantFrom(0.9, 0.95, 0.975, 0.99), (ints, level) => {
+        const data = ints.map((v) => v / 4);
+        const one = hodgesLehmann(data, { confidence: level, side: "lower" });
+        const two = hodgesLehmann(data, { confidence: 2 * level - 1 });
+        expect(one.available).toBe(two.available);
+        if (one.available && two.available) expect(one.lower).toBe(two.lower);
+      }),
+      { numRuns: 100 },
+    );
+  });
+
+  it("needs fewer values than two-sided bounds: 2^-n <= 0.05 at n = 5", () => {
+    expect(hodgesLehmann([1, 2, 3, 4, 5], { side: "lower" }).available).toBe(true);
+    expect(hodgesLehmann([1, 2, 3, 4], { side: "upper" })).toMatchObject({ available: false, minimumN: 5 });
+    expect(() => hodgesLehmann([1, 2], { side: "left" as never })).toThrow(RangeError);
   });
 });
