@@ -10,15 +10,18 @@
  * recalculation) and only then makes loaded properties readable. Reading a
  * property that was not loaded and synced throws, as the real API does, so a
  * forgotten `load` in the pane fails here too. Errors (an unknown sheet,
- * overlapping tables) surface at `sync`, with the API's error codes.
+ * overlapping tables, an entry or a range Excel would refuse) surface at
+ * `sync`, with the API's error codes; Excel.run refuses a batch that does not
+ * return a promise.
  *
  * Cost: O(cells touched) per sync.
  */
 import { formatAddress, parseAddress, rectSize, type CellRect } from "../taskpane/a1";
-import type { HostChart, HostContext, HostFont, HostRange, HostTable, HostTableColumn, HostWorksheet, RunBatch } from "../taskpane/host";
+import type { CellFont, ClearWhat, HostChart, HostContext, HostFont, HostNamedItem, HostRange, HostTable, HostTableColumn, HostWorksheet, RunBatch } from "../taskpane/host";
 import { isError, type Scalar } from "./formula/values";
 import { formatCell } from "../taskpane/numberFormat";
-import type { TableModel, Workbook } from "./workbook";
+import type { ChartModel, TableModel, Workbook } from "./workbook";
+import { areaRefusal, RefusedEntry } from "./limits";
 
 /**
  * An error as the real API reports it: a code and a message.
@@ -27,12 +30,15 @@ import type { TableModel, Workbook } from "./workbook";
  * new FakeApiError("ItemNotFound", "There is no worksheet named Summary.").code; // "ItemNotFound"
  */
 export class FakeApiError extends Error {
+  /** As OfficeExtension.Error carries it (node_modules/@microsoft/office-js, Utility.createRuntimeError). */
+  readonly debugInfo: { readonly code: string; readonly message: string };
   constructor(
-    readonly code: "ItemNotFound" | "InvalidArgument" | "PropertyNotLoaded" | "InvalidOperation",
+    readonly code: "ItemNotFound" | "InvalidArgument" | "PropertyNotLoaded" | "InvalidOperation" | "RunMustReturnPromise",
     message: string,
   ) {
     super(message);
     this.name = "RichApi.Error";
+    this.debugInfo = { code, message };
   }
 }
 
@@ -45,7 +51,16 @@ class Queue {
   flush(): void {
     const pending = this.operations.splice(0);
     this.workbook.batch(() => {
-      for (const operation of pending) operation();
+      for (const operation of pending) {
+        try {
+          operation();
+        } catch (thrown) {
+          // What Excel will not hold (limits.ts) fails the sync with InvalidArgument (Microsoft, "Error handling
+          // with the application-specific JavaScript APIs"); what ran before it stays done, as in Excel.
+          if (thrown instanceof RefusedEntry) throw new FakeApiError("InvalidArgument", thrown.message);
+          throw thrown;
+        }
+      }
     });
   }
 }
@@ -120,8 +135,18 @@ class FakeRange implements HostRange {
   private readonly loaded = new Loaded();
   readonly format: { readonly font: HostFont; autofitColumns(): void };
 
-  constructor(private readonly queue: Queue, private readonly where: Where) {
-    const font = new FakeFont(queue, where);
+  private readonly where: Where;
+
+  constructor(private readonly queue: Queue, where: Where) {
+    // A range reaching past row 1,048,576 or column XFD (getRow, getColumn, an offset) is refused when
+    // used (Microsoft, "Excel specifications and limits": the sheet's size).
+    this.where = () => {
+      const w = where();
+      const outside = w === null ? null : areaRefusal(w.rect);
+      if (outside) throw new FakeApiError("InvalidArgument", outside);
+      return w;
+    };
+    const font = new FakeFont(queue, this.where);
     this.format = {
       font,
       autofitColumns: () =>
@@ -167,6 +192,9 @@ class FakeRange implements HostRange {
           case "formulas":
             this.loaded.set(name, each((r, c) => workbook.entry(sheet, r, c)));
             break;
+          case "numberFormat":
+            this.loaded.set(name, each((r, c) => workbook.format(sheet, r, c).numberFormat));
+            break;
           default:
             throw new FakeApiError("InvalidArgument", `The demo sheet does not offer Range.${name}.`);
         }
@@ -194,7 +222,7 @@ class FakeRange implements HostRange {
     this.write(matrix);
   }
   get numberFormat(): unknown[][] {
-    throw new FakeApiError("PropertyNotLoaded", "The demo sheet does not read number formats back.");
+    return this.loaded.get("numberFormat", "Range");
   }
   set numberFormat(matrix: unknown[][]) {
     this.queue.add(() => {
@@ -241,6 +269,86 @@ class FakeRange implements HostRange {
       if (w) this.queue.workbook.select(w);
     });
   }
+
+  /** Microsoft, "Excel.Range class", clear(applyTo): "All" (the default) clears contents and formats. */
+  clear(applyTo: ClearWhat = "All"): void {
+    this.queue.add(() => {
+      const w = this.where();
+      if (!w) throw new FakeApiError("InvalidOperation", "This range does not exist.");
+      const { rows, columns } = rectSize(w.rect);
+      if (applyTo !== "Formats") this.queue.workbook.writeEntries(w.sheet, w.rect.top, w.rect.left, Array.from({ length: rows }, () => Array<string>(columns).fill("")));
+      if (applyTo !== "Contents") this.queue.workbook.setFormat(w.sheet, w.rect, { numberFormat: "General", bold: false, italic: false, color: null });
+    });
+  }
+
+  /**
+   * Per-cell font properties (Microsoft, "Excel.Range class", getCellProperties, ExcelApi 1.9); the
+   * answer is readable after the sync. An automatic font colour reads as "#000000" here.
+   */
+  getCellProperties(): { readonly value: CellFont[][] } {
+    const result = new Loaded();
+    this.queue.add(() => {
+      const w = this.where();
+      if (!w) throw new FakeApiError("InvalidOperation", "This range does not exist.");
+      const rows: CellFont[][] = [];
+      for (let r = w.rect.top; r <= w.rect.bottom; r++) {
+        const row: CellFont[] = [];
+        for (let c = w.rect.left; c <= w.rect.right; c++) {
+          const f = this.queue.workbook.format(w.sheet, r, c);
+          row.push({ format: { font: { bold: f.bold, italic: f.italic, color: f.color ?? "#000000" } } });
+        }
+        rows.push(row);
+      }
+      result.set("value", rows);
+    });
+    return {
+      get value(): CellFont[][] {
+        return result.get("value", "ClientResult");
+      },
+    };
+  }
+
+  /** Sets per-cell font properties; the array must have the range's shape (Microsoft, "Excel.Range class", setCellProperties). */
+  setCellProperties(properties: CellFont[][]): void {
+    const copy = properties.map((row) => [...row]);
+    this.queue.add(() => {
+      const w = this.where();
+      if (!w) throw new FakeApiError("InvalidOperation", "This range does not exist.");
+      checkShape(w.rect, copy);
+      copy.forEach((row, r) =>
+        row.forEach((cell, c) => {
+          const { bold, italic, color } = cell.format?.font ?? {};
+          const patch = { ...(bold === undefined ? {} : { bold }), ...(italic === undefined ? {} : { italic }), ...(color === undefined ? {} : { color }) };
+          const at = { top: w.rect.top + r, left: w.rect.left + c, bottom: w.rect.top + r, right: w.rect.left + c };
+          this.queue.workbook.setFormat(w.sheet, at, patch);
+        }),
+      );
+    });
+  }
+}
+
+/** Defined names of each demo workbook (Microsoft, "Excel.NamedItemCollection class"): lower-cased name to the name and its cells. */
+const definedNames = new WeakMap<Workbook, Map<string, { name: string; sheet: string; rect: CellRect }>>();
+
+function namesOf(workbook: Workbook): Map<string, { name: string; sheet: string; rect: CellRect }> {
+  let names = definedNames.get(workbook);
+  if (!names) definedNames.set(workbook, (names = new Map()));
+  return names;
+}
+
+/**
+ * Refuses a name Excel would refuse for a table or a defined name (Microsoft, "Rename an Excel table"
+ * and "Names in formulas"): it starts with a letter, underscore or backslash, holds letters, digits,
+ * points and underscores, is at most 255 characters, does not read as a cell reference, and is not
+ * already the name of a table or a defined name (they share one namespace, compared without case).
+ */
+function checkNewName(workbook: Workbook, name: string): void {
+  const shaped = /^[\p{L}_\\][\p{L}\p{N}._]*$/u.test(name) && name.length <= 255 && !/^[A-Za-z]{1,3}[0-9]+$/.test(name) && !/^[RrCc]$/.test(name);
+  if (!shaped) throw new FakeApiError("InvalidArgument", `${name} is not a valid name for a table or a defined name.`);
+  const key = name.toLowerCase();
+  if (workbook.tables.some((t) => t.name.toLowerCase() === key) || namesOf(workbook).has(key)) {
+    throw new FakeApiError("InvalidArgument", `The name ${name} is already in use in this workbook.`);
+  }
 }
 
 class FakeTable implements HostTable {
@@ -248,17 +356,29 @@ class FakeTable implements HostTable {
   private readonly columnsLoaded = new Loaded();
   readonly columns: { readonly items: HostTableColumn[]; load(propertyNames: string): unknown };
 
-  constructor(private readonly queue: Queue, private readonly model: () => TableModel) {
+  /** `model` answers null when there is no such table (a *OrNullObject proxy). */
+  constructor(private readonly queue: Queue, private readonly model: () => TableModel | null) {
     const columnsLoaded = this.columnsLoaded;
+    const existing = (): TableModel => {
+      const found = model();
+      if (found === null) throw new FakeApiError("ItemNotFound", "The table does not exist.");
+      return found;
+    };
     this.columns = {
       get items(): HostTableColumn[] {
         return columnsLoaded.get("items", "TableColumnCollection");
       },
       load: () => {
-        queue.add(() => columnsLoaded.set("items", queue.workbook.tableColumns(model()).map((name) => ({ name }))));
+        queue.add(() => columnsLoaded.set("items", queue.workbook.tableColumns(existing()).map((name) => ({ name }))));
         return this.columns;
       },
     };
+  }
+
+  private existing(): TableModel {
+    const found = this.model();
+    if (found === null) throw new FakeApiError("ItemNotFound", "The table does not exist.");
+    return found;
   }
 
   /** Marks the name as loaded already (items of a loaded collection come with what was asked for). */
@@ -270,34 +390,154 @@ class FakeTable implements HostTable {
     return this.loaded.get("name", "Table");
   }
 
-  /** A table offers only its name here, whatever is asked for. */
+  /** Renames the table; the new name follows Excel's rules for table names (see checkNewName). */
+  set name(value: string) {
+    this.queue.add(() => {
+      const table = this.existing();
+      if (table.name.toLowerCase() !== value.toLowerCase()) checkNewName(this.queue.workbook, value);
+      // The demo's model keeps the name read-only for everyone else; renaming is the API's job alone.
+      (table as { name: string }).name = value;
+    });
+  }
+
+  get isNullObject(): boolean {
+    return this.loaded.get("isNullObject", "Table");
+  }
+
+  /** A table offers only its name (and whether it exists) here, whatever is asked for. */
   load(): FakeTable {
-    this.queue.add(() => this.loaded.set("name", this.model().name));
+    this.queue.add(() => {
+      const table = this.model();
+      this.loaded.set("isNullObject", table === null);
+      this.loaded.set("name", table?.name ?? null);
+    });
     return this;
   }
 
   getRange(): FakeRange {
-    return new FakeRange(this.queue, () => ({ sheet: this.model().sheet, rect: this.model().rect }));
+    return new FakeRange(this.queue, () => {
+      const table = this.existing();
+      return { sheet: table.sheet, rect: table.rect };
+    });
+  }
+
+  /** Microsoft, "Excel.Table class", convertToRange(): the table goes, its cells and their contents stay. */
+  convertToRange(): FakeRange {
+    let was: { sheet: string; rect: CellRect } | null = null;
+    this.queue.add(() => {
+      const table = this.existing();
+      was = { sheet: table.sheet, rect: table.rect };
+      const tables = this.queue.workbook.tables;
+      tables.splice(tables.indexOf(table), 1);
+      this.queue.workbook.recalculate();
+    });
+    return new FakeRange(this.queue, () => was);
   }
 }
 
+/** Chart names of each demo workbook's charts ("Chart 1", ... as Excel names a new chart, unless renamed). */
+const chartNames = new WeakMap<ChartModel, string>();
+
+function chartName(workbook: Workbook, chart: ChartModel): string {
+  let name = chartNames.get(chart);
+  if (name === undefined) {
+    let n = workbook.charts.indexOf(chart) + 1;
+    while (workbook.charts.some((c) => c !== chart && chartNames.get(c) === `Chart ${n}`)) n++;
+    chartNames.set(chart, (name = `Chart ${n}`));
+  }
+  return name;
+}
+
 class FakeChart implements HostChart {
+  private readonly loaded = new Loaded();
   readonly title: { text: string };
-  constructor(private readonly queue: Queue, private readonly model: () => { title: string; from: string; to: string }) {
+  /** `model` answers null when there is no such chart (a *OrNullObject proxy). */
+  constructor(private readonly queue: Queue, private readonly model: () => ChartModel | null) {
+    const existing = (): ChartModel => this.existing();
     this.title = {
       get text(): string {
         throw new FakeApiError("PropertyNotLoaded", "The demo sheet does not read chart titles back.");
       },
       set text(value: string) {
-        queue.add(() => (model().title = value));
+        queue.add(() => (existing().title = value));
       },
     };
   }
-  setPosition(startCell: string, endCell?: string): void {
+  private existing(): ChartModel {
+    const found = this.model();
+    if (found === null) throw new FakeApiError("ItemNotFound", "The chart does not exist.");
+    return found;
+  }
+  preload(name: string): void {
+    this.loaded.set("name", name);
+  }
+  get name(): string {
+    return this.loaded.get("name", "Chart");
+  }
+  set name(value: string) {
+    this.queue.add(() => chartNames.set(this.existing(), value));
+  }
+  get isNullObject(): boolean {
+    return this.loaded.get("isNullObject", "Chart");
+  }
+  /** A chart offers only its name (and whether it exists) here, whatever is asked for. */
+  load(): FakeChart {
     this.queue.add(() => {
       const chart = this.model();
+      this.loaded.set("isNullObject", chart === null);
+      this.loaded.set("name", chart === null ? null : chartName(this.queue.workbook, chart));
+    });
+    return this;
+  }
+  setPosition(startCell: string, endCell?: string): void {
+    this.queue.add(() => {
+      const chart = this.existing();
       chart.from = startCell;
       chart.to = endCell ?? startCell;
+    });
+  }
+  /** Microsoft, "Excel.Chart class", delete(): the chart object goes; its source cells stay. */
+  delete(): void {
+    this.queue.add(() => {
+      const chart = this.existing();
+      const charts = this.queue.workbook.charts;
+      charts.splice(charts.indexOf(chart), 1);
+      this.queue.workbook.recalculate();
+    });
+  }
+}
+
+class FakeNamedItem implements HostNamedItem {
+  private readonly loaded = new Loaded();
+  constructor(private readonly queue: Queue, private readonly key: string) {}
+  preload(name: string): void {
+    this.loaded.set("name", name);
+  }
+  get name(): string {
+    return this.loaded.get("name", "NamedItem");
+  }
+  get isNullObject(): boolean {
+    return this.loaded.get("isNullObject", "NamedItem");
+  }
+  load(): FakeNamedItem {
+    this.queue.add(() => {
+      const found = namesOf(this.queue.workbook).get(this.key);
+      this.loaded.set("isNullObject", found === undefined);
+      this.loaded.set("name", found?.name ?? null);
+    });
+    return this;
+  }
+  /** The cells the name refers to (Microsoft, "Excel.NamedItem class", getRangeOrNullObject, ExcelApi 1.4). */
+  getRangeOrNullObject(): FakeRange {
+    return new FakeRange(this.queue, () => {
+      const found = namesOf(this.queue.workbook).get(this.key);
+      return found ? { sheet: found.sheet, rect: found.rect } : null;
+    });
+  }
+  /** Microsoft, "Excel.NamedItem class", delete(): the name goes; the cells it named stay. */
+  delete(): void {
+    this.queue.add(() => {
+      if (!namesOf(this.queue.workbook).delete(this.key)) throw new FakeApiError("ItemNotFound", "There is no such name.");
     });
   }
 }
@@ -320,7 +560,7 @@ class FakeWorksheet implements HostWorksheet {
           const items = workbook.tables
             .filter((t) => t.sheet === sheet)
             .map((t) => {
-              const proxy = new FakeTable(queue, () => t);
+              const proxy = new FakeTable(queue, () => (workbook.tables.includes(t) ? t : null));
               proxy.preload(t.name);
               return proxy;
             });
@@ -341,15 +581,35 @@ class FakeWorksheet implements HostWorksheet {
             throw new FakeApiError("InvalidOperation", thrown instanceof Error ? thrown.message : "The table could not be made.");
           }
         });
-        return new FakeTable(queue, () => {
-          if (created === null) throw new FakeApiError("InvalidOperation", "The table does not exist yet.");
-          return created;
-        });
+        return new FakeTable(queue, () => created);
       },
+      getItemOrNullObject: (name: string) =>
+        new FakeTable(queue, () => {
+          const sheet = sheetOrThrow(workbook, this.sheetName());
+          return workbook.tables.find((t) => t.sheet === sheet && t.name.toLowerCase() === name.toLowerCase()) ?? null;
+        }),
     };
+    const chartsLoaded = new Loaded();
     this.charts = {
+      get items(): HostChart[] {
+        return chartsLoaded.get("items", "ChartCollection");
+      },
+      load: () => {
+        queue.add(() => {
+          const sheet = sheetOrThrow(workbook, this.sheetName());
+          const items = workbook.charts
+            .filter((c) => c.sheet === sheet)
+            .map((c) => {
+              const proxy = new FakeChart(queue, () => (workbook.charts.includes(c) ? c : null));
+              proxy.preload(chartName(workbook, c));
+              return proxy;
+            });
+          chartsLoaded.set("items", items);
+        });
+        return this.charts;
+      },
       add: (type: "ColumnClustered", sourceData: HostRange) => {
-        let chart: { title: string; from: string; to: string } | null = null;
+        let chart: ChartModel | null = null;
         // The source range's address is only known once the queue runs; read it from a load queued now.
         const source = sourceData as FakeRange;
         source.load("address");
@@ -358,12 +618,15 @@ class FakeWorksheet implements HostWorksheet {
           if (!parsed) throw new FakeApiError("InvalidArgument", "The chart has no source range.");
           const { sheet = this.sheetName(), ...rect } = parsed;
           chart = workbook.addChart({ type, sheet: sheetOrThrow(workbook, sheet), source: rect, title: "", from: "", to: "" });
+          chartName(workbook, chart);
         });
-        return new FakeChart(queue, () => {
-          if (chart === null) throw new FakeApiError("InvalidOperation", "The chart does not exist yet.");
-          return chart;
-        });
+        return new FakeChart(queue, () => chart);
       },
+      getItemOrNullObject: (name: string) =>
+        new FakeChart(queue, () => {
+          const sheet = sheetOrThrow(workbook, this.sheetName());
+          return workbook.charts.find((c) => c.sheet === sheet && chartName(workbook, c) === name) ?? null;
+        }),
     };
   }
 
@@ -397,6 +660,44 @@ class FakeWorksheet implements HostWorksheet {
   }
 }
 
+/** The workbook's defined names (Microsoft, "Excel.NamedItemCollection class", ExcelApi 1.4 for add and getItemOrNullObject). */
+function fakeNames(queue: Queue): HostContext["workbook"]["names"] {
+  const loaded = new Loaded();
+  const names: HostContext["workbook"]["names"] = {
+    get items(): HostNamedItem[] {
+      return loaded.get("items", "NamedItemCollection");
+    },
+    load: () => {
+      queue.add(() =>
+        loaded.set(
+          "items",
+          [...namesOf(queue.workbook)].map(([key, { name }]) => {
+            const item = new FakeNamedItem(queue, key);
+            item.preload(name);
+            return item;
+          }),
+        ),
+      );
+      return names;
+    },
+    add: (name: string, reference: HostRange | string) => {
+      if (typeof reference === "string") throw new FakeApiError("InvalidArgument", "The demo sheet names ranges given as Range objects only.");
+      const range = reference as FakeRange;
+      range.load("address");
+      queue.add(() => {
+        checkNewName(queue.workbook, name);
+        const parsed = parseAddress(range.address);
+        if (!parsed || parsed.sheet === undefined) throw new FakeApiError("InvalidArgument", "A name needs a range on a sheet.");
+        const { sheet, ...rect } = parsed;
+        namesOf(queue.workbook).set(name.toLowerCase(), { name, sheet: queue.workbook.sheetName(sheet), rect });
+      });
+      return new FakeNamedItem(queue, name.toLowerCase());
+    },
+    getItemOrNullObject: (name: string) => new FakeNamedItem(queue, name.toLowerCase()),
+  };
+  return names;
+}
+
 class FakeContext implements HostContext {
   readonly queue: Queue;
   readonly workbook: HostContext["workbook"];
@@ -409,6 +710,7 @@ class FakeContext implements HostContext {
         getItem: (name: string) => new FakeWorksheet(queue, () => name),
         getActiveWorksheet: () => new FakeWorksheet(queue, () => workbook.selection.sheet),
       },
+      names: fakeNames(queue),
     };
   }
 
@@ -429,7 +731,16 @@ class FakeContext implements HostContext {
 export function fakeRun(workbook: Workbook): RunBatch {
   return async <T>(batch: (context: HostContext) => Promise<T>): Promise<T> => {
     const context = new FakeContext(workbook);
-    const result = await batch(context);
+    const pending: unknown = batch(context);
+    // Excel.run rejects a batch that does not return a promise (Microsoft, "Excel.run": the batch function
+    // "returns a promise"; the code and message are office-js's own, excel-web-16.00.debug.js).
+    if (typeof (pending as { then?: unknown } | null)?.then !== "function") {
+      throw new FakeApiError(
+        "RunMustReturnPromise",
+        'The batch function passed to the ".run" method didn\'t return a promise. The function must return a promise, so that any automatically-tracked objects can be released at the completion of the batch operation.',
+      );
+    }
+    const result = await (pending as Promise<T>);
     await context.sync();
     return result;
   };

@@ -14,12 +14,21 @@
  * Cost: each operation is one `run` with one or two `sync` round trips.
  */
 import { formatAddress, parseAddress, rectSize, type CellRect } from "./a1";
+import { BLOCK_NAME_PREFIX, type BlockMark, type PlannedWrite } from "./writePlan";
 
 export interface HostFont {
   bold: boolean;
   italic: boolean;
   color: string;
 }
+
+/** The font part of a cell's properties (Range.getCellProperties / setCellProperties, ExcelApi 1.9). */
+export interface CellFont {
+  readonly format?: { readonly font?: { readonly bold?: boolean; readonly italic?: boolean; readonly color?: string } };
+}
+
+/** What Range.clear can clear (Microsoft, "Excel.ClearApplyTo"). */
+export type ClearWhat = "All" | "Formats" | "Contents";
 
 export interface HostRange {
   readonly address: string;
@@ -32,6 +41,9 @@ export interface HostRange {
   getRow(row: number): HostRange;
   getColumn(column: number): HostRange;
   select(): void;
+  clear(applyTo?: ClearWhat): void;
+  getCellProperties(load: { format: { font: { bold: true; italic: true; color: true } } }): { readonly value: CellFont[][] };
+  setCellProperties(properties: CellFont[][]): void;
 }
 
 export interface HostTableColumn {
@@ -39,21 +51,45 @@ export interface HostTableColumn {
 }
 
 export interface HostTable {
-  readonly name: string;
+  name: string;
+  readonly isNullObject: boolean;
   readonly columns: { readonly items: HostTableColumn[]; load(propertyNames: string): unknown };
   getRange(): HostRange;
   load(propertyNames: string): unknown;
+  convertToRange(): HostRange;
 }
 
 export interface HostChart {
+  name: string;
+  readonly isNullObject: boolean;
   readonly title: { text: string };
   setPosition(startCell: string, endCell?: string): void;
+  load(propertyNames: string): unknown;
+  delete(): void;
+}
+
+export interface HostNamedItem {
+  readonly name: string;
+  readonly isNullObject: boolean;
+  load(propertyNames: string): unknown;
+  getRangeOrNullObject(): HostRange;
+  delete(): void;
 }
 
 export interface HostWorksheet {
   readonly name: string;
-  readonly tables: { readonly items: HostTable[]; add(address: string, hasHeaders: boolean): HostTable; load(propertyNames: string): unknown };
-  readonly charts: { add(type: "ColumnClustered", sourceData: HostRange, seriesBy?: "Auto" | "Columns" | "Rows"): HostChart };
+  readonly tables: {
+    readonly items: HostTable[];
+    add(address: string, hasHeaders: boolean): HostTable;
+    getItemOrNullObject(name: string): HostTable;
+    load(propertyNames: string): unknown;
+  };
+  readonly charts: {
+    readonly items: HostChart[];
+    add(type: "ColumnClustered", sourceData: HostRange, seriesBy?: "Auto" | "Columns" | "Rows"): HostChart;
+    getItemOrNullObject(name: string): HostChart;
+    load(propertyNames: string): unknown;
+  };
   getRange(address?: string): HostRange;
   getUsedRangeOrNullObject(valuesOnly?: boolean): HostRange;
   load(propertyNames: string): unknown;
@@ -63,6 +99,12 @@ export interface HostContext {
   readonly workbook: {
     getSelectedRange(): HostRange;
     readonly worksheets: { getItem(name: string): HostWorksheet; getActiveWorksheet(): HostWorksheet };
+    readonly names: {
+      readonly items: HostNamedItem[];
+      add(name: string, reference: HostRange | string, comment?: string): HostNamedItem;
+      getItemOrNullObject(name: string): HostNamedItem;
+      load(propertyNames: string): unknown;
+    };
   };
   sync(): Promise<unknown>;
 }
@@ -99,17 +141,6 @@ export interface BlockWrite extends SheetRect {
   readonly cautionRows: readonly number[];
 }
 
-/** A native chart of the data, linked to its range. */
-export interface ChartWrite {
-  readonly sheet: string;
-  /** A1 address (no sheet) of the source range, header row included so the series are named. */
-  readonly source: string;
-  readonly title: string;
-  /** Top-left and bottom-right cells the chart covers. */
-  readonly from: string;
-  readonly to: string;
-}
-
 /** Colour of the caution lines: #595959 on white is 7.0:1 (WCAG 2.1 contrast ratio, AAA for normal text). */
 export const CAUTION_COLOR = "#595959";
 
@@ -122,12 +153,28 @@ export interface Host {
   usedRect(sheet: string): Promise<CellRect | null>;
   /** The tables of a sheet. */
   tables(sheet: string): Promise<TableInfo[]>;
-  /** Turns a range with a header row into a table. */
-  createTable(target: SheetRect): Promise<TableInfo>;
-  /** Writes the block: formulas in one assignment, then formats. */
-  writeBlock(block: BlockWrite): Promise<void>;
-  addChart(chart: ChartWrite): Promise<void>;
+  /** The blocks the pane wrote earlier, found by their defined names. */
+  blocks(): Promise<BlockMark[]>;
+  /** Names a new table, chart or block name must avoid: every defined name, and the tables and charts of these sheets. */
+  takenNames(sheets: readonly string[]): Promise<string[]>;
+  /**
+   * Carries out a checked write in one batch. First reads the cells of
+   * `region` (the block's place and the earlier blocks it replaces) and asks
+   * `proceed` whether they are still what the person agreed to; then queues
+   * every change (earlier blocks cleared, tables made and named, formulas,
+   * number formats, fonts, the chart, the block's name) and syncs once. When
+   * the workbook refuses, what the batch changed is put back from what was
+   * read, and the report lists whatever could not be put back.
+   */
+  applyWrite(plan: PlannedWrite, region: readonly SheetRect[], proceed: (current: readonly CellsRead[]) => boolean): Promise<WriteReport>;
 }
+
+/** How a write ended: the cells changed since the person agreed (nothing written), written whole, or refused and undone. */
+export type WriteReport =
+  | { readonly kind: "changed"; readonly current: readonly CellsRead[] }
+  | { readonly kind: "written" }
+  /** `left` lists what the sheet still holds of this write; empty when it is exactly as before. */
+  | { readonly kind: "undone"; readonly reason: string; readonly left: readonly string[] };
 
 function parseSheetAddress(address: string, fallbackSheet: string): SheetRect {
   const parsed = parseAddress(address);
@@ -142,6 +189,180 @@ async function loadTable(context: HostContext, table: HostTable, sheet: string):
   range.load("address");
   await context.sync();
   return { name: table.name, sheet, rect: parseSheetAddress(range.address, sheet).rect, columns: table.columns.items.map((c) => c.name) };
+}
+
+/** Font properties read before a write so they can be put back. */
+const FONT_PROPERTIES = { format: { font: { bold: true, italic: true, color: true } } } as const;
+
+/** What the cells of a region held before a write: contents, number formats and fonts. */
+interface Snapshot extends CellsRead {
+  readonly numberFormat: unknown[][];
+  readonly fonts: CellFont[][];
+}
+
+type Attempt =
+  | { readonly kind: "changed"; readonly current: readonly CellsRead[] }
+  | { readonly kind: "written" }
+  | { readonly kind: "failed"; readonly snapshot: readonly Snapshot[]; readonly reason: string };
+
+function rangeOf(context: HostContext, part: SheetRect): HostRange {
+  return context.workbook.worksheets.getItem(part.sheet).getRange(formatAddress(part.rect));
+}
+
+async function readSnapshot(context: HostContext, region: readonly SheetRect[]): Promise<Snapshot[]> {
+  const reads = region.map((part) => {
+    const range = rangeOf(context, part);
+    range.load("values, formulas, numberFormat");
+    return { part, range, fonts: range.getCellProperties(FONT_PROPERTIES) };
+  });
+  await context.sync();
+  return reads.map(({ part, range, fonts }) => ({
+    sheet: part.sheet,
+    rect: part.rect,
+    values: range.values,
+    formulas: range.formulas,
+    numberFormat: range.numberFormat,
+    fonts: fonts.value,
+  }));
+}
+
+function refusal(thrown: unknown): string {
+  return thrown instanceof Error && thrown.message ? thrown.message : "the workbook gave no reason";
+}
+
+/** Queues every change of a write, in order: earlier blocks cleared, tables, cells, formats, chart, the block's name. */
+function queueWrite(context: HostContext, plan: PlannedWrite): { tables: HostTable[]; block: HostRange } {
+  const book = context.workbook;
+  for (const earlier of plan.replaces) {
+    rangeOf(context, earlier).clear("All");
+    book.names.getItemOrNullObject(earlier.name).delete();
+  }
+  const tables = plan.tables.map((t) => {
+    const made = book.worksheets.getItem(t.sheet).tables.add(formatAddress(t.rect, t.sheet), true);
+    made.name = t.name;
+    made.columns.load("items/name");
+    return made;
+  });
+  const { block } = plan;
+  const { rows, columns } = rectSize(block.rect);
+  if (block.formulas.length !== rows || block.formulas.some((r) => r.length !== columns)) {
+    throw new RangeError("the block's formulas do not match its target rectangle");
+  }
+  const range = rangeOf(context, block);
+  range.formulas = block.formulas;
+  range.numberFormat = block.numberFormats;
+  range.getColumn(0).format.font.bold = true;
+  for (const r of block.titleRows) range.getRow(r).format.font.bold = true;
+  for (const r of block.cautionRows) {
+    const line = range.getRow(r).format.font;
+    line.italic = true;
+    line.color = CAUTION_COLOR;
+  }
+  if (plan.chart) {
+    const { chart } = plan;
+    const sheet = book.worksheets.getItem(chart.sheet);
+    const made = sheet.charts.add("ColumnClustered", sheet.getRange(formatAddress(chart.source)), "Columns");
+    made.name = chart.name;
+    made.title.text = chart.title;
+    made.setPosition(formatAddress({ ...chart.area, bottom: chart.area.top, right: chart.area.left }), formatAddress({ ...chart.area, top: chart.area.bottom, left: chart.area.right }));
+  }
+  book.names.add(plan.blockName, range, "Evensplit result block");
+  return { tables, block: range };
+}
+
+/** A table whose columns Excel named otherwise than the plan expected would leave the block's references pointing at nothing. */
+function columnMismatch(plan: PlannedWrite, made: readonly HostTable[]): string | null {
+  for (let i = 0; i < plan.tables.length; i++) {
+    const got = made[i].columns.items.map((c) => c.name);
+    const wanted = plan.tables[i].columns;
+    if (got.length !== wanted.length || got.some((name, k) => name !== wanted[k])) {
+      return `the new table's columns came out named ${got.map((n) => `“${n}”`).join(", ")}, not as the header row reads`;
+    }
+  }
+  return null;
+}
+
+/** Puts back what a failed write changed, then reads the workbook again and lists whatever still differs. */
+async function undoWrite(run: RunBatch, plan: PlannedWrite, snapshot: readonly Snapshot[]): Promise<string[]> {
+  try {
+    await run(async (context) => {
+      const book = context.workbook;
+      const found = madeObjects(context, plan);
+      await context.sync();
+      for (const table of found.tables) if (!table.isNullObject) table.convertToRange();
+      if (found.chart && !found.chart.isNullObject) found.chart.delete();
+      if (!found.mark.isNullObject) found.mark.delete();
+      plan.replaces.forEach((earlier, i) => {
+        if (found.earlier[i].isNullObject) book.names.add(earlier.name, rangeOf(context, earlier), "Evensplit result block");
+      });
+      for (const part of snapshot) {
+        const range = rangeOf(context, part);
+        range.formulas = part.formulas;
+        range.numberFormat = part.numberFormat;
+        range.setCellProperties(part.fonts);
+      }
+      await context.sync();
+    });
+  } catch {
+    // Whatever could not be put back shows up in the reading below.
+  }
+  try {
+    return await run(async (context) => {
+      const found = madeObjects(context, plan);
+      const now = await readSnapshot(context, snapshot);
+      return [...cellsLeft(snapshot, now), ...objectsLeft(plan, found)];
+    });
+  } catch (thrown) {
+    return [`the sheet could not be read back (${refusal(thrown)}): look at ${snapshot.map((p) => formatAddress(p.rect, p.sheet)).join(" and ")}`];
+  }
+}
+
+/** The objects a write makes, looked up by the names it gave them (null objects where they do not exist). */
+function madeObjects(context: HostContext, plan: PlannedWrite): { tables: HostTable[]; chart: HostChart | null; mark: HostNamedItem; earlier: HostNamedItem[] } {
+  const book = context.workbook;
+  const tables = plan.tables.map((t) => book.worksheets.getItem(t.sheet).tables.getItemOrNullObject(t.name));
+  for (const table of tables) table.load("name");
+  const chart = plan.chart ? book.worksheets.getItem(plan.chart.sheet).charts.getItemOrNullObject(plan.chart.name) : null;
+  chart?.load("name");
+  const mark = book.names.getItemOrNullObject(plan.blockName);
+  mark.load("name");
+  const earlier = plan.replaces.map((b) => book.names.getItemOrNullObject(b.name));
+  for (const name of earlier) name.load("name");
+  return { tables, chart, mark, earlier };
+}
+
+function sameCell(a: unknown, b: unknown): boolean {
+  return JSON.stringify(a ?? "") === JSON.stringify(b ?? "");
+}
+
+/** The parts of a region whose cells differ from before, in words. */
+function cellsLeft(before: readonly Snapshot[], now: readonly Snapshot[]): string[] {
+  return before.flatMap((part, p) => {
+    const differ: string[] = [];
+    part.formulas.forEach((row, r) =>
+      row.forEach((formula, c) => {
+        const after = now[p];
+        const changed = !sameCell(formula, after.formulas[r]?.[c]) || !sameCell(part.numberFormat[r]?.[c], after.numberFormat[r]?.[c]) || !sameCell(part.fonts[r]?.[c], after.fonts[r]?.[c]);
+        if (changed) differ.push(formatAddress({ top: part.rect.top + r, left: part.rect.left + c, bottom: part.rect.top + r, right: part.rect.left + c }));
+      }),
+    );
+    if (differ.length === 0) return [];
+    const shown = differ.length > 6 ? `${differ.slice(0, 6).join(", ")} and ${differ.length - 6} more` : differ.join(", ");
+    return [`${differ.length} cells of ${formatAddress(part.rect, part.sheet)} differ from before (${shown})`];
+  });
+}
+
+function objectsLeft(plan: PlannedWrite, found: ReturnType<typeof madeObjects>): string[] {
+  const left: string[] = [];
+  plan.tables.forEach((t, i) => {
+    if (!found.tables[i].isNullObject) left.push(`table ${t.name} over ${formatAddress(t.rect, t.sheet)}`);
+  });
+  if (plan.chart && found.chart && !found.chart.isNullObject) left.push(`the chart ${plan.chart.name}`);
+  if (!found.mark.isNullObject) left.push(`the defined name ${plan.blockName}`);
+  plan.replaces.forEach((earlier, i) => {
+    if (found.earlier[i].isNullObject) left.push(`no defined name ${earlier.name} any more for the earlier block at ${formatAddress(earlier.rect, earlier.sheet)}`);
+  });
+  return left;
 }
 
 /**
@@ -194,41 +415,58 @@ export function createHost(run: RunBatch): Host {
         return found;
       }),
 
-    createTable: (target) =>
+    blocks: () =>
       run(async (context) => {
-        const table = context.workbook.worksheets.getItem(target.sheet).tables.add(formatAddress(target.rect, target.sheet), true);
-        return loadTable(context, table, target.sheet);
+        const names = context.workbook.names;
+        names.load("items/name");
+        await context.sync();
+        const ours = names.items.filter((n) => n.name.toLowerCase().startsWith(BLOCK_NAME_PREFIX.toLowerCase()));
+        const ranges = ours.map((n) => {
+          const range = n.getRangeOrNullObject();
+          range.load("address");
+          return range;
+        });
+        await context.sync();
+        return ours.flatMap((n, i) => (ranges[i].isNullObject ? [] : [{ name: n.name, ...parseSheetAddress(ranges[i].address, "") }]));
       }),
 
-    writeBlock: (block) =>
+    takenNames: (sheetNames) =>
       run(async (context) => {
-        const { rows, columns } = rectSize(block.rect);
-        if (block.formulas.length !== rows || block.formulas.some((r) => r.length !== columns)) {
-          throw new RangeError("the block's formulas do not match its target rectangle");
+        const names = context.workbook.names;
+        names.load("items/name");
+        const sheets = sheetNames.map((name) => context.workbook.worksheets.getItem(name));
+        for (const sheet of sheets) {
+          sheet.tables.load("items/name");
+          sheet.charts.load("items/name");
         }
-        const range = context.workbook.worksheets.getItem(block.sheet).getRange(formatAddress(block.rect));
-        range.formulas = block.formulas;
         await context.sync();
-        range.numberFormat = block.numberFormats;
-        range.getColumn(0).format.font.bold = true;
-        for (const r of block.titleRows) range.getRow(r).format.font.bold = true;
-        for (const r of block.cautionRows) {
-          const line = range.getRow(r).format.font;
-          line.italic = true;
-          line.color = CAUTION_COLOR;
-        }
-        range.getColumn(0).format.autofitColumns();
-        range.select();
-        await context.sync();
+        return [...names.items.map((n) => n.name), ...sheets.flatMap((sheet) => [...sheet.tables.items.map((t) => t.name), ...sheet.charts.items.map((c) => c.name)])];
       }),
 
-    addChart: (chart) =>
-      run(async (context) => {
-        const sheet = context.workbook.worksheets.getItem(chart.sheet);
-        const created = sheet.charts.add("ColumnClustered", sheet.getRange(chart.source), "Columns");
-        created.title.text = chart.title;
-        created.setPosition(chart.from, chart.to);
-        await context.sync();
-      }),
+    applyWrite: async (plan, region, proceed) => {
+      const attempt = await run(async (context): Promise<Attempt> => {
+        const snapshot = await readSnapshot(context, region);
+        const current = snapshot.map(({ sheet, rect, values, formulas }) => ({ sheet, rect, values, formulas }));
+        if (!proceed(current)) return { kind: "changed", current };
+        const queued = queueWrite(context, plan);
+        try {
+          await context.sync();
+        } catch (thrown) {
+          return { kind: "failed", snapshot, reason: refusal(thrown) };
+        }
+        const renamed = columnMismatch(plan, queued.tables);
+        if (renamed) return { kind: "failed", snapshot, reason: renamed };
+        try {
+          queued.block.getColumn(0).format.autofitColumns();
+          queued.block.select();
+          await context.sync();
+        } catch {
+          // The block is whole by now; a column width or the selection is no part of what was written.
+        }
+        return { kind: "written" };
+      });
+      if (attempt.kind !== "failed") return attempt;
+      return { kind: "undone", reason: attempt.reason, left: await undoWrite(run, plan, attempt.snapshot) };
+    },
   };
 }

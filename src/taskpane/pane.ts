@@ -20,7 +20,6 @@ import type { Alternative, SignTestMethod, SignedRankMethod, TieRule, ZeroRule }
 import { formatAddress, type CellRect } from "./a1";
 import { el, replaceChildren, show } from "./dom";
 import type { Host } from "./host";
-import type { FilledCell } from "./placement";
 import { nullBars } from "./plot";
 import { nullDistributionPlot, numberLinePlot } from "./plotView";
 import { blockPreview, type PreviewRow } from "./preview";
@@ -40,8 +39,11 @@ import {
   writeResult,
   type AnalyzedRange,
   type DataChoice,
+  type Consent,
   type ReferenceChoice,
+  type WriteOutcome,
 } from "./workflow";
+import { onSheet, wordingRequest } from "./writePlan";
 
 export interface PaneOptions {
   readonly host: Host;
@@ -69,7 +71,7 @@ interface State {
   targetEdited: boolean;
   chart: boolean;
   showNull: boolean;
-  confirm: { place: string; filled: readonly FilledCell[] } | null;
+  confirm: { place: string; consent: Consent } | null;
   busy: boolean;
 }
 
@@ -224,6 +226,8 @@ const ZERO_CHOICES: readonly Choice<ZeroRule>[] = [
 function hintFor<T extends string>(choices: readonly Choice<T>[], value: T): string {
   return choices.find((c) => c.value === value)?.hint ?? "";
 }
+
+const PAST_EDGE = "The block does not fit on the sheet there (1,048,576 rows, columns A to XFD): pick a top-left cell further up or to the left.";
 
 function errorMessage(thrown: unknown): string {
   return thrown instanceof Error && thrown.message ? thrown.message : "The workbook did not answer.";
@@ -653,59 +657,64 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
     return placeFromText(state.target, c[0].range.sheet, resultBlockRows(request).length);
   }
 
-  async function write(overwriteConfirmed: boolean): Promise<void> {
+  async function write(agreed: boolean): Promise<void> {
     const built = currentRequest();
     if (!built.ok || !dataReady() || state.busy) return;
     const target = targetPlace(built.request);
-    if (!target) {
-      setProblem(targetField, "Type a cell address such as E1 for the block’s top-left corner.");
+    if (!target || !onSheet(target.rect)) {
+      setProblem(targetField, target ? PAST_EDGE : "Type a cell address such as E1 for the block’s top-left corner.");
       targetField.control.focus();
+      say(target ? PAST_EDGE : "Type a cell address such as E1 for the block’s top-left corner.");
       return;
     }
+    const place = formatAddress(target.rect, target.sheet);
+    // Consent holds only for the place, and the cells, the person was shown.
+    const consent = agreed && state.confirm?.place === place ? state.confirm.consent : null;
     state.busy = true;
     refresh();
+    let outcome: WriteOutcome;
     try {
-      // A confirmation holds only for the place whose filled cells the person was shown.
-      const confirmed = overwriteConfirmed && state.confirm?.place === formatAddress(target.rect, target.sheet);
-      const outcome = await writeResult(host, {
-        choices: choices(),
-        reference: state.reference,
-        request: built.request,
-        target,
-        chart: state.chart,
-        overwriteConfirmed: confirmed,
-        calculate,
-      });
-      state.busy = false;
-      if (outcome.kind === "confirm") {
-        state.confirm = { place: formatAddress(target.rect, target.sheet), filled: outcome.filled };
-        refresh();
-        say(`${outcome.filled.length} of the cells at ${formatAddress(target.rect)} are not empty. Nothing was written yet.`);
-        confirmTitle.focus();
-        return;
-      }
-      if (outcome.kind === "refused") {
-        refresh();
-        setProblem(targetField, outcome.message);
-        targetField.control.focus();
-        say(outcome.message);
-        return;
-      }
-      state.confirm = null;
-      if (outcome.created.length > 0) {
-        state.reference = "exact";
-        referenceGroup.set("exact");
-        await rereadData();
-      }
-      refresh();
-      const chart = outcome.chartAt ? ` A chart was added at ${outcome.chartAt}.` : "";
-      const made = outcome.created.length > 0 ? ` The data became table ${outcome.created.map((t) => t.name).join(" and ")}.` : "";
-      say(`The block was written to ${outcome.address} as formulas; it recalculates when the data change.${made}${chart}`);
+      outcome = await writeResult(host, { choices: choices(), reference: state.reference, request: built.request, target, chart: state.chart, consent, calculate });
     } catch (thrown) {
+      // writeResult only throws before the workbook was changed: while reading it or planning.
       state.busy = false;
       refresh();
-      say(`The block was not written: ${errorMessage(thrown)}`);
+      say(`Nothing was written: ${errorMessage(thrown)}`);
+      return;
     }
+    state.busy = false;
+    if (outcome.kind === "confirm") {
+      state.confirm = { place, consent: outcome.consent };
+      refresh();
+      const count = outcome.consent.filled.length;
+      say(
+        outcome.changed
+          ? `The cells changed since they were listed, so nothing was written. Look at the list again: ${count} of them are not empty.`
+          : `${count} of the cells at ${formatAddress(target.rect)} are not empty. Nothing was written yet.`,
+      );
+      confirmTitle.focus();
+      return;
+    }
+    state.confirm = null;
+    if (outcome.kind === "refused" || outcome.kind === "undone") {
+      refresh();
+      if (outcome.kind === "refused") setProblem(targetField, outcome.message);
+      targetField.control.focus();
+      say(outcome.message);
+      return;
+    }
+    const chart = outcome.chartAt ? ` A chart was added at ${outcome.chartAt}.` : "";
+    const made = outcome.created.length > 0 ? ` The data became table ${outcome.created.map((t) => t.name).join(" and ")}.` : "";
+    const cleared = outcome.replaced.length > 0 ? ` The earlier block at ${outcome.replaced.map((b) => formatAddress(b.rect)).join(" and ")} was cleared first.` : "";
+    const written = `The block was written to ${outcome.address} as formulas; it recalculates when the data change.${cleared}${made}${chart}`;
+    say(written);
+    if (outcome.created.length > 0) {
+      state.reference = "exact";
+      referenceGroup.set("exact");
+      await rereadData();
+      say(written);
+    }
+    refresh();
   }
 
   // ---- Refresh: bring every dynamic part in line with the state ------------
@@ -826,7 +835,7 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
     }
     const c = choices();
     const refs = blockRefs(c, state.reference, [], c[0].range.sheet);
-    preview = blockPreview(built.request, blockInputs(c), refs, calculate);
+    preview = blockPreview(wordingRequest(built.request), blockInputs(c), refs, calculate);
     replaceChildren(
       previewBody,
       ...preview.map((row) =>
@@ -855,11 +864,12 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
     if (state.showNull && countTest && bars.length === 0) nullBox.appendChild(el("p", { class: "es-hint" }, "Too many values to draw the distribution."));
 
     const target = targetPlace(request);
+    const fits = target !== null && onSheet(target.rect);
     if (targetField.control.value !== state.target) targetField.control.value = state.target;
-    targetField.hint.textContent = target
+    targetField.hint.textContent = fits
       ? `The block takes 2 columns × ${preview.length} rows: ${formatAddress(target.rect, target.sheet)}.${state.targetEdited ? "" : " Suggested: the first empty area to the right of the data."}`
-      : "Type the cell for the block’s top-left corner, such as E1.";
-    setProblem(targetField, state.target.trim() !== "" && !target ? "That is not a cell address; type one such as E1." : null);
+      : `The block takes 2 columns × ${preview.length} rows; type the cell for its top-left corner, such as E1.`;
+    setProblem(targetField, state.target.trim() === "" ? null : !target ? "That is not a cell address; type one such as E1." : fits ? null : PAST_EDGE);
     referenceRecap.textContent = referenceSentence(c, referenceOptions(c));
     const source = chartSource(c, []);
     chartCheck.disabled = source === null;
@@ -874,9 +884,8 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
     writeButton.disabled = state.busy;
     writeButton.setAttribute("aria-busy", state.busy ? "true" : "false");
     show(confirmBox, state.confirm !== null);
-    replaceChildren(confirmList, ...(state.confirm?.filled ?? []).slice(0, 12).map((f) => el("li", undefined, el("strong", undefined, f.address), ": ", f.content)));
-    const more = (state.confirm?.filled.length ?? 0) - 12;
-    if (more > 0) confirmList.appendChild(el("li", undefined, `and ${more} more`));
+    // Every filled cell is listed: the agreement covers exactly what is shown here.
+    replaceChildren(confirmList, ...(state.confirm?.consent.filled ?? []).map((f) => el("li", undefined, el("strong", undefined, f.address), ": ", f.content)));
   }
 
   function refresh(showStepProblems = false): void {

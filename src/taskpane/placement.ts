@@ -25,6 +25,20 @@ function empty(x: unknown): boolean {
 
 const SHOWN_LENGTH = 40;
 
+/** The non-empty cells of a read in reading order: address and whole content (the formula, else the value shown). */
+function nonEmpty(read: CellsRead): { address: string; shown: string }[] {
+  const found: { address: string; shown: string }[] = [];
+  read.values.forEach((row, r) =>
+    row.forEach((value, c) => {
+      const formula = read.formulas[r]?.[c];
+      if (empty(value) && empty(formula)) return;
+      const cell = { top: read.rect.top + r, left: read.rect.left + c, bottom: read.rect.top + r, right: read.rect.left + c };
+      found.push({ address: formatAddress(cell), shown: String(empty(formula) ? value : formula) });
+    }),
+  );
+  return found;
+}
+
 /**
  * The cells of a read that are not empty, in reading order.
  *
@@ -33,17 +47,19 @@ const SHOWN_LENGTH = 40;
  * // [{ address: "F1", content: "3" }]
  */
 export function filledCells(read: CellsRead): FilledCell[] {
-  const found: FilledCell[] = [];
-  read.values.forEach((row, r) =>
-    row.forEach((value, c) => {
-      const formula = read.formulas[r]?.[c];
-      if (empty(value) && empty(formula)) return;
-      const shown = String(empty(formula) ? value : formula);
-      const cell = { top: read.rect.top + r, left: read.rect.left + c, bottom: read.rect.top + r, right: read.rect.left + c };
-      found.push({ address: formatAddress(cell), content: shown.length > SHOWN_LENGTH ? `${shown.slice(0, SHOWN_LENGTH - 1)}…` : shown });
-    }),
-  );
-  return found;
+  return nonEmpty(read).map(({ address, shown }) => ({ address, content: shown.length > SHOWN_LENGTH ? `${shown.slice(0, SHOWN_LENGTH - 1)}…` : shown }));
+}
+
+/**
+ * What each non-empty cell of a read holds, whole, in the order of `filledCells`: the record
+ * against which a later read is compared, so that consent covers exactly what was shown.
+ *
+ * @example
+ * cellContents({ sheet: "S", rect: { top: 0, left: 4, bottom: 0, right: 5 }, values: [["", 0.5]], formulas: [["", "=A1/2"]] });
+ * // ["F1\u0000=A1/2"]
+ */
+export function cellContents(read: CellsRead): string[] {
+  return nonEmpty(read).map(({ address, shown }) => `${address}\u0000${shown}`);
 }
 
 /**

@@ -14,10 +14,11 @@
 import type { BlockInputs, BlockRequest, CatalogueCall } from "../report/resultBlock";
 import { formatAddress, LAST_ROW, parseAddress, rectsOverlap, type CellRect } from "./a1";
 import { headerName, tablePlace, tallyCells, type CellTally, type TablePlace } from "./dataInfo";
-import type { Host, TableInfo } from "./host";
-import { blockRect, filledCells, firstFreeColumn, type FilledCell } from "./placement";
+import type { CellsRead, Host, SheetRect, TableInfo } from "./host";
+import { blockRect, cellContents, filledCells, firstFreeColumn, type FilledCell } from "./placement";
 import { blockPreview, blockWrite, type BlockRefs, type PreviewRow } from "./preview";
 import { absoluteReference, openEnded, structuredReference } from "./references";
+import { BLOCK_NAME_PREFIX, freeName, onSheet, tableHeaderProblem, wordingName, wordingRequest, writeProblem, type BlockMark, type PlannedChart, type PlannedWrite } from "./writePlan";
 
 /** A range as read for the pane. */
 export interface AnalyzedRange {
@@ -279,20 +280,33 @@ export function chartSource(choices: readonly DataChoice[], created: readonly Ta
   return { sheet: a.sheet, rect: { top: a.rect.top, bottom: a.rect.bottom, left: Math.min(a.rect.left, b.rect.left), right: Math.max(a.rect.right, b.rect.right) } };
 }
 
+/** What the person was shown and agreed to replace: the cells of the place (and of the earlier block it replaces) as they were listed. */
+export interface Consent {
+  readonly region: readonly SheetRect[];
+  /** The filled cells as listed for the person. */
+  readonly filled: readonly FilledCell[];
+  /** Every filled cell with its whole content, to see whether anything changed since the listing. */
+  readonly contents: readonly string[];
+}
+
 export interface WritePlan {
   readonly choices: readonly DataChoice[];
   readonly reference: ReferenceChoice;
   readonly request: BlockRequest;
-  readonly target: { readonly sheet: string; readonly rect: CellRect };
+  readonly target: SheetRect;
   readonly chart: boolean;
-  /** The person has seen the list of filled cells at this place and agreed to overwrite them. */
-  readonly overwriteConfirmed: boolean;
+  /** The listing the person agreed to overwrite, or null when nothing was listed yet. */
+  readonly consent: Consent | null;
   readonly calculate: CatalogueCall;
 }
 
 export type WriteOutcome =
-  | { readonly kind: "confirm"; readonly filled: readonly FilledCell[] }
+  /** Filled cells to show before writing; `changed` when they differ from a listing the person had agreed to. */
+  | { readonly kind: "confirm"; readonly consent: Consent; readonly changed: boolean }
+  /** Nothing was done: the write would not work as planned. */
   | { readonly kind: "refused"; readonly message: string }
+  /** The workbook refused part-way; what the write changed was put back (`clean`) or `message` says what remains. */
+  | { readonly kind: "undone"; readonly message: string; readonly clean: boolean }
   | {
       readonly kind: "written";
       readonly address: string;
@@ -300,38 +314,134 @@ export type WriteOutcome =
       readonly created: readonly TableInfo[];
       readonly rows: readonly PreviewRow[];
       readonly chartAt: string | null;
+      /** Earlier blocks this one replaced, whose regions were cleared. */
+      readonly replaced: readonly BlockMark[];
     };
 
+function headerRow(choices: readonly DataChoice[], table: SheetRect): string[] {
+  const columns: string[] = [];
+  for (let c = table.rect.left; c <= table.rect.right; c++) {
+    const owner = choices.find((choice) => choice.range.sheet === table.sheet && choice.range.rect.top === table.rect.top && c >= choice.range.rect.left && c <= choice.range.rect.right);
+    const cell = owner?.range.values[0]?.[c - owner.range.rect.left];
+    columns.push(cell === undefined || cell === null ? "" : String(cell));
+  }
+  return columns;
+}
+
+function sameSheet(a: string, b: string): boolean {
+  return a.toLowerCase() === b.toLowerCase();
+}
+
 /**
- * Writes the block: refuses a place that covers the data; asks first when
- * any target cell is filled; makes the agreed tables; writes the formulas in
- * one assignment, then the formats; adds the chart when asked.
+ * Plans the whole write without touching the workbook: the tables to make
+ * (named now, so the formulas can refer to them), the block's cells and
+ * formats with the names shortened in the wording, the chart, the block's
+ * own defined name and the earlier blocks it replaces; then checks all of it
+ * against Excel's limits (writePlan.ts).
  *
  * @example
- * const outcome = await writeResult(host, plan); // { kind: "confirm", filled: [{ address: "E3", content: "note" }] }
- * if (outcome.kind === "confirm") await writeResult(host, { ...plan, overwriteConfirmed: true });
+ * planWrite(plan, ["Table1"], []); // { ok: true, write: { tables: [], blockName: "Evensplit_block_1", ... } }
+ * planWrite({ ...plan, target: { sheet, rect: { top: 0, left: 16383, bottom: 19, right: 16384 } } }, [], []); // { ok: false, message: "The block does not fit ..." }
+ */
+export function planWrite(plan: WritePlan, taken: readonly string[], earlier: readonly BlockMark[]): { ok: true; write: PlannedWrite } | { ok: false; message: string } {
+  const { target } = plan;
+  const names = [...taken];
+  const tables: TableInfo[] = [];
+  if (plan.reference === "table") {
+    for (const t of tablesToCreate(plan.choices)) {
+      const columns = headerRow(plan.choices, t);
+      const problem = tableHeaderProblem(columns);
+      if (problem) return { ok: false, message: `${formatAddress(t.rect)} cannot become a table as it stands: ${problem}.` };
+      const name = freeName("Table", names);
+      names.push(name);
+      tables.push({ name, sheet: t.sheet, rect: t.rect, columns });
+    }
+  }
+  const refs = blockRefs(plan.choices, plan.reference, tables, target.sheet);
+  const rows = blockPreview(wordingRequest(plan.request), blockInputs(plan.choices), refs, plan.calculate);
+  const block = blockWrite(rows, target.sheet, target.rect);
+  const blockName = freeName(BLOCK_NAME_PREFIX, names);
+  names.push(blockName);
+  const source = plan.chart ? chartSource(plan.choices, tables) : null;
+  let chart: PlannedChart | null = null;
+  if (source) {
+    const titles = plan.choices.map((c) => bodyOf(c).name).filter((n): n is string => n !== undefined).map((n) => wordingName(n));
+    const area = { top: target.rect.top, left: target.rect.right + 2, bottom: target.rect.top + 14, right: target.rect.right + 8 };
+    chart = { sheet: source.sheet, source: source.rect, title: titles.length > 0 ? titles.join(" and ") : "Data", area, name: freeName("Evensplit chart ", names) };
+  }
+  const replaces = earlier.filter((b) => sameSheet(b.sheet, target.sheet) && rectsOverlap(b.rect, target.rect));
+  const write: PlannedWrite = { tables, refs, rows, block, chart, blockName, replaces };
+  const problem = writeProblem(write);
+  return problem ? { ok: false, message: problem } : { ok: true, write };
+}
+
+function consentFor(region: readonly SheetRect[], reads: readonly CellsRead[]): Consent {
+  const seen = new Set<string>();
+  const filled: FilledCell[] = [];
+  const contents: string[] = [];
+  for (const read of reads) {
+    const full = cellContents(read);
+    filledCells(read).forEach((cell, i) => {
+      if (seen.has(cell.address)) return;
+      seen.add(cell.address);
+      filled.push(cell);
+      contents.push(full[i]);
+    });
+  }
+  return { region, filled, contents };
+}
+
+function sameContents(a: Consent, b: Consent): boolean {
+  return a.contents.length === b.contents.length && a.contents.every((c, i) => c === b.contents[i]);
+}
+
+function sameRegion(a: Consent, b: Consent): boolean {
+  return a.region.length === b.region.length && a.region.every((r, i) => sameSheet(r.sheet, b.region[i].sheet) && formatAddress(r.rect) === formatAddress(b.region[i].rect));
+}
+
+function undoneMessage(reason: string, left: readonly string[]): string {
+  if (left.length === 0) {
+    return `Excel refused part of the write (${reason}). Everything this write had changed was put back: the sheet holds exactly what it held before, with no new table, chart or name.`;
+  }
+  return `Excel refused part of the write (${reason}), and not all of it could be put back. The sheet now holds: ${left.join("; ")}. Check these before writing again.`;
+}
+
+/**
+ * Writes the block: refuses a place that covers the data or does not fit;
+ * plans and checks the whole write; lists the filled cells of the place (and
+ * of an earlier block it replaces) and asks first; then hands the plan to the
+ * host, which writes it in one batch only if those cells are still exactly as
+ * listed, and undoes it when the workbook refuses part-way.
+ *
+ * @example
+ * const outcome = await writeResult(host, plan); // { kind: "confirm", consent: { filled: [{ address: "E3", content: "note" }], ... }, changed: false }
+ * if (outcome.kind === "confirm") await writeResult(host, { ...plan, consent: outcome.consent });
  */
 export async function writeResult(host: Host, plan: WritePlan): Promise<WriteOutcome> {
   const { target } = plan;
-  const covered = plan.choices.some((c) => c.range.sheet.toLowerCase() === target.sheet.toLowerCase() && rectsOverlap(c.range.rect, target.rect));
-  if (covered) return { kind: "refused", message: "The block would cover the data. Pick a place beside it." };
-  const current = await host.read(formatAddress(target.rect, target.sheet));
-  if (!current) return { kind: "refused", message: "The place for the block could not be read: check the sheet name." };
-  const filled = filledCells(current);
-  if (filled.length > 0 && !plan.overwriteConfirmed) return { kind: "confirm", filled };
-  const created: TableInfo[] = [];
-  if (plan.reference === "table") for (const t of tablesToCreate(plan.choices)) created.push(await host.createTable(t));
-  const refs = blockRefs(plan.choices, plan.reference, created, current.sheet);
-  const rows = blockPreview(plan.request, blockInputs(plan.choices), refs, plan.calculate);
-  await host.writeBlock(blockWrite(rows, current.sheet, current.rect));
-  let chartAt: string | null = null;
-  const source = plan.chart ? chartSource(plan.choices, created) : null;
-  if (source) {
-    const from = formatAddress({ top: current.rect.top, left: current.rect.right + 2, bottom: current.rect.top, right: current.rect.right + 2 });
-    const to = formatAddress({ top: current.rect.top + 14, left: current.rect.right + 8, bottom: current.rect.top + 14, right: current.rect.right + 8 });
-    const names = plan.choices.map((c) => bodyOf(c).name).filter((n): n is string => n !== undefined);
-    await host.addChart({ sheet: source.sheet, source: formatAddress(source.rect), title: names.length > 0 ? names.join(" and ") : "Data", from, to });
-    chartAt = from;
+  if (!onSheet(target.rect)) {
+    return { kind: "refused", message: "The block does not fit on the sheet there (1,048,576 rows, columns A to XFD): pick a top-left cell further up or to the left." };
   }
-  return { kind: "written", address: formatAddress(current.rect, current.sheet), refs, created, rows, chartAt };
+  const covered = plan.choices.some((c) => sameSheet(c.range.sheet, target.sheet) && rectsOverlap(c.range.rect, target.rect));
+  if (covered) return { kind: "refused", message: "The block would cover the data. Pick a place beside it." };
+  const place = await host.read(formatAddress(target.rect, target.sheet));
+  if (!place) return { kind: "refused", message: "The place for the block could not be read: check the sheet name." };
+  const sheets = [...new Set([place.sheet, ...plan.choices.map((c) => c.range.sheet)])];
+  const planned = planWrite({ ...plan, target: { sheet: place.sheet, rect: place.rect } }, await host.takenNames(sheets), await host.blocks());
+  if (!planned.ok) return { kind: "refused", message: planned.message };
+  const { write } = planned;
+  const region: SheetRect[] = [{ sheet: place.sheet, rect: place.rect }, ...write.replaces.map((b) => ({ sheet: b.sheet, rect: b.rect }))];
+  const reads: CellsRead[] = [place];
+  for (const earlier of write.replaces) {
+    const read = await host.read(formatAddress(earlier.rect, earlier.sheet));
+    if (read) reads.push(read);
+  }
+  const listing = consentFor(region, reads);
+  const agreed = plan.consent !== null && sameRegion(plan.consent, listing) && sameContents(plan.consent, listing);
+  if (listing.filled.length > 0 && !agreed) return { kind: "confirm", consent: listing, changed: plan.consent !== null };
+  const report = await host.applyWrite(write, region, (current) => sameContents(consentFor(region, current), listing));
+  if (report.kind === "changed") return { kind: "confirm", consent: consentFor(region, report.current), changed: true };
+  if (report.kind === "undone") return { kind: "undone", message: undoneMessage(report.reason, report.left), clean: report.left.length === 0 };
+  const chartAt = write.chart ? formatAddress({ ...write.chart.area, bottom: write.chart.area.top, right: write.chart.area.left }) : null;
+  return { kind: "written", address: formatAddress(place.rect, place.sheet), refs: write.refs, created: write.tables, rows: write.rows, chartAt, replaced: write.replaces };
 }

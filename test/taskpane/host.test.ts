@@ -6,21 +6,10 @@
  */
 import { OfficeMockObject } from "office-addin-mock";
 import { describe, expect, it } from "vitest";
-import { CAUTION_COLOR, createHost, type RunBatch } from "../../src/taskpane/host";
-import { workbookMock } from "./officeMock";
+import { createHost, type HostContext, type RunBatch } from "../../src/taskpane/host";
+import type { PlannedWrite } from "../../src/taskpane/writePlan";
+import { itemsCollection, workbookMock } from "./officeMock";
 
-/** office-addin-mock only loads properties it knows; collections' items are given as plain, already loaded objects. */
-function itemsCollection(items: unknown[], extra: Record<string, unknown> = {}): Record<string, unknown> {
-  return {
-    items,
-    ...extra,
-    load(this: OfficeMockObject) {
-      // "items/name" navigates into an array, which the mock cannot; load the array itself instead.
-      OfficeMockObject.prototype.load.call(this, "items");
-      return this;
-    },
-  };
-}
 
 function plainTable(name: string, address: string, columns: string[]): Record<string, unknown> {
   return {
@@ -107,110 +96,135 @@ describe("host over office-addin-mock", () => {
     expect(tables).toEqual([{ name: "Table1", sheet: "Paint line", rect: { top: 0, left: 0, bottom: 24, right: 2 }, columns: ["Panel", "Thickness (µm)", "After"] }]);
   });
 
-  it("turns a range into a table with a header row (TableCollection.add(address, true))", async () => {
-    const calls: unknown[][] = [];
-    const sheet = {
-      name: "Paint line",
-      tables: itemsCollection([], {
-        add: (address: string, hasHeaders: boolean) => {
-          calls.push([address, hasHeaders]);
-          return plainTable("Table1", "'Paint line'!B1:B25", ["Thickness (µm)"]);
-        },
-      }),
+  it("finds the pane's earlier blocks by their defined names, skipping other names and names of no range", async () => {
+    // Items of a loaded collection are plain objects here (see itemsCollection), so their ranges are too.
+    const named = (name: string, address: string, isNullObject = false): Record<string, unknown> => {
+      const range = { address, isNullObject, load: () => undefined };
+      return { name, load: () => undefined, getRangeOrNullObject: () => range };
     };
-    const made = await createHost(mockRun(workbookMock(sheet))).createTable({ sheet: "Paint line", rect: { top: 0, left: 1, bottom: 24, right: 1 } });
-    expect(calls).toEqual([["'Paint line'!B1:B25", true]]);
-    expect(made.name).toBe("Table1");
-    expect(made.columns).toEqual(["Thickness (µm)"]);
+    const names = [named("Evensplit_block_1", "'Paint line'!$E$1:$F$20"), named("Prices", "'Paint line'!$A$1"), named("Evensplit_block_2", "", true)];
+    const host = createHost(mockRun(workbookMock({ name: "Paint line" }, undefined, names)));
+    expect(await host.blocks()).toEqual([{ name: "Evensplit_block_1", sheet: "Paint line", rect: { top: 0, left: 4, bottom: 19, right: 5 } }]);
   });
 
-  it("writes the block's formulas in one assignment before any format, then formats rows and columns", async () => {
-    const log: string[] = [];
-    const font = () => ({ bold: false, italic: false, color: "" });
-    const target = {
-      address: "'Paint line'!E1:F3",
-      formulas: [],
-      numberFormat: [],
-      format: { font: font() },
-      rows: { r0: { format: { font: font() } }, r2: { format: { font: font() } } },
-      column0: { format: { font: font(), autofitColumns: () => log.push("autofit") } },
-      getRow(this: { rows: Record<string, unknown> }, i: number) {
-        return this.rows[`r${i}`];
+  it("lists the names a new table, chart or block must avoid: defined names, tables and charts of the sheets", async () => {
+    const sheet = { name: "Paint line", tables: itemsCollection([{ name: "Panels" }]), charts: itemsCollection([{ name: "Chart 1" }]) };
+    const host = createHost(mockRun(workbookMock(sheet, undefined, [{ name: "Target" }])));
+    expect(await host.takenNames(["Paint line"])).toEqual(["Target", "Panels", "Chart 1"]);
+  });
+});
+
+/**
+ * A recording double of the request context: every property set and method
+ * call is logged in order, `sync` is logged, and loaded properties answer
+ * from `answers`. It stands for Excel's batching model (Microsoft, "Excel
+ * JavaScript object model in Office Add-ins": calls are queued and carried
+ * out at sync), so the order of the log is the order Excel would see.
+ */
+function recordingRun(log: string[], answers: (path: string) => unknown): RunBatch {
+  const describe = (a: unknown): string => (typeof a === "function" ? "<object>" : JSON.stringify(a));
+  const make = (path: string): unknown =>
+    new Proxy(function () {}, {
+      get(_target, key) {
+        if (typeof key === "symbol" || key === "then") return undefined;
+        const at = `${path}.${key}`;
+        if (at === "context.sync") {
+          return async () => {
+            log.push("sync");
+          };
+        }
+        const answer = answers(at);
+        return answer === undefined ? make(at) : answer;
       },
-      getColumn(this: { column0: unknown }) {
-        return this.column0;
+      set(_target, key, value) {
+        log.push(`${path.replace(/^context\.workbook\./, "")}.${String(key)} = ${describe(value)}`);
+        return true;
       },
-      select: () => log.push("select"),
-    };
-    const sheet = {
-      name: "Paint line",
-      target,
-      getRange(this: { target: unknown }, address: string) {
-        log.push(`getRange ${address}`);
-        return this.target;
+      apply(_target, _this, args: unknown[]) {
+        const at = `${path}(${args.map(describe).join(",")})`;
+        log.push(at.replace(/^context\.workbook\./, ""));
+        return make(at);
       },
-    };
-    const mock = workbookMock(sheet);
-    const context = (mock as unknown as { context: { sync: () => Promise<void> } }).context;
-    const realSync = context.sync.bind(context);
-    const range = (mock as unknown as { context: { workbook: { worksheets: { sheet: { target: { formulas: unknown; numberFormat: unknown } } } } } }).context.workbook.worksheets.sheet.target;
-    context.sync = async () => {
-      log.push(`sync formulas=${JSON.stringify(range.formulas)} formats=${JSON.stringify(range.numberFormat)}`);
-      await realSync();
-    };
-    await createHost(mockRun(mock)).writeBlock({
-      sheet: "Paint line",
-      rect: { top: 0, left: 4, bottom: 2, right: 5 },
-      formulas: [["Evensplit result", "Sign test, one sample"], ["p-value", "=EVENSPLIT.PVALUE($B$2:$B$25,50)"], ["Assumptions", "Independent observations."]],
-      numberFormats: [["General", "General"], ["General", "[<0.0001]0.00E+00;0.0000"], ["General", "General"]],
-      titleRows: [0],
-      cautionRows: [2],
     });
-    // The first sync carries the formulas alone; the formats follow in the second.
-    expect(log[0]).toBe("getRange E1:F3");
-    expect(log[1]).toMatch(/^sync formulas=\[\["Evensplit result".*formats="Error, property was not loaded"$/);
-    expect(log[log.length - 1]).toMatch(/^sync formulas=.*formats=\[\["General","General"\]/);
-    const sheetMock = (mock as unknown as { context: { workbook: { worksheets: { sheet: { target: typeof target } } } } }).context.workbook.worksheets.sheet;
-    expect(sheetMock.target.column0.format.font.bold).toBe(true);
-    expect((sheetMock.target.rows.r0 as { format: { font: { bold: boolean } } }).format.font.bold).toBe(true);
-    const caution = (sheetMock.target.rows.r2 as { format: { font: { italic: boolean; color: string } } }).format.font;
-    expect(caution.italic).toBe(true);
-    expect(caution.color).toBe(CAUTION_COLOR);
-    expect(log).toContain("autofit");
-    expect(log).toContain("select");
+  return (batch) => batch(make("context") as HostContext);
+}
+
+const PLAN: PlannedWrite = {
+  tables: [{ name: "Table1", sheet: "Paint line", rect: { top: 0, left: 1, bottom: 24, right: 1 }, columns: ["Thickness (µm)"] }],
+  refs: { data: "Table1[[Thickness (µm)]]" },
+  rows: [],
+  block: {
+    sheet: "Paint line",
+    rect: { top: 0, left: 4, bottom: 1, right: 5 },
+    formulas: [["Evensplit result", "Sign test, one sample"], ["p-value", '=EVENSPLIT.PVALUE(Table1[[Thickness (µm)]],50,"greater")']],
+    numberFormats: [["General", "General"], ["General", "[<0.0001]0.00E+00;0.0000"]],
+    titleRows: [0],
+    cautionRows: [1],
+  },
+  chart: { sheet: "Paint line", source: { top: 0, left: 1, bottom: 24, right: 1 }, title: "Thickness (µm)", area: { top: 0, left: 7, bottom: 14, right: 13 }, name: "Evensplit chart 1" },
+  blockName: "Evensplit_block_1",
+  replaces: [{ name: "Evensplit_block_0", sheet: "Paint line", rect: { top: 0, left: 4, bottom: 2, right: 5 } }],
+};
+
+const REGION = [
+  { sheet: "Paint line", rect: { top: 0, left: 4, bottom: 1, right: 5 } },
+  { sheet: "Paint line", rect: { top: 0, left: 4, bottom: 2, right: 5 } },
+];
+
+function regionAnswers(path: string): unknown {
+  const rows = /getRange\("E1:F(\d)"\)/.exec(path);
+  const height = rows ? Number(rows[1]) : 0;
+  if (/getRange\("E1:F\d"\)\.(values|formulas)$/.test(path)) return Array.from({ length: height }, () => ["", ""]);
+  if (/getRange\("E1:F\d"\)\.numberFormat$/.test(path)) return Array.from({ length: height }, () => ["General", "General"]);
+  if (/getCellProperties\(.*\)\.value$/.test(path)) return Array.from({ length: height }, () => [{ format: { font: { bold: false } } }, { format: { font: { bold: false } } }]);
+  if (path.endsWith(".columns.items")) return [{ name: "Thickness (µm)" }];
+  return undefined;
+}
+
+describe("one write, one batch", () => {
+  it("reads the region, then queues every change in order (earlier block cleared, table, cells, formats, chart, name) and syncs once", async () => {
+    const log: string[] = [];
+    const report = await createHost(recordingRun(log, regionAnswers)).applyWrite(PLAN, REGION, () => true);
+    expect(report).toEqual({ kind: "written" });
+    const syncs = log.flatMap((entry, i) => (entry === "sync" ? [i] : []));
+    // One sync for the reading, one for the whole write, one for the column width and selection.
+    expect(syncs).toHaveLength(3);
+    const write = log.slice(syncs[0] + 1, syncs[1]);
+    const order = [
+      /getRange\("E1:F3"\)\.clear\("All"\)$/,
+      /names\.getItemOrNullObject\("Evensplit_block_0"\)\.delete\(\)$/,
+      /tables\.add\("'Paint line'!B1:B25",true\)$/,
+      /tables\.add\(.*\)\.name = "Table1"$/,
+      /getRange\("E1:F2"\)\.formulas = \[\["Evensplit result"/,
+      /getRange\("E1:F2"\)\.numberFormat = /,
+      /getColumn\(0\)\.format\.font\.bold = true$/,
+      /getRow\(1\)\.format\.font\.color = "#595959"$/,
+      /charts\.add\("ColumnClustered",<object>,"Columns"\)$/,
+      /\.name = "Evensplit chart 1"$/,
+      /setPosition\("H1","N15"\)$/,
+      /names\.add\("Evensplit_block_1",<object>,"Evensplit result block"\)$/,
+    ];
+    let from = 0;
+    for (const step of order) {
+      const at = write.findIndex((entry, i) => i >= from && step.test(entry));
+      expect(at, `${step} after entry ${from} of\n${write.join("\n")}`).toBeGreaterThanOrEqual(0);
+      from = at + 1;
+    }
+    expect(log.slice(syncs[1] + 1, syncs[2]).join(" ")).toMatch(/autofitColumns\(\).*select\(\)/);
   });
 
-  it("refuses formulas whose size does not match the target (a programmer error, before touching the sheet)", async () => {
-    const host = createHost(mockRun(workbookMock({ name: "Paint line", getRange: () => ({}) })));
-    await expect(
-      host.writeBlock({ sheet: "Paint line", rect: { top: 0, left: 4, bottom: 1, right: 5 }, formulas: [["a", "b"]], numberFormats: [["General", "General"]], titleRows: [], cautionRows: [] }),
-    ).rejects.toThrow(RangeError);
+  it("changes nothing when the cells are no longer what the person agreed to", async () => {
+    const log: string[] = [];
+    const report = await createHost(recordingRun(log, regionAnswers)).applyWrite(PLAN, REGION, () => false);
+    expect(report.kind).toBe("changed");
+    expect(log.filter((entry) => entry === "sync")).toHaveLength(1);
+    expect(log.some((entry) => / = |clear|add\(|delete/.test(entry))).toBe(false);
   });
 
-  it("adds a clustered column chart linked to the source range, titled and placed", async () => {
-    const added: unknown[] = [];
-    const position: string[] = [];
-    const chart = { title: { text: "" }, setPosition: (a: string, b: string) => position.push(a, b) };
-    const sheet = {
-      name: "Paint line",
-      source: { address: "'Paint line'!B1:B25" },
-      getRange(this: { source: unknown }, address: string) {
-        added.push(`range ${address}`);
-        return this.source;
-      },
-      charts: {
-        chart,
-        add(this: { chart: unknown }, type: string, _source: unknown, seriesBy: string) {
-          added.push(`${type} by ${seriesBy}`);
-          return this.chart;
-        },
-      },
-    };
-    const mock = workbookMock(sheet);
-    await createHost(mockRun(mock)).addChart({ sheet: "Paint line", source: "B1:B25", title: "Thickness (µm)", from: "H1", to: "N15" });
-    expect(added).toEqual(["range B1:B25", "ColumnClustered by Columns"]);
-    const made = (mock as unknown as { context: { workbook: { worksheets: { sheet: { charts: { chart: typeof chart } } } } } }).context.workbook.worksheets.sheet.charts.chart;
-    expect(made.title.text).toBe("Thickness (µm)");
-    expect(position).toEqual(["H1", "N15"]);
+  it("refuses formulas whose size does not match the target (a programmer error, before any sync of a change)", async () => {
+    const log: string[] = [];
+    const wrong = { ...PLAN, block: { ...PLAN.block, formulas: [["a", "b"]] } };
+    await expect(createHost(recordingRun(log, regionAnswers)).applyWrite(wrong, REGION, () => true)).rejects.toThrow(RangeError);
+    expect(log.filter((entry) => entry === "sync")).toHaveLength(1);
   });
 });

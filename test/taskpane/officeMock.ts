@@ -4,10 +4,24 @@
  */
 import { OfficeMockObject } from "office-addin-mock";
 
-export function workbookMock(sheet: Record<string, unknown>, selected = "'Paint line'!B1:B25"): OfficeMockObject {
+/** office-addin-mock only loads properties it knows; collections' items are given as plain, already loaded objects. */
+export function itemsCollection(items: unknown[], extra: Record<string, unknown> = {}): Record<string, unknown> {
+  return {
+    items,
+    ...extra,
+    load(this: OfficeMockObject) {
+      // "items/name" navigates into an array, which the mock cannot; load the array itself instead.
+      OfficeMockObject.prototype.load.call(this, "items");
+      return this;
+    },
+  };
+}
+
+export function workbookMock(sheet: Record<string, unknown>, selected = "'Paint line'!B1:B25", names: unknown[] = []): OfficeMockObject {
   return new OfficeMockObject({
     context: {
       workbook: {
+        names: itemsCollection(names),
         selected: { address: selected },
         getSelectedRange(this: { selected: unknown }) {
           return this.selected;

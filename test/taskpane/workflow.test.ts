@@ -28,7 +28,7 @@ import {
   type WritePlan,
 } from "../../src/taskpane/workflow";
 import { catalogueFunctions } from "../demo/catalogue";
-import { workbookMock } from "./officeMock";
+import { itemsCollection, workbookMock } from "./officeMock";
 
 let functions: Map<string, CustomFunction>;
 beforeAll(async () => {
@@ -57,7 +57,7 @@ function plan(choices: DataChoice[], overrides: Partial<WritePlan> = {}): WriteP
     request: SIGN,
     target: { sheet: DEMO_SHEET, rect: { top: 0, left: 4, bottom: 20, right: 5 } },
     chart: false,
-    overwriteConfirmed: false,
+    consent: null,
     calculate: callFunction,
     ...overrides,
   };
@@ -151,10 +151,11 @@ describe("writing the block", () => {
     const range = await analyzed(host, "B1:B25");
     const before = workbook.recalculations;
     const asked = await writeResult(host, plan([{ range, useHeader: true }]));
-    expect(asked).toEqual({ kind: "confirm", filled: [{ address: "F5", content: "keep me" }] });
+    expect(asked).toMatchObject({ kind: "confirm", consent: { filled: [{ address: "F5", content: "keep me" }] }, changed: false });
     expect(workbook.recalculations).toBe(before);
     expect(workbook.entry(DEMO_SHEET, 0, 4)).toBe("");
-    const written = await writeResult(host, plan([{ range, useHeader: true }], { overwriteConfirmed: true }));
+    if (asked.kind !== "confirm") return;
+    const written = await writeResult(host, plan([{ range, useHeader: true }], { consent: asked.consent }));
     expect(written.kind).toBe("written");
     expect(workbook.entry(DEMO_SHEET, 4, 5)).not.toBe("keep me");
   });
@@ -220,6 +221,8 @@ describe("writing the block through office-addin-mock", () => {
     const sheet = {
       name: DEMO_SHEET,
       target: { address: "'Paint line'!E1:F21", ...target, numberFormat: [], format: { font: {} } },
+      tables: itemsCollection([]),
+      charts: itemsCollection([]),
       getRange(this: { target: unknown }) {
         return this.target;
       },
@@ -238,7 +241,7 @@ describe("writing the block through office-addin-mock", () => {
     formulas[3][1] = "=A1/2";
     const { host, written } = mockHost({ values, formulas });
     const outcome = await writeResult(host, plan([{ range, useHeader: true }]));
-    expect(outcome).toEqual({ kind: "confirm", filled: [{ address: "F4", content: "=A1/2" }] });
+    expect(outcome).toMatchObject({ kind: "confirm", consent: { filled: [{ address: "F4", content: "=A1/2" }] } });
     expect(written()).toBe(formulas);
   });
 });
