@@ -3,7 +3,9 @@
  * easier that could hide a defect in the pane. Each check names its source.
  */
 import { describe, expect, it } from "vitest";
+import { FakeApiError, fakeRun } from "../../src/demo/fakeExcel";
 import { tableHeaders, Workbook } from "../../src/demo/workbook";
+import type { HostContext } from "../../src/taskpane/host";
 
 const S = "Paint line";
 
@@ -30,5 +32,67 @@ describe("a new table's header row (Microsoft, \"Overview of Excel tables\"; num
     expect(w.entry(S, 0, 2)).toBe("2024");
     w.writeEntries(S, 4, 0, [["=COUNT(Table1[Thickness2])", "=COUNT(Table1[2024])"]]);
     expect([w.value(S, 4, 0), w.value(S, 4, 1)]).toEqual([2, 2]);
+  });
+});
+
+describe("the Excel stand-in refuses what Excel refuses", () => {
+  const sheetWithData = (): Workbook => {
+    const w = new Workbook([S]);
+    w.writeEntries(S, 0, 0, [["Thickness"], [50]]);
+    return w;
+  };
+
+  it("rejects an Excel.run batch that returns no promise (office-js: RunMustReturnPromise)", async () => {
+    const run = fakeRun(sheetWithData());
+    const noPromise = ((context: HostContext) => {
+      context.workbook.worksheets.getItem(S).getRange("B1").values = [[1]];
+    }) as unknown as (context: HostContext) => Promise<void>;
+    await expect(run(noPromise)).rejects.toMatchObject({ code: "RunMustReturnPromise" });
+  });
+
+  it("fails the sync with InvalidArgument when a formula breaks Excel's rules, and keeps the earlier cells of the batch", async () => {
+    const w = sheetWithData();
+    const run = fakeRun(w);
+    const failure = run(async (context) => {
+      const sheet = context.workbook.worksheets.getItem(S);
+      sheet.getRange("C1").values = [["written first"]];
+      sheet.getRange("C2").formulas = [["=COUNT(Table1[Temp. °C])"]];
+      sheet.getRange("C3").formulas = [["=1"]];
+      await context.sync();
+    });
+    await expect(failure).rejects.toBeInstanceOf(FakeApiError);
+    await expect(failure).rejects.toMatchObject({ code: "InvalidArgument", debugInfo: { code: "InvalidArgument" } });
+    expect([w.entry(S, 0, 2), w.entry(S, 1, 2), w.entry(S, 2, 2)]).toEqual(["written first", "", ""]);
+  });
+
+  it("fails the sync for a text constant over 255 characters, a formula over 8,192 or a text over 32,767", async () => {
+    for (const entry of [`="${"a".repeat(256)}"`, `=${"1+".repeat(4096)}1`, "x".repeat(32_768)]) {
+      const w = sheetWithData();
+      const write = fakeRun(w)(async (context) => {
+        context.workbook.worksheets.getItem(S).getRange("D1").formulas = [[entry]];
+        await context.sync();
+      });
+      await expect(write).rejects.toMatchObject({ code: "InvalidArgument" });
+      expect(w.entry(S, 0, 3)).toBe("");
+    }
+  });
+
+  it("refuses a range reaching past the last column or row of the sheet", async () => {
+    const run = fakeRun(sheetWithData());
+    const pastColumn = run(async (context) => {
+      context.workbook.worksheets.getItem(S).getRange("XFD1").getColumn(1).values = [[1]];
+      await context.sync();
+    });
+    await expect(pastColumn).rejects.toMatchObject({ code: "InvalidArgument" });
+    const pastRow = run(async (context) => {
+      context.workbook.worksheets.getItem(S).getRange("A1048576").getRow(1).values = [[1]];
+      await context.sync();
+    });
+    await expect(pastRow).rejects.toMatchObject({ code: "InvalidArgument" });
+    const pastAddress = run(async (context) => {
+      context.workbook.worksheets.getItem(S).getRange("XFE1").values = [[1]];
+      await context.sync();
+    });
+    await expect(pastAddress).rejects.toMatchObject({ code: "InvalidArgument" });
   });
 });
