@@ -16,7 +16,7 @@
  *
  * Cost: one pass over the cells, plus the cost of the core routine (see its header).
  */
-import { blockValue, resultBlockRows, type BlockRequest } from "../report/resultBlock";
+import { blockValue, reportCell, resultBlockRows, type BlockRequest } from "../report/resultBlock";
 import { adjustPValues } from "../stats/adjust";
 import { numbersFromCells, pairsFromCells, signCountsFromCells } from "../stats/cells";
 import { differencesFrom, pairedDifferences } from "../stats/differences";
@@ -584,7 +584,7 @@ export function report(
     };
     const cellsIn = { data: inputs.first, second: inputs.second, passedAsArgument: true };
     return resultBlockRows(request).map((row) => {
-      const value = blockValue(row.value, cellsIn, callFunction);
+      const value = reportCell(row.format, blockValue(row.value, cellsIn, callFunction));
       return [row.label, value === null || value === undefined ? "" : value];
     });
   } catch (thrown) {

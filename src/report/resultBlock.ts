@@ -92,17 +92,45 @@ export interface BlockRow {
 }
 
 /**
- * Excel number formats for each kind of value. P-values keep four decimals
- * and switch to scientific notation below 0.0001, so a tiny p-value never
- * shows as 0.0000.
+ * P-values below this show as "< 1E-307": the sheet holds no positive number
+ * below about 2.2E-308 (Microsoft, "Excel specifications and limits":
+ * smallest allowed positive number 2.2251E-308), so such a p-value, or one
+ * too small for a double at all (the core's 0), would otherwise show as 0.
+ */
+export const SMALLEST_SHOWN_PVALUE = 1e-307;
+
+/** What a cell shows for a p-value too small to hold. */
+export const TINY_PVALUE_WORDS = "< 1E-307";
+
+/**
+ * Excel number formats for each kind of value (at most two conditions and a
+ * third section for the rest; Microsoft, "Review guidelines for customizing a
+ * number format").
+ * - P-values: "< 1E-307" below what a cell can hold, scientific notation below
+ *   0.0001 (a tiny p-value never shows as 0.0000), otherwise as they are (so 1
+ *   shows as 1).
+ * - Coverage: two decimals of a percent, five from 99.99%, and a bound rather
+ *   than a rounded figure beyond, so a coverage below 1 never shows as 100%.
  */
 export const NUMBER_FORMATS: Readonly<Record<BlockFormat, string>> = {
   text: "General",
   integer: "0",
   number: "General",
-  pvalue: "[<0.0001]0.00E+00;0.0000",
-  percent: "0.00%",
+  pvalue: `[<${formulaNumber(SMALLEST_SHOWN_PVALUE)}]"${TINY_PVALUE_WORDS}";[<0.0001]0.00E+00;General`,
+  percent: '[<0.9999]0.00%;[<0.99999995]0.00000%;"> 99.99999%"',
 };
+
+/**
+ * A value as REPORT puts it in its cell, where no number format of ours
+ * applies: a p-value too small to hold becomes the words a formatted cell shows.
+ *
+ * @example
+ * reportCell("pvalue", 0);    // "< 1E-307"
+ * reportCell("pvalue", 0.03); // 0.03
+ */
+export function reportCell(format: BlockFormat, value: unknown): unknown {
+  return format === "pvalue" && typeof value === "number" && value < SMALLEST_SHOWN_PVALUE ? TINY_PVALUE_WORDS : value;
+}
 
 const RELATION: Readonly<Record<Alternative, string>> = { greater: ">", less: "<", "two-sided": "≠" };
 const CLAIM: Readonly<Record<Alternative, string>> = { greater: "above", less: "below", "two-sided": "different from" };

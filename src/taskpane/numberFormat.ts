@@ -3,7 +3,7 @@
  * format language the result block and the demo data use: General, fixed
  * decimals ("0", "0.0000"), percentages ("0.00%"), scientific ("0.00E+00"),
  * thousands separators ("#,##0"), the text format "@", sections separated by
- * ";" and a leading condition such as "[<0.0001]", and quoted literals.
+ * ";", leading conditions such as "[<0.0001]" on the first two sections, and quoted literals.
  *
  * Method: the section rules of Excel's custom number formats (Microsoft,
  * "Review guidelines for customizing a number format"; common practice): with
@@ -142,7 +142,12 @@ export function formatCell(value: number | string | boolean | null, format: stri
   let section: string;
   let shown = value;
   if (condition) {
-    section = holds(condition[1], value, Number(condition[2])) ? sections[0] : (sections[1] ?? "General");
+    // Up to two conditions: the first section when the first holds, the second when its own condition holds,
+    // and the third for every other number (Microsoft, "Review guidelines for customizing a number format").
+    const second = CONDITION.exec(sections[1] ?? "");
+    if (holds(condition[1], value, Number(condition[2]))) section = sections[0];
+    else if (second === null) section = sections[1] ?? "General";
+    else section = holds(second[1], value, Number(second[2])) ? sections[1] : (sections[2] ?? "General");
   } else if (value < 0 && sections.length > 1) {
     section = sections[1];
     shown = -value;

@@ -10,9 +10,9 @@ import { formatCell } from "../../src/taskpane/numberFormat";
 
 describe("formatCell", () => {
   it("shows the result block's formats", () => {
-    expect(formatCell(0.03125, NUMBER_FORMATS.pvalue)).toBe("0.0313");
+    expect(formatCell(0.03125, NUMBER_FORMATS.pvalue)).toBe("0.03125");
     expect(formatCell(0.0000123, NUMBER_FORMATS.pvalue)).toBe("1.23E-05");
-    expect(formatCell(1, NUMBER_FORMATS.pvalue)).toBe("1.0000");
+    expect(formatCell(1, NUMBER_FORMATS.pvalue)).toBe("1");
     expect(formatCell(0.9567, NUMBER_FORMATS.percent)).toBe("95.67%");
     expect(formatCell(22, NUMBER_FORMATS.integer)).toBe("22");
     expect(formatCell("Sign test", NUMBER_FORMATS.text)).toBe("Sign test");
