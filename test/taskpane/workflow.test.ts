@@ -12,7 +12,7 @@ import type { CustomFunction } from "../../src/demo/formula/evaluate";
 import { DEMO_SHEET, demoRows } from "../../src/demo/inventedData";
 import { Workbook } from "../../src/demo/workbook";
 import { callFunction } from "../../src/functions/functions";
-import type { BlockRequest } from "../../src/report/resultBlock";
+import { NUMBER_FORMATS, type BlockRequest } from "../../src/report/resultBlock";
 import { createHost, type Host, type RunBatch } from "../../src/taskpane/host";
 import {
   analyzeRange,
@@ -139,7 +139,8 @@ describe("writing the block", () => {
     // The sheet's answer is the preview's: P(X >= 16), X ~ Bin(21, 1/2) = 27896 / 2^21 (exact arithmetic).
     expect(workbook.value(DEMO_SHEET, p, 5)).toBeCloseTo(27896 / 2097152, 14);
     expect(outcome.rows[p].value).toBe(workbook.value(DEMO_SHEET, p, 5));
-    expect(workbook.format(DEMO_SHEET, p, 5).numberFormat).toBe("[<0.0001]0.00E+00;0.0000");
+    // The block's own p-value format (resultBlock.ts), carried to the cell.
+    expect(workbook.format(DEMO_SHEET, p, 5).numberFormat).toBe(NUMBER_FORMATS.pvalue);
     expect(workbook.format(DEMO_SHEET, p, 4).bold).toBe(true);
     const caution = outcome.rows.findIndex((r) => r.style === "caution");
     expect(workbook.format(DEMO_SHEET, caution, 5)).toMatchObject({ italic: true, color: "#595959" });
