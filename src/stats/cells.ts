@@ -165,6 +165,8 @@ export function signCountsFromCells(cells: readonly (readonly unknown[])[], cent
   let numbers = 0;
   let visited = 0;
   let nulls = 0;
+  let inside: Float64Array = INSIDE;
+  let insideCount = 0;
   const skipped: SkippedCells = { blank: 0, text: 0, boolean: 0, other: 0 };
   const rows = cells.length;
   for (let r = 0; r < rows; r++) {
@@ -173,29 +175,38 @@ export function signCountsFromCells(cells: readonly (readonly unknown[])[], cent
     visited += width;
     for (let c = 0; c < width; c++) {
       const v = row[c];
+      // null first: in a whole-column reference nearly every cell is an empty one.
       if (v === null) {
         nulls++;
         continue;
       }
       if (typeof v === "number" && v - v === 0) {
         numbers++;
-        // Branch-free counting: the side of a value is unpredictable in real data, a mispredicted branch
-        // costs more than the comparison. Only values inside the narrow tie window (rare) take a branch.
+        // Branch-free counting: the side of a value is unpredictable in real data, and a mispredicted branch
+        // costs more than the comparison. Values inside the narrow tie window (rare) are kept and settled
+        // by the shared rounding after the pass, which keeps this loop small.
         const isBelow = +(v < low);
         const isAbove = +(v > high);
-        below += isBelow;
-        above += isAbove;
+        below = (below + isBelow) | 0;
+        above = (above + isAbove) | 0;
         if ((isBelow | isAbove) === 0) {
-          const sign = compareAsShown(v, center);
-          if (sign < 0) below++;
-          else if (sign > 0) above++;
+          if (insideCount === inside.length) inside = INSIDE = grow(inside);
+          inside[insideCount++] = v;
         }
       } else tallyNonNumber(skipped, v);
     }
   }
+  for (let k = 0; k < insideCount; k++) {
+    const sign = compareAsShown(inside[k], center);
+    below += +(sign < 0);
+    above += +(sign > 0);
+  }
   skipped.blank += nulls;
   return { counts: { below, tied: numbers - below - above, above }, cells: visited, skipped };
 }
+
+/** Where values inside the tie window wait to be settled; grown (and kept) when a range needs more. */
+let INSIDE: Float64Array = new Float64Array(INITIAL_CAPACITY);
 
 /**
  * Pairs up two ranges of the same shape cell by cell, keeping the pairs where both cells are finite numbers.

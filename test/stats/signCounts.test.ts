@@ -25,6 +25,13 @@ describe("countSigns", () => {
     expect(countSigns([50.0000000000001, 49.9999999999999], 50)).toEqual({ below: 1, tied: 0, above: 1 });
   });
 
+  it("settles any number of ties and near-ties, in every position of a long array (exact decimals)", () => {
+    // 0.1 + 0.2 reads 0.3; 0.3 + 1e-14 reads 0.30000000000001, above 0.3.
+    const xs = Array.from({ length: 9001 }, (_, i) => [0.1 + 0.2, 0.3, 0.3 + 1e-14, 0.2, 0.4][i % 5]);
+    expect(countSigns(xs, 0.3)).toEqual({ below: 1800, tied: 3601, above: 3600 });
+    expect(countSigns(new Float64Array(xs), 0.3)).toEqual({ below: 1800, tied: 3601, above: 3600 });
+  });
+
   it("agrees with the signs of differencesFrom, the signed-rank functions' differences (property)", () => {
     // Values near the centre, within a few ulps to a few units in the 15th digit, exercise the window's edge.
     const near = (c: number) =>
