@@ -38,15 +38,23 @@ function described(raw: unknown): string {
  * @example
  * numberArgument("hypothesized_median", 50);       // 50
  * numberArgument("shift", null, 0);                // 0
- * numberArgument("hypothesized_median", "50 µm");  // throws BadArgument
+ * numberArgument("hypothesized_median", "50 µm");  // throws BadArgument: Argument hypothesized_median must be a number ...
  */
-export function numberArgument(name: string, raw: unknown, fallback?: number): number {
+export function numberArgument(name: string, raw: unknown, fallback?: number, example = "50"): number {
   if (omitted(raw)) {
     if (fallback !== undefined) return fallback;
-    throw new BadArgument(`${name} is missing. Give a number, such as 50, or a cell that holds one.`);
+    throw new BadArgument(`Argument ${name} is missing. Give a number, such as ${example}, or a cell that holds one.`);
   }
   if (typeof raw === "number" && Number.isFinite(raw)) return raw;
-  throw new BadArgument(`${name} must be a number (typed without quotes, or a cell holding one); got ${described(raw)}.`);
+  throw new BadArgument(`Argument ${name} must be a number (typed without quotes, or a cell holding one); got ${described(raw)}.`);
+}
+
+/**
+ * The hint for a fraction typed as a percent: 95 for 0.95, 5 for 0.05. Only from 2 up: a value between 1 and
+ * 2 is far likelier a slip than a percent (confidence 1.5 is not 1.5%).
+ */
+function percentHint(x: number, below: number): string {
+  return x >= 2 && x < below ? ` For ${x}% write ${x / 100}.` : "";
 }
 
 /**
@@ -57,10 +65,9 @@ export function numberArgument(name: string, raw: unknown, fallback?: number): n
  * fractionArgument("confidence", 95, 0.95);   // throws BadArgument: ... for 95% write 0.95.
  */
 export function fractionArgument(name: string, raw: unknown, fallback?: number, example = "0.95"): number {
-  const x = numberArgument(name, raw, fallback);
+  const x = numberArgument(name, raw, fallback, example);
   if (x > 0 && x < 1) return x;
-  const hint = x > 1 && x < 100 ? ` For ${x}% write ${x / 100}.` : "";
-  throw new BadArgument(`${name} must lie strictly between 0 and 1, such as ${example}; got ${x}.${hint}`);
+  throw new BadArgument(`Argument ${name} must lie strictly between 0 and 1, such as ${example}; got ${x}.${percentHint(x, 100)}`);
 }
 
 /**
@@ -71,10 +78,9 @@ export function fractionArgument(name: string, raw: unknown, fallback?: number, 
  * probabilityArgument("p_above", 1.2, "0.75"); // throws BadArgument
  */
 export function probabilityArgument(name: string, raw: unknown, example: string): number {
-  const x = numberArgument(name, raw);
+  const x = numberArgument(name, raw, undefined, example);
   if (x >= 0 && x <= 1) return x;
-  const hint = x > 1 && x <= 100 ? ` For ${x}% write ${x / 100}.` : "";
-  throw new BadArgument(`${name} must lie between 0 and 1, such as ${example}; got ${x}.${hint}`);
+  throw new BadArgument(`Argument ${name} must lie between 0 and 1, such as ${example}; got ${x}.${percentHint(x, 100.5)}`);
 }
 
 /** Largest sample size accepted by POWER: the binomial core is exact up to 1e9. */
@@ -88,9 +94,9 @@ export const LARGEST_N = 1e9;
  * sampleSizeArgument("n", 2.5); // throws BadArgument
  */
 export function sampleSizeArgument(name: string, raw: unknown): number {
-  const n = numberArgument(name, raw);
+  const n = numberArgument(name, raw, undefined, "30");
   if (Number.isInteger(n) && n >= 1 && n <= LARGEST_N) return n;
-  throw new BadArgument(`${name} must be a whole number from 1 to 1,000,000,000; got ${n}.`);
+  throw new BadArgument(`Argument ${name} must be a whole number from 1 to 1,000,000,000, such as 30; got ${n}.`);
 }
 
 /**
@@ -103,7 +109,7 @@ export function sampleSizeArgument(name: string, raw: unknown): number {
  */
 export function cellsArgument(name: string, raw: unknown): Cells {
   if (!Array.isArray(raw)) return [[raw]];
-  if (raw.length === 0 || !Array.isArray(raw[0])) throw new BadArgument(`${name} must be a range of cells, such as A2:A40 or Table1[Thickness].`);
+  if (raw.length === 0 || !Array.isArray(raw[0])) throw new BadArgument(`Argument ${name} must be a range of cells, such as A2:A40 or Table1[Thickness].`);
   return raw as Cells;
 }
 
@@ -125,7 +131,7 @@ export function pairedCellsArgument(rawFirst: unknown, rawSecond: unknown): { fi
   const second = cellsArgument("second", rawSecond);
   if (first.length !== second.length || first[0].length !== second[0].length) {
     throw new BadArgument(
-      `first and second must have the same shape, pair by pair: first is ${outline(first)}, second is ${outline(second)}.`,
+      `Arguments first and second must have the same shape, pair by pair: first is ${outline(first)}, second is ${outline(second)}.`,
     );
   }
   return { first, second };

@@ -123,7 +123,7 @@ function signedRankOf(differences: ArrayLike<number>, alternative: unknown, meth
 /** Bounds for the median (or another quantile) as one row: lower, upper, achieved confidence; "" for an end not asked for. */
 function boundsRow(values: ArrayLike<number>, quantile: number, confidence: number, side: BoundSide, method: BoundMethod): RowCell[] | CellError {
   if (method === "interpolated" && side !== "two-sided" && !(confidence > 0.5)) {
-    throw new BadArgument(`a one-sided interpolated bound needs confidence above 0.5; got ${confidence}.`);
+    throw new BadArgument(`A one-sided interpolated bound needs a confidence above 0.5; got ${confidence}.`);
   }
   const oversized = oversizedDifference(values);
   if (oversized !== null) return unavailableError(oversized);
@@ -311,12 +311,12 @@ export function pairedbounds(first: unknown[][], second: unknown[][], confidence
  * @param data Range with the measurements.
  * @param value The hypothesised value of the quantile, such as 58.
  * @param quantile Which quantile, between 0 and 1 (0.5 is the median, 0.9 the value 90% fall below).
- * @param [alternative] "two-sided" (default), "greater" (the quantile is above value) or "less".
+ * @param [alternative] "two-sided" (default: twice the smaller one-sided p-value, at most 1), "greater" (the quantile is above value) or "less".
  * @returns The p-value.
  */
 export function quantilepvalue(data: unknown[][], value: unknown, quantile: unknown, alternative?: unknown): number | CellError {
   return scalar(() => {
-    const at = numberArgument("value", value);
+    const at = numberArgument("value", value, undefined, "58");
     const q = fractionArgument("quantile", quantile, undefined, "0.9");
     const result = quantileTest(numbersOf(data), at, q, { alternative: chooseWord(ALTERNATIVE, alternative) });
     return result.available ? result.pValue : unavailableError(result);

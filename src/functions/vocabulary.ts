@@ -32,7 +32,7 @@ function only<T extends string>(...values: T[]): Choice<T>[] {
 export const ALTERNATIVE: Vocabulary<Alternative> = {
   argument: "alternative",
   choices: [
-    { value: "two-sided", words: ["two-sided", "two", "both", "<>"] },
+    { value: "two-sided", words: ["two-sided", "two", "both", "<>", "≠", "different", "different from"] },
     { value: "greater", words: ["greater", "above", "right", ">"] },
     { value: "less", words: ["less", "below", "left", "<"] },
   ],
@@ -41,11 +41,24 @@ export const ALTERNATIVE: Vocabulary<Alternative> = {
 
 export const TIES: Vocabulary<TieRule> = { argument: "ties", choices: only("drop", "split", "conservative"), fallback: "drop" };
 
-export const SIGN_METHOD: Vocabulary<SignTestMethod> = { argument: "method", choices: only("exact", "midp", "normal"), fallback: "exact" };
+/** The block's method row prints "exact binomial", "mid-p binomial" and "normal approximation"; each is accepted back. */
+export const SIGN_METHOD: Vocabulary<SignTestMethod> = {
+  argument: "method",
+  choices: [
+    { value: "exact", words: ["exact", "exact binomial"] },
+    { value: "midp", words: ["midp", "mid-p", "mid-p binomial"] },
+    { value: "normal", words: ["normal", "normal approximation"] },
+  ],
+  fallback: "exact",
+};
 
 export const SIGNED_RANK_METHOD: Vocabulary<SignedRankMethod> = {
   argument: "method",
-  choices: only("auto", "exact", "normal"),
+  choices: [
+    { value: "auto", words: ["auto"] },
+    { value: "exact", words: ["exact"] },
+    { value: "normal", words: ["normal", "normal approximation"] },
+  ],
   fallback: "auto",
 };
 
@@ -82,7 +95,7 @@ function shown(raw: unknown): string {
  * @example
  * chooseWord(ALTERNATIVE, " Above "); // "greater"
  * chooseWord(ALTERNATIVE, null);      // "two-sided"
- * chooseWord(TIES, "keep");           // throws BadArgument: ties "keep" is not accepted. Use drop (the default), split or conservative.
+ * chooseWord(TIES, "keep");           // throws BadArgument: For ties, "keep" is not accepted. Use drop (the default), split or conservative.
  */
 export function chooseWord<T extends string>(vocabulary: Vocabulary<T>, raw: unknown): T {
   if (raw === null || raw === undefined || raw === "") return vocabulary.fallback;
@@ -91,5 +104,5 @@ export function chooseWord<T extends string>(vocabulary: Vocabulary<T>, raw: unk
     if (typed === "") return vocabulary.fallback;
     for (const choice of vocabulary.choices) if (choice.words.includes(typed)) return choice.value;
   }
-  throw new BadArgument(`${vocabulary.argument} ${shown(raw)} is not accepted. Use ${acceptedWords(vocabulary)}.`);
+  throw new BadArgument(`For ${vocabulary.argument}, ${shown(raw)} is not accepted. Use ${acceptedWords(vocabulary)}.`);
 }

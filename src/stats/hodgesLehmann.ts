@@ -30,6 +30,7 @@
  * memory; the exact rank adds O(n^3) at worst, for n <= EXACT_AUTO_LIMIT.
  */
 import { normalLowerTail, normalQuantile } from "./normal";
+import { confidenceWords } from "./quantileBounds";
 import { sortFloat64 } from "./ranks";
 import { selectInPlace } from "./selection";
 import { EXACT_AUTO_LIMIT, signedRankNullCdf } from "./signedRank";
@@ -326,8 +327,8 @@ export function hodgesLehmann(
   const rank = boundRankFor(n, confidence, tails);
   if (rank === null) {
     const needed = smallestSufficientN(confidence, tails);
-    const percent = Number((confidence * 100).toPrecision(12)); // 29, not 28.999999999999996
-    const what = side === "two-sided" ? `Bounds at ${percent}% confidence need` : `A one-sided ${side} bound at ${percent}% confidence needs`;
+    const level = confidenceWords(confidence); // 29%, not 28.999999999999996%; never a rounded 100%
+    const what = side === "two-sided" ? `Bounds at ${level} confidence need` : `A one-sided ${side} bound at ${level} confidence needs`;
     return unavailable("unreachable", `${what} at least ${needed} values; there are ${n}.`, needed);
   }
   const count = (n * (n + 1)) / 2;

@@ -229,16 +229,34 @@ export function boundRanks(n: number, quantile: number, confidence: number, side
   return { available: true, lowerRank, upperRank, achievedConfidence: 1 - lowerMiss - upperMiss };
 }
 
-function percent(x: number): string {
-  return `${Number((x * 100).toPrecision(6))}%`;
+/**
+ * A confidence as a percent for messages: six significant digits, but never rounded up to 100% (a confidence
+ * below 1 that would show as 100% is shown as the fraction it is).
+ *
+ * @example
+ * confidenceWords(0.95);               // "95%"
+ * confidenceWords(0.9999999999999999); // "0.9999999999999999"
+ */
+export function confidenceWords(x: number): string {
+  const shown = Number((x * 100).toPrecision(6));
+  return shown >= 100 ? String(x) : `${shown}%`;
 }
+
+/** Sizes beyond this are no sample a sheet can hold (the binomial core is exact up to here). */
+const LARGEST_SAMPLE = BINOMIAL_MAX_N;
 
 function quantileName(quantile: number): string {
   return quantile === 0.5 ? "the median" : `the ${quantile} quantile`;
 }
 
 function tooFew(n: number, quantile: number, confidence: number, side: BoundSide, minimumN: number): Unavailable {
-  const what = `${percent(confidence)} ${side === "two-sided" ? "two-sided bounds" : `${side} bound`} for ${quantileName(quantile)}`;
+  const what = `${confidenceWords(confidence)} ${side === "two-sided" ? "two-sided bounds" : `${side} bound`} for ${quantileName(quantile)}`;
+  if (!(minimumN <= LARGEST_SAMPLE)) {
+    return unavailable(
+      n === 0 ? "no-data" : "too-few-values",
+      `The ${quantile} quantile is too extreme for ${side === "two-sided" ? "" : "a "}${what.replace(` for ${quantileName(quantile)}`, "")} from a sample of any size a sheet can hold: more than ${LARGEST_SAMPLE.toLocaleString("en-US")} values would be needed. Choose a quantile further from 0 and 1, or a lower confidence.`,
+    );
+  }
   if (n === 0) return unavailable("no-data", `No numbers were given; ${what} need at least ${minimumN} values.`, minimumN);
   return unavailable("too-few-values", `${n} value${n === 1 ? " is" : "s are"} too few for ${what}: at least ${minimumN} are needed.`, minimumN);
 }

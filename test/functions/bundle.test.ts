@@ -82,10 +82,10 @@ describe("dist/functions.js", () => {
   });
 
   it("answers a bad word with #VALUE! listing what is accepted", () => {
-    expectError(bundle.call("PVALUE", col(1, 2), 0, "upwards"), "#VALUE!", /alternative "upwards" is not accepted\. Use two-sided .*greater .*less/);
+    expectError(bundle.call("PVALUE", col(1, 2), 0, "upwards"), "#VALUE!", /For alternative, "upwards" is not accepted\. Use two-sided .*greater .*less/);
     const row = (bundle.call("BOUNDS", col(1, 2), 0.95, "middle") as unknown[][])[0];
     expect(row).toHaveLength(3);
-    for (const cell of row) expectError(cell, "#VALUE!", /^side "middle" is not accepted\. Use two-sided \(the default\), lower or upper\.$/);
+    for (const cell of row) expectError(cell, "#VALUE!", /^For side, "middle" is not accepted\. Use two-sided \(the default\), lower or upper\.$/);
   });
 
   it("answers data that cannot give a result with #N/A and the reason", () => {

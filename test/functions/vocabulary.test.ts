@@ -25,14 +25,15 @@ const CATALOGUE: [Vocabulary<string>, string, Record<string, string>][] = [
     ALTERNATIVE,
     "two-sided",
     {
-      "two-sided": "two-sided", two: "two-sided", both: "two-sided", "<>": "two-sided",
+      "two-sided": "two-sided", two: "two-sided", both: "two-sided", "<>": "two-sided", "≠": "two-sided", different: "two-sided", "different from": "two-sided",
       greater: "greater", above: "greater", right: "greater", ">": "greater",
       less: "less", below: "less", left: "less", "<": "less",
     },
   ],
   [TIES, "drop", { drop: "drop", split: "split", conservative: "conservative" }],
-  [SIGN_METHOD, "exact", { exact: "exact", midp: "midp", normal: "normal" }],
-  [SIGNED_RANK_METHOD, "auto", { auto: "auto", exact: "exact", normal: "normal" }],
+  // The block prints "exact binomial", "mid-p binomial", "normal approximation", "≠" and "different from": each is accepted back.
+  [SIGN_METHOD, "exact", { exact: "exact", "exact binomial": "exact", midp: "midp", "mid-p": "midp", "mid-p binomial": "midp", normal: "normal", "normal approximation": "normal" }],
+  [SIGNED_RANK_METHOD, "auto", { auto: "auto", exact: "exact", normal: "normal", "normal approximation": "normal" }],
   [ZEROS, "drop", { drop: "drop", pratt: "pratt" }],
   [SIDE, "two-sided", { "two-sided": "two-sided", lower: "lower", upper: "upper" }],
   [BOUND_METHOD, "exact", { exact: "exact", interpolated: "interpolated" }],
@@ -66,7 +67,7 @@ describe("chooseWord", () => {
         }
         expect(caught).toBeInstanceOf(BadArgument);
         const message = (caught as BadArgument).message;
-        expect(message.startsWith(`${vocabulary.argument} `)).toBe(true);
+        expect(message.startsWith(`For ${vocabulary.argument}, `)).toBe(true);
         for (const word of Object.keys(words)) expect(message).toContain(word);
       }
     }
@@ -74,8 +75,8 @@ describe("chooseWord", () => {
 
   it("words the list as a person would read it", () => {
     expect(acceptedWords(ALTERNATIVE)).toBe(
-      "two-sided (the default; also two, both, <>), greater (also above, right, >) or less (also below, left, <)",
+      "two-sided (the default; also two, both, <>, ≠, different, different from), greater (also above, right, >) or less (also below, left, <)",
     );
-    expect(() => chooseWord(TIES, "keep")).toThrow('ties "keep" is not accepted. Use drop (the default), split or conservative.');
+    expect(() => chooseWord(TIES, "keep")).toThrow('For ties, "keep" is not accepted. Use drop (the default), split or conservative.');
   });
 });
