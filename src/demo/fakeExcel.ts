@@ -651,10 +651,11 @@ class FakeWorksheet implements HostWorksheet {
     });
   }
 
-  getUsedRangeOrNullObject(): FakeRange {
+  /** Formatted cells count as used unless `valuesOnly` (Microsoft, "Excel.Worksheet class", getUsedRangeOrNullObject). */
+  getUsedRangeOrNullObject(valuesOnly = false): FakeRange {
     return new FakeRange(this.queue, () => {
       const sheet = sheetOrThrow(this.queue.workbook, this.sheetName());
-      const rect = this.queue.workbook.usedRect(sheet);
+      const rect = this.queue.workbook.usedRect(sheet, !valuesOnly);
       return rect === null ? null : { sheet, rect };
     });
   }

@@ -314,8 +314,13 @@ export class Workbook {
     return value;
   }
 
-  /** The smallest rectangle around every non-blank cell (formats alone do not count), or null. */
-  usedRect(sheetName: string): CellRect | null {
+  /**
+   * The smallest rectangle around every non-blank cell, or null; with
+   * `withFormats`, cells that only carry a format count too, as Excel's used
+   * range does unless asked for values only (Microsoft, "Excel.Worksheet
+   * class", getUsedRange(valuesOnly)).
+   */
+  usedRect(sheetName: string, withFormats = false): CellRect | null {
     const name = this.sheet(sheetName).name;
     let rect: CellRect | null = null;
     const grow = (row: number, column: number): void => {
@@ -324,7 +329,8 @@ export class Workbook {
         : { top: Math.min(rect.top, row), left: Math.min(rect.left, column), bottom: Math.max(rect.bottom, row), right: Math.max(rect.right, column) };
     };
     for (const [k, cell] of this.sheet(name).cells) {
-      if (cell.constant === null && cell.formula === null) continue;
+      const formatted = withFormats && (Object.keys(DEFAULT_FORMAT) as (keyof CellFormat)[]).some((p) => cell.format[p] !== DEFAULT_FORMAT[p]);
+      if (cell.constant === null && cell.formula === null && !formatted) continue;
       const { row, column } = fromKey(k);
       grow(row, column);
     }

@@ -96,3 +96,21 @@ describe("the Excel stand-in refuses what Excel refuses", () => {
     await expect(pastAddress).rejects.toMatchObject({ code: "InvalidArgument" });
   });
 });
+
+describe("the used range (Microsoft, \"Excel.Worksheet class\", getUsedRangeOrNullObject(valuesOnly))", () => {
+  it("counts cells that only carry a format unless asked for values only", async () => {
+    const w = new Workbook([S]);
+    w.writeEntries(S, 0, 0, [["Thickness"], [50]]);
+    w.setFormat(S, { top: 9, left: 4, bottom: 9, right: 4 }, { bold: true });
+    const addresses = await fakeRun(w)(async (context) => {
+      const sheet = context.workbook.worksheets.getItem(S);
+      const all = sheet.getUsedRangeOrNullObject();
+      const values = sheet.getUsedRangeOrNullObject(true);
+      all.load("address");
+      values.load("address");
+      await context.sync();
+      return [all.address, values.address];
+    });
+    expect(addresses).toEqual(["'Paint line'!A1:E10", "'Paint line'!A1:A2"]);
+  });
+});
