@@ -155,8 +155,10 @@ function numberWords(x: number): string {
   return String(x);
 }
 
+/** A confidence in the wording: a percent to four decimals, never rounded up to 100% (then the fraction as typed). */
 function percentWords(fraction: number): string {
-  return `${numberWords(Math.round(fraction * 1e6) / 1e4)}%`;
+  const percent = Math.round(fraction * 1e6) / 1e4;
+  return percent >= 100 ? numberWords(fraction) : `${numberWords(percent)}%`;
 }
 
 function data(): Operand {

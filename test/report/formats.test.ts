@@ -8,7 +8,7 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { callFunction } from "../../src/functions/functions";
-import { NUMBER_FORMATS, reportCell } from "../../src/report/resultBlock";
+import { NUMBER_FORMATS, reportCell, resultBlockRows } from "../../src/report/resultBlock";
 import { formatCell } from "../../src/taskpane/numberFormat";
 
 describe("p-values", () => {
@@ -43,5 +43,13 @@ describe("coverage", () => {
         expect(formatCell(c, NUMBER_FORMATS.percent)).not.toMatch(/^100/);
       }),
     );
+  });
+});
+
+describe("the block's wording of the confidence", () => {
+  it("never rounds a confidence below 1 up to 100%", () => {
+    const labels = resultBlockRows({ test: "sign", paired: false, center: 50, alternative: "two-sided", alpha: 0.05, confidence: 0.999999999 }).map((r) => r.label);
+    expect(labels.join(" ")).not.toMatch(/100%/);
+    expect(labels).toContain("0.999999999 bounds for the median: lower");
   });
 });
