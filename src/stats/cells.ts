@@ -162,7 +162,6 @@ export function signCountsFromCells(cells: readonly (readonly unknown[])[], cent
   const { low, high } = tieWindow(center);
   let below = 0;
   let above = 0;
-  let numbers = 0;
   let visited = 0;
   let nulls = 0;
   let inside: Float64Array = INSIDE;
@@ -181,7 +180,6 @@ export function signCountsFromCells(cells: readonly (readonly unknown[])[], cent
         continue;
       }
       if (typeof v === "number" && v - v === 0) {
-        numbers++;
         // Branch-free counting: the side of a value is unpredictable in real data, and a mispredicted branch
         // costs more than the comparison. Values inside the narrow tie window (rare) are kept and settled
         // by the shared rounding after the pass, which keeps this loop small.
@@ -202,6 +200,7 @@ export function signCountsFromCells(cells: readonly (readonly unknown[])[], cent
     above += +(sign > 0);
   }
   skipped.blank += nulls;
+  const numbers = visited - skipped.blank - skipped.text - skipped.boolean - skipped.other;
   return { counts: { below, tied: numbers - below - above, above }, cells: visited, skipped };
 }
 
