@@ -33,7 +33,7 @@ export class FakeApiError extends Error {
   /** As OfficeExtension.Error carries it (node_modules/@microsoft/office-js, Utility.createRuntimeError). */
   readonly debugInfo: { readonly code: string; readonly message: string };
   constructor(
-    readonly code: "ItemNotFound" | "InvalidArgument" | "PropertyNotLoaded" | "InvalidOperation" | "RunMustReturnPromise",
+    readonly code: "ItemNotFound" | "InvalidArgument" | "PropertyNotLoaded" | "InvalidOperation" | "RunMustReturnPromise" | "InvalidRequestContext",
     message: string,
   ) {
     super(message);
@@ -131,11 +131,28 @@ class FakeFont implements HostFont {
   }
 }
 
+/**
+ * The range itself when it belongs to this request context; a proxy from
+ * another Excel.run is refused, as office-js refuses it
+ * (CommonUtility.validateContext: InvalidRequestContext).
+ */
+function ownRange(queue: Queue, range: HostRange): FakeRange {
+  if (!(range instanceof FakeRange) || !range.belongsTo(queue)) {
+    throw new FakeApiError("InvalidRequestContext", "Cannot use the object across different request contexts.");
+  }
+  return range;
+}
+
 class FakeRange implements HostRange {
   private readonly loaded = new Loaded();
   readonly format: { readonly font: HostFont; autofitColumns(): void };
 
   private readonly where: Where;
+
+  /** True when this proxy was made by the request context that owns `queue`. */
+  belongsTo(queue: Queue): boolean {
+    return this.queue === queue;
+  }
 
   constructor(private readonly queue: Queue, where: Where) {
     // A range reaching past row 1,048,576 or column XFD (getRow, getColumn, an offset) is refused when
@@ -611,7 +628,7 @@ class FakeWorksheet implements HostWorksheet {
       add: (type: "ColumnClustered", sourceData: HostRange) => {
         let chart: ChartModel | null = null;
         // The source range's address is only known once the queue runs; read it from a load queued now.
-        const source = sourceData as FakeRange;
+        const source = ownRange(queue, sourceData);
         source.load("address");
         queue.add(() => {
           const parsed = parseAddress(source.address);
@@ -683,7 +700,7 @@ function fakeNames(queue: Queue): HostContext["workbook"]["names"] {
     },
     add: (name: string, reference: HostRange | string) => {
       if (typeof reference === "string") throw new FakeApiError("InvalidArgument", "The demo sheet names ranges given as Range objects only.");
-      const range = reference as FakeRange;
+      const range = ownRange(queue, reference);
       range.load("address");
       queue.add(() => {
         checkNewName(queue.workbook, name);

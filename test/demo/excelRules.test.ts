@@ -114,3 +114,18 @@ describe("the used range (Microsoft, \"Excel.Worksheet class\", getUsedRangeOrNu
     expect(addresses).toEqual(["'Paint line'!A1:E10", "'Paint line'!A1:A2"]);
   });
 });
+
+describe("proxies belong to their own Excel.run (office-js CommonUtility.validateContext)", () => {
+  it("refuses a range from an earlier batch as a chart's source", async () => {
+    const w = new Workbook([S]);
+    w.writeEntries(S, 0, 0, [["Thickness"], [50], [51]]);
+    const run = fakeRun(w);
+    const kept = await run(async (context) => context.workbook.worksheets.getItem(S).getRange("A1:A3"));
+    const reuse = run(async (context) => {
+      context.workbook.worksheets.getItem(S).charts.add("ColumnClustered", kept);
+      await context.sync();
+    });
+    await expect(reuse).rejects.toMatchObject({ code: "InvalidRequestContext" });
+    expect(w.charts).toEqual([]);
+  });
+});
