@@ -12,6 +12,8 @@
 import type { Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { browserAvailable, cellText, openDemo, rowOfLabel, selectCells, snap, startSession, typeIntoCell, type Session } from "./browser";
+import { NUMBER_FORMATS } from "../../src/report/resultBlock";
+import { formatCell } from "../../src/taskpane/numberFormat";
 
 function choose(n: number, k: number): bigint {
   let c = 1n;
@@ -26,9 +28,9 @@ function upperTail(k: number, n: number): number {
   return Number(sum) / Number(2n ** BigInt(n));
 }
 
-/** The pane's p-value format for these sizes: four decimals. */
-function fourDecimals(p: number): string {
-  return p.toFixed(4);
+/** A p-value as the block's number format shows it (test/report/formats.test.ts checks that format against Excel's rules). */
+function shownPValue(p: number): string {
+  return formatCell(p, NUMBER_FORMATS.pvalue);
 }
 
 const SHEET = "Paint line";
@@ -107,7 +109,7 @@ describe.skipIf(!run)("the pane on the demo page", () => {
 
     await page.getByRole("button", { name: "Next: the result" }).click();
     // By hand: 16 of the 22 values lie above 50, 5 below, 1 tie left out: n = 21.
-    const expected = fourDecimals(upperTail(16, 21));
+    const expected = shownPValue(upperTail(16, 21));
     await eventually(() => previewValue(page, "p-value")).toBe(expected);
     expect(await page.locator(".es-plot").first().isVisible()).toBe(true);
     expect(await page.getByLabel("Top-left cell of the block").inputValue()).toBe("E1");
@@ -130,7 +132,7 @@ describe.skipIf(!run)("the pane on the demo page", () => {
     await typeIntoCell(page, "B26", "53");
     const nLine = await rowOfLabel(page, 4, "Numbers in range (n total)");
     await eventually(() => cellText(page, nLine, 5)).toBe("23");
-    await eventually(() => cellText(page, pLine, 5)).toBe(fourDecimals(upperTail(17, 22)));
+    await eventually(() => cellText(page, pLine, 5)).toBe(shownPValue(upperTail(17, 22)));
     // The recorded chart was made on the table's column, so it follows the new row too.
     expect(await chart.innerText()).toContain("of 'Paint line'!B1:B26");
     await snap(page, "06-one-sample-row-added", true);
@@ -157,7 +159,7 @@ describe.skipIf(!run)("the pane on the demo page", () => {
     await snap(page, "09-paired-settings");
     await page.getByRole("button", { name: "Next: the result" }).click();
     // By hand: of the 22 complete pairs, 18 differences are negative, 3 positive, 1 zero; two-sided p = 2 P(X <= 3), n = 21.
-    const expected = fourDecimals(2 * upperTail(18, 21));
+    const expected = shownPValue(2 * upperTail(18, 21));
     await eventually(() => previewValue(page, "p-value")).toBe(expected);
     await eventually(() => previewValue(page, "Pairs skipped (one side blank or not a number)")).toBe("2");
     await snap(page, "10-paired-result");
