@@ -28,7 +28,15 @@ const word = fc.constantFrom(
   "normal", "auto", "pratt", "lower", "upper", "interpolated", "holm", "bonferroni", "hochberg", "bh", "by", "", " ", "GREATER ", "x", "50",
 );
 
-const cell = fc.oneof({ weight: 6, arbitrary: number }, { weight: 1, arbitrary: word }, fc.constant(null), fc.constant(""), fc.boolean());
+const cell = fc.oneof(
+  { weight: 6, arbitrary: number },
+  { weight: 1, arbitrary: word },
+  fc.constant(null),
+  fc.constant(""),
+  fc.boolean(),
+  // An error cell, as the host hands it where it does not short-circuit the call.
+  fc.constantFrom({ code: "#N/A" }, { code: "#DIV/0!", message: "" }),
+);
 
 /** A range of one shape, as rows of cells; sometimes one value repeated (many ties). */
 function range(rows: number, columns: number): fc.Arbitrary<unknown[][]> {
