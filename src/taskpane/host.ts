@@ -9,9 +9,22 @@
  * the demo sheet implements exactly these and nothing more.
  * Reference: Microsoft, "Excel JavaScript API" (ExcelApi 1.1–1.9 requirement
  * sets): Excel.run, RequestContext.sync, Range.load/values/formulas/numberFormat,
- * Worksheet.getUsedRangeOrNullObject, TableCollection.add, ChartCollection.add.
+ * Range.clear, Range.getCellProperties/setCellProperties (1.9),
+ * Worksheet.getUsedRangeOrNullObject, TableCollection.add/getItemOrNullObject,
+ * Table.name/convertToRange, ChartCollection.add/getItemOrNullObject,
+ * Chart.name/delete, NamedItemCollection.add/getItemOrNullObject and
+ * NamedItem.getRangeOrNullObject/delete (1.4).
  *
- * Cost: each operation is one `run` with one or two `sync` round trips.
+ * A write is one batch that cannot half-happen: it reads what it will
+ * change, queues every change and syncs once. When the workbook refuses a
+ * command of the batch, the commands before it have been carried out and
+ * the rest have not (Microsoft, "OfficeExtension.Error class": the trace
+ * holds what was "executed before the error occurred"), so the host puts
+ * back what it read, removes by name what it made, and reads the workbook
+ * again to say what, if anything, could not be put back.
+ *
+ * Cost: each operation is one `run` with one or two `sync` round trips; a
+ * write is one `run` of three, and a refused write two more.
  */
 import { formatAddress, parseAddress, rectSize, type CellRect } from "./a1";
 import { BLOCK_NAME_PREFIX, type BlockMark, type PlannedWrite } from "./writePlan";

@@ -1,13 +1,14 @@
 /**
  * The pane's workbook steps, free of any page: reading and describing a data
  * range, choosing how the formulas refer to it, finding the default place for
- * the block, and writing it (after the overwrite check, the table conversion
- * the person agreed to, the formulas in one batch, then formats, then the
- * optional chart). Everything goes through the host module.
+ * the block, and writing it: planned and checked whole first, then the
+ * overwrite check, then one batch holding the table conversion the person
+ * agreed to, the formulas, formats and the optional chart. Everything goes
+ * through the host module.
  *
  * Method: see dataInfo.ts (header and table detection), references.ts
  * (reference forms), placement.ts (default place, overwrite list),
- * preview.ts (rows, formulas, formats).
+ * preview.ts (rows, formulas, formats), writePlan.ts (Excel's limits, names).
  *
  * Cost: a few `run` batches per step; O(cells of the data) in the pane.
  */
