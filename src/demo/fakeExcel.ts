@@ -300,7 +300,8 @@ class FakeRange implements HostRange {
 
   /**
    * Per-cell font properties (Microsoft, "Excel.Range class", getCellProperties, ExcelApi 1.9); the
-   * answer is readable after the sync. An automatic font colour reads as "#000000" here.
+   * answer is readable after the sync, as a ClientResult's value is. An automatic font colour reads as
+   * "#000000" here (an assumption about Excel's answer, not checked in Excel).
    */
   getCellProperties(): { readonly value: CellFont[][] } {
     const result = new Loaded();
@@ -452,7 +453,10 @@ class FakeTable implements HostTable {
   }
 }
 
-/** Chart names of each demo workbook's charts ("Chart 1", ... as Excel names a new chart, unless renamed). */
+/**
+ * Chart names of each demo workbook's charts: "Chart 1", "Chart 2", ... until renamed through Chart.name
+ * (Microsoft, "Excel.Chart class": name, "the name of a chart object"; the default wording is common practice).
+ */
 const chartNames = new WeakMap<ChartModel, string>();
 
 function chartName(workbook: Workbook, chart: ChartModel): string {
