@@ -206,7 +206,9 @@ export class Workbook {
   /**
    * Writes entries into a rectangle (one batch: one recalculation). Values
    * follow the typing rules: "=..." is a formula, "'..." is text, numbers and
-   * TRUE/FALSE are read as such, "" clears the cell but keeps its format.
+   * TRUE/FALSE are read as such, "" clears the cell but keeps its format, and
+   * null leaves the cell as it is (Microsoft, "Blank and null values in Excel
+   * add-ins": null in a 2-D array leaves that cell unchanged).
    */
   writeEntries(sheetName: string, top: number, left: number, entries: readonly (readonly unknown[])[], typed = false): void {
     const sheet = this.sheet(sheetName);
@@ -214,9 +216,11 @@ export class Workbook {
     const outside = entries.length === 0 || width === 0 ? null : areaRefusal({ top, left, bottom: top + entries.length - 1, right: left + width - 1 });
     if (outside) throw new RefusedEntry(outside);
     // Every entry is checked before any is written: a refused write changes nothing.
-    const checked = entries.map((row) => row.map(checkedEntry));
+    const checked = entries.map((row) => row.map((entry) => (entry === null ? null : checkedEntry(entry))));
     checked.forEach((row, r) =>
-      row.forEach(({ constant, formula, parsed }, c) => {
+      row.forEach((entry, c) => {
+        if (entry === null) return;
+        const { constant, formula, parsed } = entry;
         const k = key(top + r, left + c);
         const existing = sheet.cells.get(k);
         if (constant === null && formula === null && existing === undefined) return;

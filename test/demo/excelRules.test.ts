@@ -129,3 +129,27 @@ describe("proxies belong to their own Excel.run (office-js CommonUtility.validat
     expect(w.charts).toEqual([]);
   });
 });
+
+describe("null and empty text in what the API writes (Microsoft, \"Blank and null values in Excel add-ins\")", () => {
+  it("leaves a cell given null as it is and clears a cell given \"\"", async () => {
+    const w = new Workbook([S]);
+    w.writeEntries(S, 0, 0, [["keep", "clear", "old"]]);
+    w.setFormat(S, { top: 0, left: 0, bottom: 0, right: 2 }, { numberFormat: "0.00" });
+    await fakeRun(w)(async (context) => {
+      const range = context.workbook.worksheets.getItem(S).getRange("A1:C1");
+      range.formulas = [[null, "", "=1+1"]] as unknown as string[][];
+      range.numberFormat = [[null, "", "0%"]] as unknown as string[][];
+      await context.sync();
+    });
+    expect([w.entry(S, 0, 0), w.entry(S, 0, 1), w.entry(S, 0, 2)]).toEqual(["keep", "", "=1+1"]);
+    expect([0, 1, 2].map((c) => w.format(S, 0, c).numberFormat)).toEqual(["0.00", "General", "0%"]);
+  });
+
+  it("refuses null for a whole property", async () => {
+    const write = fakeRun(new Workbook([S]))(async (context) => {
+      context.workbook.worksheets.getItem(S).getRange("A1").values = null as unknown as string[][];
+      await context.sync();
+    });
+    await expect(write).rejects.toMatchObject({ code: "InvalidArgument" });
+  });
+});
