@@ -8,6 +8,13 @@
  * `blockFormula` turns it into the locale-independent formula text that the
  * pane puts into `Range.formulas`, and `blockValue` evaluates it on cell
  * matrices through the catalogue's own functions, as REPORT does.
+ *
+ * The block checks itself where the host can mislead it: a row compares the
+ * sheet's own COUNT of the data with the numbers Evensplit read (some Excel
+ * builds pass blank cells to add-ins as 0), and the signed-rank method row
+ * states the method that ran, which under "auto" depends on the data's size.
+ *
+ * Cost: O(rows) to build; evaluation costs the catalogue calls it makes.
  */
 import { EXACT_AUTO_LIMIT } from "../stats/signedRank";
 import type { Alternative, SignTestMethod, SignedRankMethod, TieRule, ZeroRule } from "../stats/types";
