@@ -1,0 +1,773 @@
+/**
+ * The part of the Excel JavaScript API that the pane's host module uses,
+ * implemented over the demo workbook, so that the very same pane code runs on
+ * the demo page.
+ *
+ * Method: the batching model of the real API (Microsoft, "Excel JavaScript
+ * object model in Office Add-ins": proxy objects, load, sync). Setting a
+ * property or calling a method only queues it; `load` queues a read; `sync`
+ * carries out the queue in order inside one workbook batch (one
+ * recalculation) and only then makes loaded properties readable. Reading a
+ * property that was not loaded and synced throws, as the real API does, so a
+ * forgotten `load` in the pane fails here too. Errors (an unknown sheet,
+ * overlapping tables, an entry or a range Excel would refuse) surface at
+ * `sync`, with the API's error codes; Excel.run refuses a batch that does not
+ * return a promise.
+ *
+ * Cost: O(cells touched) per sync.
+ */
+import { formatAddress, parseAddress, rectSize, type CellRect } from "../taskpane/a1";
+import type { CellFont, ClearWhat, HostChart, HostContext, HostFont, HostNamedItem, HostRange, HostTable, HostTableColumn, HostWorksheet, RunBatch } from "../taskpane/host";
+import { isError, type Scalar } from "./formula/values";
+import { formatCell } from "../taskpane/numberFormat";
+import type { ChartModel, TableModel, Workbook } from "./workbook";
+import { areaRefusal, RefusedEntry } from "./limits";
+
+/**
+ * An error as the real API reports it: a code and a message.
+ *
+ * @example
+ * new FakeApiError("ItemNotFound", "There is no worksheet named Summary.").code; // "ItemNotFound"
+ */
+export class FakeApiError extends Error {
+  /** As OfficeExtension.Error carries it (node_modules/@microsoft/office-js, Utility.createRuntimeError). */
+  readonly debugInfo: { readonly code: string; readonly message: string };
+  constructor(
+    readonly code: "ItemNotFound" | "InvalidArgument" | "PropertyNotLoaded" | "InvalidOperation" | "RunMustReturnPromise" | "InvalidRequestContext",
+    message: string,
+  ) {
+    super(message);
+    this.name = "RichApi.Error";
+    this.debugInfo = { code, message };
+  }
+}
+
+class Queue {
+  private readonly operations: (() => void)[] = [];
+  constructor(readonly workbook: Workbook) {}
+  add(operation: () => void): void {
+    this.operations.push(operation);
+  }
+  flush(): void {
+    const pending = this.operations.splice(0);
+    this.workbook.batch(() => {
+      for (const operation of pending) {
+        try {
+          operation();
+        } catch (thrown) {
+          // What Excel will not hold (limits.ts) fails the sync with InvalidArgument (Microsoft, "Error handling
+          // with the application-specific JavaScript APIs"); what ran before it stays done, as in Excel.
+          if (thrown instanceof RefusedEntry) throw new FakeApiError("InvalidArgument", thrown.message);
+          throw thrown;
+        }
+      }
+    });
+  }
+}
+
+/** Values a proxy has loaded; readable only after the sync that carried the load out. */
+class Loaded {
+  private readonly values = new Map<string, unknown>();
+  /** The property names of a load call ("address, values"). */
+  static names(list: string): string[] {
+    return list.split(",").map((n) => n.trim()).filter((n) => n !== "");
+  }
+  set(name: string, value: unknown): void {
+    this.values.set(name, value);
+  }
+  get<T>(name: string, owner: string): T {
+    if (!this.values.has(name)) {
+      throw new FakeApiError("PropertyNotLoaded", `The property '${name}' of ${owner} is not available. Load it and call sync first.`);
+    }
+    return this.values.get(name) as T;
+  }
+}
+
+function sheetOrThrow(workbook: Workbook, name: string): string {
+  if (!workbook.hasSheet(name)) throw new FakeApiError("ItemNotFound", `There is no worksheet named ${name}.`);
+  return workbook.sheetName(name);
+}
+
+/** Range.values shows an error as its code text, a blank as "". */
+function apiValue(value: Scalar): unknown {
+  if (value === null) return "";
+  return isError(value) ? value.code : value;
+}
+
+function checkShape(rect: CellRect, matrix: unknown[][]): void {
+  const { rows, columns } = rectSize(rect);
+  if (!Array.isArray(matrix)) throw new FakeApiError("InvalidArgument", "A range's values, formulas or formats are set with a two-dimensional array.");
+  if (matrix.length !== rows || matrix.some((r) => !Array.isArray(r) || r.length !== columns)) {
+    throw new FakeApiError("InvalidArgument", `The array does not have the size of the range (${rows} × ${columns}).`);
+  }
+}
+
+type Where = () => { sheet: string; rect: CellRect } | null;
+
+class FakeFont implements HostFont {
+  constructor(private readonly queue: Queue, private readonly where: Where) {}
+  private set(patch: Partial<{ bold: boolean; italic: boolean; color: string | null }>): void {
+    this.queue.add(() => {
+      const w = this.where();
+      if (w) this.queue.workbook.setFormat(w.sheet, w.rect, patch);
+    });
+  }
+  get bold(): boolean {
+    throw new FakeApiError("PropertyNotLoaded", "The demo sheet does not read fonts back.");
+  }
+  set bold(value: boolean) {
+    this.set({ bold: value });
+  }
+  get italic(): boolean {
+    throw new FakeApiError("PropertyNotLoaded", "The demo sheet does not read fonts back.");
+  }
+  set italic(value: boolean) {
+    this.set({ italic: value });
+  }
+  get color(): string {
+    throw new FakeApiError("PropertyNotLoaded", "The demo sheet does not read fonts back.");
+  }
+  set color(value: string) {
+    this.set({ color: value });
+  }
+}
+
+/**
+ * The range itself when it belongs to this request context; a proxy from
+ * another Excel.run is refused, as office-js refuses it
+ * (CommonUtility.validateContext: InvalidRequestContext).
+ */
+function ownRange(queue: Queue, range: HostRange): FakeRange {
+  if (!(range instanceof FakeRange) || !range.belongsTo(queue)) {
+    throw new FakeApiError("InvalidRequestContext", "Cannot use the object across different request contexts.");
+  }
+  return range;
+}
+
+class FakeRange implements HostRange {
+  private readonly loaded = new Loaded();
+  readonly format: { readonly font: HostFont; autofitColumns(): void };
+
+  private readonly where: Where;
+
+  /** True when this proxy was made by the request context that owns `queue`. */
+  belongsTo(queue: Queue): boolean {
+    return this.queue === queue;
+  }
+
+  constructor(private readonly queue: Queue, where: Where) {
+    // A range reaching past row 1,048,576 or column XFD (getRow, getColumn, an offset) is refused when
+    // used (Microsoft, "Excel specifications and limits": the sheet's size).
+    this.where = () => {
+      const w = where();
+      const outside = w === null ? null : areaRefusal(w.rect);
+      if (outside) throw new FakeApiError("InvalidArgument", outside);
+      return w;
+    };
+    const font = new FakeFont(queue, this.where);
+    this.format = {
+      font,
+      autofitColumns: () =>
+        this.queue.add(() => {
+          const w = this.where();
+          if (!w) return;
+          const workbook = this.queue.workbook;
+          workbook.autofitColumns(w.sheet, w.rect, (r, c) =>
+            formatCell(apiValue(workbook.value(w.sheet, r, c)) as string | number | boolean, workbook.format(w.sheet, r, c).numberFormat),
+          );
+        }),
+    };
+  }
+
+  load(propertyNames: string): FakeRange {
+    const names = Loaded.names(propertyNames);
+    this.queue.add(() => {
+      const w = this.where();
+      this.loaded.set("isNullObject", w === null);
+      const workbook = this.queue.workbook;
+      for (const name of names) {
+        if (w === null) {
+          this.loaded.set(name, null);
+          continue;
+        }
+        const { sheet, rect } = w;
+        const each = (read: (row: number, column: number) => unknown): unknown[][] => {
+          const rows: unknown[][] = [];
+          for (let r = rect.top; r <= rect.bottom; r++) {
+            const row: unknown[] = [];
+            for (let c = rect.left; c <= rect.right; c++) row.push(read(r, c));
+            rows.push(row);
+          }
+          return rows;
+        };
+        switch (name) {
+          case "address":
+            this.loaded.set(name, formatAddress(rect, sheet));
+            break;
+          case "values":
+            this.loaded.set(name, each((r, c) => apiValue(workbook.value(sheet, r, c))));
+            break;
+          case "formulas":
+            this.loaded.set(name, each((r, c) => workbook.entry(sheet, r, c)));
+            break;
+          case "numberFormat":
+            this.loaded.set(name, each((r, c) => workbook.format(sheet, r, c).numberFormat));
+            break;
+          default:
+            throw new FakeApiError("InvalidArgument", `The demo sheet does not offer Range.${name}.`);
+        }
+      }
+    });
+    return this;
+  }
+
+  get address(): string {
+    return this.loaded.get("address", "Range");
+  }
+  get isNullObject(): boolean {
+    return this.loaded.get("isNullObject", "Range");
+  }
+  get values(): unknown[][] {
+    return this.loaded.get("values", "Range");
+  }
+  set values(matrix: unknown[][]) {
+    this.write(matrix);
+  }
+  get formulas(): unknown[][] {
+    return this.loaded.get("formulas", "Range");
+  }
+  set formulas(matrix: unknown[][]) {
+    this.write(matrix);
+  }
+  get numberFormat(): unknown[][] {
+    return this.loaded.get("numberFormat", "Range");
+  }
+  set numberFormat(matrix: unknown[][]) {
+    this.queue.add(() => {
+      const w = this.where();
+      if (!w) return;
+      checkShape(w.rect, matrix);
+      // null leaves a cell's format as it is, "" resets it to General (Microsoft, "Blank and null values in Excel add-ins").
+      matrix.forEach((row, r) =>
+        row.forEach((format, c) => {
+          if (format === null) return;
+          const cell = { top: w.rect.top + r, left: w.rect.left + c, bottom: w.rect.top + r, right: w.rect.left + c };
+          this.queue.workbook.setFormat(w.sheet, cell, { numberFormat: format === "" ? "General" : String(format) });
+        }),
+      );
+    });
+  }
+
+  private write(matrix: unknown[][]): void {
+    // A whole property set to null (or anything not an array) is not valid input (same page).
+    const copy: unknown[][] = Array.isArray(matrix) ? matrix.map((row) => (Array.isArray(row) ? [...row] : row)) : matrix;
+    this.queue.add(() => {
+      const w = this.where();
+      if (!w) throw new FakeApiError("InvalidOperation", "This range does not exist.");
+      checkShape(w.rect, copy);
+      this.queue.workbook.writeEntries(w.sheet, w.rect.top, w.rect.left, copy);
+    });
+  }
+
+  private part(pick: (rect: CellRect) => CellRect): FakeRange {
+    return new FakeRange(this.queue, () => {
+      const w = this.where();
+      return w ? { sheet: w.sheet, rect: pick(w.rect) } : null;
+    });
+  }
+
+  getRow(row: number): FakeRange {
+    return this.part((rect) => ({ ...rect, top: rect.top + row, bottom: rect.top + row }));
+  }
+
+  getColumn(column: number): FakeRange {
+    return this.part((rect) => ({ ...rect, left: rect.left + column, right: rect.left + column }));
+  }
+
+  select(): void {
+    this.queue.add(() => {
+      const w = this.where();
+      if (w) this.queue.workbook.select(w);
+    });
+  }
+
+  /** Microsoft, "Excel.Range class", clear(applyTo): "All" (the default) clears contents and formats. */
+  clear(applyTo: ClearWhat = "All"): void {
+    this.queue.add(() => {
+      const w = this.where();
+      if (!w) throw new FakeApiError("InvalidOperation", "This range does not exist.");
+      const { rows, columns } = rectSize(w.rect);
+      if (applyTo !== "Formats") this.queue.workbook.writeEntries(w.sheet, w.rect.top, w.rect.left, Array.from({ length: rows }, () => Array<string>(columns).fill("")));
+      if (applyTo !== "Contents") this.queue.workbook.setFormat(w.sheet, w.rect, { numberFormat: "General", bold: false, italic: false, color: null });
+    });
+  }
+
+  /**
+   * Per-cell font properties (Microsoft, "Excel.Range class", getCellProperties, ExcelApi 1.9); the
+   * answer is readable after the sync, as a ClientResult's value is. An automatic font colour reads as
+   * "#000000" here (an assumption about Excel's answer, not checked in Excel).
+   */
+  getCellProperties(): { readonly value: CellFont[][] } {
+    const result = new Loaded();
+    this.queue.add(() => {
+      const w = this.where();
+      if (!w) throw new FakeApiError("InvalidOperation", "This range does not exist.");
+      const rows: CellFont[][] = [];
+      for (let r = w.rect.top; r <= w.rect.bottom; r++) {
+        const row: CellFont[] = [];
+        for (let c = w.rect.left; c <= w.rect.right; c++) {
+          const f = this.queue.workbook.format(w.sheet, r, c);
+          row.push({ format: { font: { bold: f.bold, italic: f.italic, color: f.color ?? "#000000" } } });
+        }
+        rows.push(row);
+      }
+      result.set("value", rows);
+    });
+    return {
+      get value(): CellFont[][] {
+        return result.get("value", "ClientResult");
+      },
+    };
+  }
+
+  /** Sets per-cell font properties; the array must have the range's shape (Microsoft, "Excel.Range class", setCellProperties). */
+  setCellProperties(properties: CellFont[][]): void {
+    const copy = properties.map((row) => [...row]);
+    this.queue.add(() => {
+      const w = this.where();
+      if (!w) throw new FakeApiError("InvalidOperation", "This range does not exist.");
+      checkShape(w.rect, copy);
+      copy.forEach((row, r) =>
+        row.forEach((cell, c) => {
+          const { bold, italic, color } = cell.format?.font ?? {};
+          const patch = { ...(bold === undefined ? {} : { bold }), ...(italic === undefined ? {} : { italic }), ...(color === undefined ? {} : { color }) };
+          const at = { top: w.rect.top + r, left: w.rect.left + c, bottom: w.rect.top + r, right: w.rect.left + c };
+          this.queue.workbook.setFormat(w.sheet, at, patch);
+        }),
+      );
+    });
+  }
+}
+
+/** Defined names of each demo workbook (Microsoft, "Excel.NamedItemCollection class"): lower-cased name to the name and its cells. */
+const definedNames = new WeakMap<Workbook, Map<string, { name: string; sheet: string; rect: CellRect }>>();
+
+function namesOf(workbook: Workbook): Map<string, { name: string; sheet: string; rect: CellRect }> {
+  let names = definedNames.get(workbook);
+  if (!names) definedNames.set(workbook, (names = new Map()));
+  return names;
+}
+
+/**
+ * Refuses a name Excel would refuse for a table or a defined name (Microsoft, "Rename an Excel table"
+ * and "Names in formulas"): it starts with a letter, underscore or backslash, holds letters, digits,
+ * points and underscores, is at most 255 characters, does not read as a cell reference, and is not
+ * already the name of a table or a defined name (they share one namespace, compared without case).
+ */
+function checkNewName(workbook: Workbook, name: string): void {
+  const shaped = /^[\p{L}_\\][\p{L}\p{N}._]*$/u.test(name) && name.length <= 255 && !/^[A-Za-z]{1,3}[0-9]+$/.test(name) && !/^[RrCc]$/.test(name);
+  if (!shaped) throw new FakeApiError("InvalidArgument", `${name} is not a valid name for a table or a defined name.`);
+  const key = name.toLowerCase();
+  if (workbook.tables.some((t) => t.name.toLowerCase() === key) || namesOf(workbook).has(key)) {
+    throw new FakeApiError("InvalidArgument", `The name ${name} is already in use in this workbook.`);
+  }
+}
+
+class FakeTable implements HostTable {
+  private readonly loaded = new Loaded();
+  private readonly columnsLoaded = new Loaded();
+  readonly columns: { readonly items: HostTableColumn[]; load(propertyNames: string): unknown };
+
+  /** `model` answers null when there is no such table (a *OrNullObject proxy). */
+  constructor(private readonly queue: Queue, private readonly model: () => TableModel | null) {
+    const columnsLoaded = this.columnsLoaded;
+    const existing = (): TableModel => {
+      const found = model();
+      if (found === null) throw new FakeApiError("ItemNotFound", "The table does not exist.");
+      return found;
+    };
+    this.columns = {
+      get items(): HostTableColumn[] {
+        return columnsLoaded.get("items", "TableColumnCollection");
+      },
+      load: () => {
+        queue.add(() => columnsLoaded.set("items", queue.workbook.tableColumns(existing()).map((name) => ({ name }))));
+        return this.columns;
+      },
+    };
+  }
+
+  private existing(): TableModel {
+    const found = this.model();
+    if (found === null) throw new FakeApiError("ItemNotFound", "The table does not exist.");
+    return found;
+  }
+
+  /** Marks the name as loaded already (items of a loaded collection come with what was asked for). */
+  preload(name: string): void {
+    this.loaded.set("name", name);
+  }
+
+  get name(): string {
+    return this.loaded.get("name", "Table");
+  }
+
+  /** Renames the table; the new name follows Excel's rules for table names (see checkNewName). */
+  set name(value: string) {
+    this.queue.add(() => {
+      const table = this.existing();
+      if (table.name.toLowerCase() !== value.toLowerCase()) checkNewName(this.queue.workbook, value);
+      // The demo's model keeps the name read-only for everyone else; renaming is the API's job alone.
+      (table as { name: string }).name = value;
+    });
+  }
+
+  get isNullObject(): boolean {
+    return this.loaded.get("isNullObject", "Table");
+  }
+
+  /** A table offers only its name (and whether it exists) here, whatever is asked for. */
+  load(): FakeTable {
+    this.queue.add(() => {
+      const table = this.model();
+      this.loaded.set("isNullObject", table === null);
+      this.loaded.set("name", table?.name ?? null);
+    });
+    return this;
+  }
+
+  getRange(): FakeRange {
+    return new FakeRange(this.queue, () => {
+      const table = this.existing();
+      return { sheet: table.sheet, rect: table.rect };
+    });
+  }
+
+  /** Microsoft, "Excel.Table class", convertToRange(): the table goes, its cells and their contents stay. */
+  convertToRange(): FakeRange {
+    let was: { sheet: string; rect: CellRect } | null = null;
+    this.queue.add(() => {
+      const table = this.existing();
+      was = { sheet: table.sheet, rect: table.rect };
+      const tables = this.queue.workbook.tables;
+      tables.splice(tables.indexOf(table), 1);
+      this.queue.workbook.recalculate();
+    });
+    return new FakeRange(this.queue, () => was);
+  }
+}
+
+/**
+ * Chart names of each demo workbook's charts: "Chart 1", "Chart 2", ... until renamed through Chart.name
+ * (Microsoft, "Excel.Chart class": name, "the name of a chart object"; the default wording is common practice).
+ */
+const chartNames = new WeakMap<ChartModel, string>();
+
+function chartName(workbook: Workbook, chart: ChartModel): string {
+  let name = chartNames.get(chart);
+  if (name === undefined) {
+    let n = workbook.charts.indexOf(chart) + 1;
+    while (workbook.charts.some((c) => c !== chart && chartNames.get(c) === `Chart ${n}`)) n++;
+    chartNames.set(chart, (name = `Chart ${n}`));
+  }
+  return name;
+}
+
+class FakeChart implements HostChart {
+  private readonly loaded = new Loaded();
+  readonly title: { text: string };
+  /** `model` answers null when there is no such chart (a *OrNullObject proxy). */
+  constructor(private readonly queue: Queue, private readonly model: () => ChartModel | null) {
+    const existing = (): ChartModel => this.existing();
+    this.title = {
+      get text(): string {
+        throw new FakeApiError("PropertyNotLoaded", "The demo sheet does not read chart titles back.");
+      },
+      set text(value: string) {
+        queue.add(() => (existing().title = value));
+      },
+    };
+  }
+  private existing(): ChartModel {
+    const found = this.model();
+    if (found === null) throw new FakeApiError("ItemNotFound", "The chart does not exist.");
+    return found;
+  }
+  preload(name: string): void {
+    this.loaded.set("name", name);
+  }
+  get name(): string {
+    return this.loaded.get("name", "Chart");
+  }
+  set name(value: string) {
+    this.queue.add(() => chartNames.set(this.existing(), value));
+  }
+  get isNullObject(): boolean {
+    return this.loaded.get("isNullObject", "Chart");
+  }
+  /** A chart offers only its name (and whether it exists) here, whatever is asked for. */
+  load(): FakeChart {
+    this.queue.add(() => {
+      const chart = this.model();
+      this.loaded.set("isNullObject", chart === null);
+      this.loaded.set("name", chart === null ? null : chartName(this.queue.workbook, chart));
+    });
+    return this;
+  }
+  setPosition(startCell: string, endCell?: string): void {
+    this.queue.add(() => {
+      const chart = this.existing();
+      chart.from = startCell;
+      chart.to = endCell ?? startCell;
+    });
+  }
+  /** Microsoft, "Excel.Chart class", delete(): the chart object goes; its source cells stay. */
+  delete(): void {
+    this.queue.add(() => {
+      const chart = this.existing();
+      const charts = this.queue.workbook.charts;
+      charts.splice(charts.indexOf(chart), 1);
+      this.queue.workbook.recalculate();
+    });
+  }
+}
+
+class FakeNamedItem implements HostNamedItem {
+  private readonly loaded = new Loaded();
+  constructor(private readonly queue: Queue, private readonly key: string) {}
+  preload(name: string): void {
+    this.loaded.set("name", name);
+  }
+  get name(): string {
+    return this.loaded.get("name", "NamedItem");
+  }
+  get isNullObject(): boolean {
+    return this.loaded.get("isNullObject", "NamedItem");
+  }
+  load(): FakeNamedItem {
+    this.queue.add(() => {
+      const found = namesOf(this.queue.workbook).get(this.key);
+      this.loaded.set("isNullObject", found === undefined);
+      this.loaded.set("name", found?.name ?? null);
+    });
+    return this;
+  }
+  /** The cells the name refers to (Microsoft, "Excel.NamedItem class", getRangeOrNullObject, ExcelApi 1.4). */
+  getRangeOrNullObject(): FakeRange {
+    return new FakeRange(this.queue, () => {
+      const found = namesOf(this.queue.workbook).get(this.key);
+      return found ? { sheet: found.sheet, rect: found.rect } : null;
+    });
+  }
+  /** Microsoft, "Excel.NamedItem class", delete(): the name goes; the cells it named stay. */
+  delete(): void {
+    this.queue.add(() => {
+      if (!namesOf(this.queue.workbook).delete(this.key)) throw new FakeApiError("ItemNotFound", "There is no such name.");
+    });
+  }
+}
+
+class FakeWorksheet implements HostWorksheet {
+  private readonly loaded = new Loaded();
+  readonly tables: HostWorksheet["tables"];
+  readonly charts: HostWorksheet["charts"];
+
+  constructor(private readonly queue: Queue, private readonly sheetName: () => string) {
+    const tablesLoaded = new Loaded();
+    const workbook = queue.workbook;
+    this.tables = {
+      get items(): HostTable[] {
+        return tablesLoaded.get("items", "TableCollection");
+      },
+      load: () => {
+        queue.add(() => {
+          const sheet = sheetOrThrow(workbook, this.sheetName());
+          const items = workbook.tables
+            .filter((t) => t.sheet === sheet)
+            .map((t) => {
+              const proxy = new FakeTable(queue, () => (workbook.tables.includes(t) ? t : null));
+              proxy.preload(t.name);
+              return proxy;
+            });
+          tablesLoaded.set("items", items);
+        });
+        return this.tables;
+      },
+      add: (address: string, hasHeaders: boolean) => {
+        let created: TableModel | null = null;
+        queue.add(() => {
+          if (!hasHeaders) throw new FakeApiError("InvalidArgument", "The demo sheet only makes tables whose first row is the header.");
+          const parsed = parseAddress(address);
+          if (!parsed) throw new FakeApiError("InvalidArgument", `${address} is not an address.`);
+          const { sheet = this.sheetName(), ...rect } = parsed;
+          try {
+            created = workbook.addTable(sheetOrThrow(workbook, sheet), rect);
+          } catch (thrown) {
+            throw new FakeApiError("InvalidOperation", thrown instanceof Error ? thrown.message : "The table could not be made.");
+          }
+        });
+        return new FakeTable(queue, () => created);
+      },
+      getItemOrNullObject: (name: string) =>
+        new FakeTable(queue, () => {
+          const sheet = sheetOrThrow(workbook, this.sheetName());
+          return workbook.tables.find((t) => t.sheet === sheet && t.name.toLowerCase() === name.toLowerCase()) ?? null;
+        }),
+    };
+    const chartsLoaded = new Loaded();
+    this.charts = {
+      get items(): HostChart[] {
+        return chartsLoaded.get("items", "ChartCollection");
+      },
+      load: () => {
+        queue.add(() => {
+          const sheet = sheetOrThrow(workbook, this.sheetName());
+          const items = workbook.charts
+            .filter((c) => c.sheet === sheet)
+            .map((c) => {
+              const proxy = new FakeChart(queue, () => (workbook.charts.includes(c) ? c : null));
+              proxy.preload(chartName(workbook, c));
+              return proxy;
+            });
+          chartsLoaded.set("items", items);
+        });
+        return this.charts;
+      },
+      add: (type: "ColumnClustered", sourceData: HostRange) => {
+        let chart: ChartModel | null = null;
+        // The source range's address is only known once the queue runs; read it from a load queued now.
+        const source = ownRange(queue, sourceData);
+        source.load("address");
+        queue.add(() => {
+          const parsed = parseAddress(source.address);
+          if (!parsed) throw new FakeApiError("InvalidArgument", "The chart has no source range.");
+          const { sheet = this.sheetName(), ...rect } = parsed;
+          chart = workbook.addChart({ type, sheet: sheetOrThrow(workbook, sheet), source: rect, title: "", from: "", to: "" });
+          chartName(workbook, chart);
+        });
+        return new FakeChart(queue, () => chart);
+      },
+      getItemOrNullObject: (name: string) =>
+        new FakeChart(queue, () => {
+          const sheet = sheetOrThrow(workbook, this.sheetName());
+          return workbook.charts.find((c) => c.sheet === sheet && chartName(workbook, c) === name) ?? null;
+        }),
+    };
+  }
+
+  get name(): string {
+    return this.loaded.get("name", "Worksheet");
+  }
+
+  /** A worksheet offers only its name here, whatever is asked for. */
+  load(): FakeWorksheet {
+    this.queue.add(() => this.loaded.set("name", sheetOrThrow(this.queue.workbook, this.sheetName())));
+    return this;
+  }
+
+  getRange(address?: string): FakeRange {
+    return new FakeRange(this.queue, () => {
+      const sheet = sheetOrThrow(this.queue.workbook, this.sheetName());
+      if (address === undefined) return { sheet, rect: { top: 0, left: 0, bottom: 1_048_575, right: 16_383 } };
+      const parsed = parseAddress(address);
+      if (!parsed || parsed.sheet !== undefined) throw new FakeApiError("InvalidArgument", `${address} is not an address on this sheet.`);
+      const { top, left, bottom, right } = parsed;
+      return { sheet, rect: { top, left, bottom, right } };
+    });
+  }
+
+  /** Formatted cells count as used unless `valuesOnly` (Microsoft, "Excel.Worksheet class", getUsedRangeOrNullObject). */
+  getUsedRangeOrNullObject(valuesOnly = false): FakeRange {
+    return new FakeRange(this.queue, () => {
+      const sheet = sheetOrThrow(this.queue.workbook, this.sheetName());
+      const rect = this.queue.workbook.usedRect(sheet, !valuesOnly);
+      return rect === null ? null : { sheet, rect };
+    });
+  }
+}
+
+/** The workbook's defined names (Microsoft, "Excel.NamedItemCollection class", ExcelApi 1.4 for add and getItemOrNullObject). */
+function fakeNames(queue: Queue): HostContext["workbook"]["names"] {
+  const loaded = new Loaded();
+  const names: HostContext["workbook"]["names"] = {
+    get items(): HostNamedItem[] {
+      return loaded.get("items", "NamedItemCollection");
+    },
+    load: () => {
+      queue.add(() =>
+        loaded.set(
+          "items",
+          [...namesOf(queue.workbook)].map(([key, { name }]) => {
+            const item = new FakeNamedItem(queue, key);
+            item.preload(name);
+            return item;
+          }),
+        ),
+      );
+      return names;
+    },
+    add: (name: string, reference: HostRange | string) => {
+      if (typeof reference === "string") throw new FakeApiError("InvalidArgument", "The demo sheet names ranges given as Range objects only.");
+      const range = ownRange(queue, reference);
+      range.load("address");
+      queue.add(() => {
+        checkNewName(queue.workbook, name);
+        const parsed = parseAddress(range.address);
+        if (!parsed || parsed.sheet === undefined) throw new FakeApiError("InvalidArgument", "A name needs a range on a sheet.");
+        const { sheet, ...rect } = parsed;
+        namesOf(queue.workbook).set(name.toLowerCase(), { name, sheet: queue.workbook.sheetName(sheet), rect });
+      });
+      return new FakeNamedItem(queue, name.toLowerCase());
+    },
+    getItemOrNullObject: (name: string) => new FakeNamedItem(queue, name.toLowerCase()),
+  };
+  return names;
+}
+
+class FakeContext implements HostContext {
+  readonly queue: Queue;
+  readonly workbook: HostContext["workbook"];
+
+  constructor(workbook: Workbook) {
+    const queue = (this.queue = new Queue(workbook));
+    this.workbook = {
+      getSelectedRange: () => new FakeRange(queue, () => workbook.selection),
+      worksheets: {
+        getItem: (name: string) => new FakeWorksheet(queue, () => name),
+        getActiveWorksheet: () => new FakeWorksheet(queue, () => workbook.selection.sheet),
+      },
+      names: fakeNames(queue),
+    };
+  }
+
+  async sync(): Promise<void> {
+    // A real sync is a round trip; yielding once keeps the pane honest about awaiting it.
+    await new Promise<void>((resolve) => setTimeout(resolve, 0));
+    this.queue.flush();
+  }
+}
+
+/**
+ * Excel.run for the demo workbook: runs a batch against a fresh request
+ * context and syncs what is left queued at the end, as Excel.run does.
+ *
+ * @example
+ * const host = createHost(fakeRun(workbook));
+ */
+export function fakeRun(workbook: Workbook): RunBatch {
+  return async <T>(batch: (context: HostContext) => Promise<T>): Promise<T> => {
+    const context = new FakeContext(workbook);
+    const pending: unknown = batch(context);
+    // Excel.run rejects a batch that does not return a promise (Microsoft, "Excel.run": the batch function
+    // "returns a promise"; the code and message are office-js's own, excel-web-16.00.debug.js).
+    if (typeof (pending as { then?: unknown } | null)?.then !== "function") {
+      throw new FakeApiError(
+        "RunMustReturnPromise",
+        'The batch function passed to the ".run" method didn\'t return a promise. The function must return a promise, so that any automatically-tracked objects can be released at the completion of the batch operation.',
+      );
+    }
+    const result = await (pending as Promise<T>);
+    await context.sync();
+    return result;
+  };
+}
