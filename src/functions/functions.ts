@@ -18,8 +18,11 @@
  */
 import { blockValue, reportCell, resultBlockRows, type BlockRequest } from "../report/resultBlock";
 import { adjustPValues } from "../stats/adjust";
+import { anytimeSignTest } from "../stats/anytimeSign";
+import { numbersInArrivalOrder } from "../stats/arrivalOrder";
 import { numbersFromCells, pairsFromCells, signCountsFromCells } from "../stats/cells";
 import { differencesFrom, pairedDifferences } from "../stats/differences";
+import { confidenceSequence } from "../stats/confidenceSequence";
 import { hodgesLehmann, hodgesLehmannEstimate } from "../stats/hodgesLehmann";
 import { signTestPower, signTestSampleSize } from "../stats/power";
 import { quantileBounds } from "../stats/quantileBounds";
@@ -27,6 +30,7 @@ import { quantileTest } from "../stats/quantileTest";
 import { countSigns, type SignCounts } from "../stats/signCounts";
 import { EXACT_LIMIT, signedRankTest, type SignedRankResult } from "../stats/signedRank";
 import { signTest } from "../stats/signTest";
+import { sprt as sequentialRatioTest } from "../stats/sprt";
 import { unavailable, type BoundMethod, type BoundSide, type Unavailable } from "../stats/types";
 import { cellsArgument, fractionArgument, numberArgument, pairedCellsArgument, probabilityArgument, sampleSizeArgument, type Cells } from "./argumentChecks";
 import { BadArgument, errorFor, oneRow, scalar, unavailableError, type RowCell } from "./errors";
@@ -594,6 +598,92 @@ export function report(
 }
 
 // ---------------------------------------------------------------------------
+// Looking again as rows arrive: the sequential versions, where row order matters
+
+/** The numbers of a range in the order they arrived: down the rows, then across the columns. */
+function arrivingNumbersOf(data: unknown): Float64Array {
+  return numbersInArrivalOrder(cellsArgument("data", data));
+}
+
+/** One end of the watched bounds: the value, or #N/A saying from which row it will exist. */
+function watchedEnd(value: number | null, rowsNeeded: number, rows: number, end: "lower" | "upper"): RowCell {
+  if (value !== null) return value;
+  const message =
+    rowsNeeded === Infinity
+      ? `No ${end} bound: this quantile is too close to ${end === "lower" ? 0 : 1} to be bounded ${end === "lower" ? "below" : "above"} at this confidence.`
+      : `No ${end} bound yet: at this confidence and quantile the first one comes with row ${rowsNeeded}; there ${rows === 1 ? "is 1 row" : `are ${rows} rows`}.`;
+  return unavailableError(unavailable("too-few-values", message, Number.isFinite(rowsNeeded) ? rowsNeeded : undefined));
+}
+
+/**
+ * Sign-test p-value that may be looked at again after every new row, and acted on the first time it falls below alpha, without raising the false-alarm rate (an ordinary p-value watched that way does). Rows count in order: down the rows, then across the columns.
+ * @customfunction WATCHPVALUE
+ * @param data Range with the measurements in the order they arrived, such as A2:A400 or Table1[Thickness].
+ * @param hypothesized_median The median under test, such as 50.
+ * @param [alternative] "two-sided" (default), "greater" (the median is above the hypothesised one) or "less".
+ * @param [ties] Values equal to the hypothesised median: "drop" (default), "split" (taken in pairs, one below and one above) or "conservative".
+ * @returns The p-value after the last row.
+ */
+export function watchpvalue(data: unknown[][], hypothesized_median: unknown, alternative?: unknown, ties?: unknown): number | CellError {
+  return scalar(() => {
+    const center = numberArgument("hypothesized_median", hypothesized_median);
+    const result = anytimeSignTest(arrivingNumbersOf(data), center, {
+      alternative: chooseWord(ALTERNATIVE, alternative),
+      ties: chooseWord(TIES, ties),
+    });
+    return result.available ? result.pValue : unavailableError(result);
+  });
+}
+
+/**
+ * Bounds for the median (or another quantile) that hold at every row count at once, so they may be watched as rows arrive; they only ever narrow. Returns one row: lower, upper, rows used.
+ * @customfunction WATCHBOUNDS
+ * @param data Range with the measurements in the order they arrived, such as A2:A400 or Table1[Thickness].
+ * @param [confidence] Confidence that the bounds hold at every row at once, such as 0.95 (default).
+ * @param [quantile] The quantile to bound, such as 0.9; default 0.5 (the median).
+ * @returns One row: lower, upper, rows used.
+ */
+export function watchbounds(data: unknown[][], confidence?: unknown, quantile?: unknown): unknown[][] {
+  return oneRow(3, () => {
+    const level = fractionArgument("confidence", confidence, 0.95);
+    const q = fractionArgument("quantile", quantile, 0.5, "0.9");
+    const result = confidenceSequence(arrivingNumbersOf(data), { quantile: q, confidence: level });
+    if (!result.available) return unavailableError(result);
+    return [
+      watchedEnd(result.lower, result.rowsForLower, result.rows, "lower"),
+      watchedEnd(result.upper, result.rowsForUpper, result.rows, "upper"),
+      result.rows,
+    ];
+  });
+}
+
+/**
+ * Wald's sequential test for the median, read row by row: "continue" while the rows so far cannot decide, then "reject" (the median differs, as p_above states) or "accept" (it is the hypothesised one) at the first row that can; later rows are not read. Set p_above, alpha and beta before the first row. Returns one row: decision, rows used, log likelihood ratio, accept limit, reject limit.
+ * @customfunction SPRT
+ * @param data Range with the measurements in the order they arrived; values equal to the hypothesised median are left out.
+ * @param hypothesized_median The median under test, such as 50.
+ * @param p_above The chance that a value lies above the hypothesised median under the alternative to detect, such as 0.75 (or 0.25 for a median below it); not 0.5.
+ * @param [alpha] Chance of rejecting when the median is the hypothesised one, such as 0.05 (default).
+ * @param [beta] Chance of accepting when values lie above with chance p_above, such as 0.2 (default).
+ * @returns One row: decision, rows used (numbers read up to the decision), log likelihood ratio, accept limit, reject limit.
+ */
+export function sprt(data: unknown[][], hypothesized_median: unknown, p_above: unknown, alpha?: unknown, beta?: unknown): unknown[][] {
+  try {
+    const center = numberArgument("hypothesized_median", hypothesized_median);
+    const pAbove = fractionArgument("p_above", p_above, undefined, "0.75");
+    if (pAbove === 0.5) throw new BadArgument("p_above must differ from 0.5, the chance under the hypothesised median: give the chance to detect, such as 0.75.");
+    const errorI = fractionArgument("alpha", alpha, 0.05, "0.05");
+    const errorII = fractionArgument("beta", beta, 0.2, "0.2");
+    if (errorI + errorII >= 1) throw new BadArgument(`alpha + beta must be below 1, such as 0.05 and 0.2; got ${errorI} + ${errorII}.`);
+    const r = sequentialRatioTest(arrivingNumbersOf(data), center, { pAbove, alpha: errorI, beta: errorII });
+    return [[r.decision, r.rowsUsed, r.logLikelihoodRatio, r.limits.acceptAt, r.limits.rejectAt]];
+  } catch (thrown) {
+    const error = errorFor(thrown);
+    return [[error, error, error, error, error]];
+  }
+}
+
+// ---------------------------------------------------------------------------
 // Calling the catalogue by id (REPORT, and the demo page's formula evaluator)
 
 type CatalogueFunction = (...args: unknown[]) => unknown;
@@ -619,6 +709,9 @@ const CATALOGUE: Readonly<Record<string, CatalogueFunction>> = {
   SAMPLESIZE: samplesize as CatalogueFunction,
   ADJUST: adjust as CatalogueFunction,
   REPORT: report as CatalogueFunction,
+  WATCHPVALUE: watchpvalue as CatalogueFunction,
+  WATCHBOUNDS: watchbounds as CatalogueFunction,
+  SPRT: sprt as CatalogueFunction,
 };
 
 /** Every catalogue id, as registered under the EVENSPLIT namespace. */

@@ -117,7 +117,8 @@ export function standingCounts(t: number, q: number, alpha: number): StandingCou
 /**
  * The first row count t >= 1 at which a count of 0 (`end` "lower": then X(1) bounds below) or of t
  * ("upper") is ruled out: -log(t + 1) - t log(r) >= log(1/alpha) with r = 1 − q or q. Where that function
- * falls it stays below 0, so the answer lies where it rises, found by doubling and bisection.
+ * falls it stays below 0, so the answer lies where it rises, found by doubling and bisection. Infinity when
+ * no count of rows a double can hold will do.
  *
  * @example
  * rowsToBound(0.5, 0.05, "lower"); // 8: 2^8 / 9 ≈ 28 >= 20, 2^7 / 8 = 16 < 20
@@ -126,10 +127,13 @@ export function rowsToBound(q: number, alpha: number, end: "lower" | "upper"): n
   const logR = Math.log(end === "lower" ? 1 - q : q);
   const limit = Math.log(1 / alpha);
   const bounded = (t: number) => -Math.log(t + 1) - t * logR >= limit;
-  let from = Math.max(1, Math.floor(-1 / logR)); // the function rises from here on
   if (bounded(1)) return 1;
+  // A level so near 0 or 1 that log r rounds to 0 is never bounded on that side; nor beyond 2^53 rows.
+  if (logR === 0) return Infinity;
+  let from = Math.max(1, Math.floor(-1 / logR)); // the function rises from here on
   let to = from;
   while (!bounded(to)) {
+    if (to > 2 ** 53) return Infinity;
     from = to + 1;
     to *= 2;
   }
