@@ -169,6 +169,12 @@ describe("evaluate: custom functions", () => {
     expect((calc("EVENSPLIT.MISSING(A1)") as { code: string }).code).toBe("#NAME?");
   });
 
+  it("holds a number below 2.2251E-308 as 0 (Microsoft, \"Excel specifications and limits\"; the flush to zero from memory)", () => {
+    const tiny: CustomFunction = { fn: () => [[1e-320, 2.5e-308]], shapes: [] };
+    expect(calc("EVENSPLIT.TINY()", { TINY: tiny })).toEqual({ kind: "matrix", rows: [[0, 2.5e-308]] });
+    expect(calc("1E-200*1E-200")).toBe(0);
+  });
+
   it("shows a null inside a returned array as 0, not as a blank (office-js issue 1503, by design)", () => {
     const withNull: CustomFunction = { fn: () => [[1, null, ""]], shapes: [] };
     expect(calc("EVENSPLIT.HOLES()", { HOLES: withNull })).toEqual({ kind: "matrix", rows: [[1, 0, ""]] });

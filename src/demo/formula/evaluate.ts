@@ -72,8 +72,18 @@ function toText(value: Scalar): string | ErrorValue {
   return String(value);
 }
 
+/** Smallest positive number a cell holds (Microsoft, "Excel specifications and limits": 2.2251E-308). */
+const SMALLEST_CELL_NUMBER = 2.2251e-308;
+
+/**
+ * A number as a cell holds it: infinities and NaN are #NUM!, and a magnitude
+ * below the smallest a cell holds becomes 0 (the flush to zero is from
+ * memory; the page gives only the limit). So a tiny p-value shows here as it
+ * would in Excel, not with digits Excel cannot keep.
+ */
 function finite(x: number): number | ErrorValue {
-  return Number.isFinite(x) ? x : errorValue("#NUM!", "The result is too large or not a number.");
+  if (!Number.isFinite(x)) return errorValue("#NUM!", "The result is too large or not a number.");
+  return Math.abs(x) < SMALLEST_CELL_NUMBER ? 0 : x;
 }
 
 function typeRank(value: number | string | boolean): number {
