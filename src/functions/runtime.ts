@@ -34,16 +34,11 @@ export interface CellError {
 
 type Registration = (...args: never[]) => unknown;
 
-/** What office.js defines before Excel's host script has loaded. */
-interface RuntimeStub {
-  associate(id: string, fn: Registration): void;
-}
+/** What office.js defines before Excel's host script has loaded (types: @types/custom-functions-runtime). */
+type RuntimeStub = Pick<typeof CustomFunctions, "associate">;
 
 /** What Excel's host script adds to the stub. */
-interface RuntimeErrors {
-  Error: new (code: string, message?: string) => CellError;
-  ErrorCode: { readonly invalidValue: string; readonly notAvailable: string };
-}
+type RuntimeErrors = Pick<typeof CustomFunctions, "Error" | "ErrorCode">;
 
 function customFunctionsGlobal(): Partial<RuntimeStub & RuntimeErrors> | undefined {
   return (globalThis as { CustomFunctions?: Partial<RuntimeStub & RuntimeErrors> }).CustomFunctions;
