@@ -686,6 +686,30 @@ class FakeWorksheet implements HostWorksheet {
   }
 }
 
+/** Every table of the workbook, whatever its sheet (Microsoft, "Excel.Workbook class": tables, ExcelApi 1.1). */
+function fakeWorkbookTables(queue: Queue): HostContext["workbook"]["tables"] {
+  const loaded = new Loaded();
+  const tables: HostContext["workbook"]["tables"] = {
+    get items(): HostTable[] {
+      return loaded.get("items", "TableCollection");
+    },
+    load: () => {
+      queue.add(() =>
+        loaded.set(
+          "items",
+          queue.workbook.tables.map((t) => {
+            const proxy = new FakeTable(queue, () => (queue.workbook.tables.includes(t) ? t : null));
+            proxy.preload(t.name);
+            return proxy;
+          }),
+        ),
+      );
+      return tables;
+    },
+  };
+  return tables;
+}
+
 /** The workbook's defined names (Microsoft, "Excel.NamedItemCollection class", ExcelApi 1.4 for add and getItemOrNullObject). */
 function fakeNames(queue: Queue): HostContext["workbook"]["names"] {
   const loaded = new Loaded();
@@ -737,6 +761,7 @@ class FakeContext implements HostContext {
         getActiveWorksheet: () => new FakeWorksheet(queue, () => workbook.selection.sheet),
       },
       names: fakeNames(queue),
+      tables: fakeWorkbookTables(queue),
     };
   }
 

@@ -118,6 +118,8 @@ export interface HostContext {
       getItemOrNullObject(name: string): HostNamedItem;
       load(propertyNames: string): unknown;
     };
+    /** Every table of the workbook: a new table's name must differ from all of them. */
+    readonly tables: { readonly items: HostTable[]; load(propertyNames: string): unknown };
   };
   sync(): Promise<unknown>;
 }
@@ -168,7 +170,7 @@ export interface Host {
   tables(sheet: string): Promise<TableInfo[]>;
   /** The blocks the pane wrote earlier, found by their defined names. */
   blocks(): Promise<BlockMark[]>;
-  /** Names a new table, chart or block name must avoid: every defined name, and the tables and charts of these sheets. */
+  /** Names a new table, chart or block name must avoid: every defined name and table, and the charts of these sheets. */
   takenNames(sheets: readonly string[]): Promise<string[]>;
   /**
    * Carries out a checked write in one batch. First reads the cells of
@@ -445,15 +447,13 @@ export function createHost(run: RunBatch): Host {
 
     takenNames: (sheetNames) =>
       run(async (context) => {
-        const names = context.workbook.names;
+        const { names, tables } = context.workbook;
         names.load("items/name");
+        tables.load("items/name");
         const sheets = sheetNames.map((name) => context.workbook.worksheets.getItem(name));
-        for (const sheet of sheets) {
-          sheet.tables.load("items/name");
-          sheet.charts.load("items/name");
-        }
+        for (const sheet of sheets) sheet.charts.load("items/name");
         await context.sync();
-        return [...names.items.map((n) => n.name), ...sheets.flatMap((sheet) => [...sheet.tables.items.map((t) => t.name), ...sheet.charts.items.map((c) => c.name)])];
+        return [...names.items.map((n) => n.name), ...tables.items.map((t) => t.name), ...sheets.flatMap((sheet) => sheet.charts.items.map((c) => c.name))];
       }),
 
     applyWrite: async (plan, region, proceed) => {

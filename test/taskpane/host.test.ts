@@ -107,10 +107,11 @@ describe("host over office-addin-mock", () => {
     expect(await host.blocks()).toEqual([{ name: "Evensplit_block_1", sheet: "Paint line", rect: { top: 0, left: 4, bottom: 19, right: 5 } }]);
   });
 
-  it("lists the names a new table, chart or block must avoid: defined names, tables and charts of the sheets", async () => {
-    const sheet = { name: "Paint line", tables: itemsCollection([{ name: "Panels" }]), charts: itemsCollection([{ name: "Chart 1" }]) };
-    const host = createHost(mockRun(workbookMock(sheet, undefined, [{ name: "Target" }])));
-    expect(await host.takenNames(["Paint line"])).toEqual(["Target", "Panels", "Chart 1"]);
+  it("lists the names a new table, chart or block must avoid: defined names, every table, charts of the sheets", async () => {
+    // Table names are unique in the whole workbook, so a table on another sheet counts too.
+    const sheet = { name: "Paint line", charts: itemsCollection([{ name: "Chart 1" }]) };
+    const host = createHost(mockRun(workbookMock(sheet, undefined, [{ name: "Target" }], [{ name: "Panels" }, { name: "Elsewhere" }])));
+    expect(await host.takenNames(["Paint line"])).toEqual(["Target", "Panels", "Elsewhere", "Chart 1"]);
   });
 });
 

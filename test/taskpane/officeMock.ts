@@ -17,11 +17,12 @@ export function itemsCollection(items: unknown[], extra: Record<string, unknown>
   };
 }
 
-export function workbookMock(sheet: Record<string, unknown>, selected = "'Paint line'!B1:B25", names: unknown[] = []): OfficeMockObject {
+export function workbookMock(sheet: Record<string, unknown>, selected = "'Paint line'!B1:B25", names: unknown[] = [], tables: unknown[] = []): OfficeMockObject {
   return new OfficeMockObject({
     context: {
       workbook: {
         names: itemsCollection(names),
+        tables: itemsCollection(tables),
         selected: { address: selected },
         getSelectedRange(this: { selected: unknown }) {
           return this.selected;

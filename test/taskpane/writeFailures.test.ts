@@ -228,6 +228,20 @@ describe("a refusal at any step leaves the sheet exactly as before, and says so"
   });
 });
 
+describe("names the write gives", () => {
+  it("avoid a table of another sheet, since table names are unique in the workbook (Microsoft, \"Rename an Excel table\")", async () => {
+    const workbook = new Workbook([DEMO_SHEET, "Notes"]);
+    workbook.writeEntries(DEMO_SHEET, 0, 0, demoRows());
+    workbook.writeEntries("Notes", 0, 0, [["Batch"], [1], [2]]);
+    workbook.addTable("Notes", { top: 0, left: 0, bottom: 2, right: 0 });
+    workbook.setFunctions(functions);
+    const choice = await thickness(workbook);
+    const outcome = await writeResult(createHost(fakeRun(workbook)), planAt(choice, SIGN, { reference: "table" }));
+    expect(outcome).toMatchObject({ kind: "written", created: [{ name: "Table2" }], refs: { data: "Table2[[Thickness (µm)]]" } });
+    expect(workbook.tables.map((t) => t.name)).toEqual(["Table1", "Table2"]);
+  });
+});
+
 describe("consent covers exactly the cells listed, with their contents", () => {
   it("asks again when a cell that was empty at the listing is filled before writing", async () => {
     const workbook = demoWorkbook();
