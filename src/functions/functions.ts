@@ -20,7 +20,7 @@ import { blockValue, reportCell, resultBlockRows, type BlockRequest } from "../r
 import { adjustPValues } from "../stats/adjust";
 import { anytimeSignTest } from "../stats/anytimeSign";
 import { numbersInArrivalOrder } from "../stats/arrivalOrder";
-import { numbersFromCells, pairsFromCells, signCountsFromCells } from "../stats/cells";
+import { boundedNumbersFromCells, cellsFromValues, numbersFromCells, pairsFromCells, signCountsFromCells } from "../stats/cells";
 import { differencesFrom, pairedDifferences } from "../stats/differences";
 import { confidenceSequence } from "../stats/confidenceSequence";
 import { hodgesLehmann, hodgesLehmannEstimate } from "../stats/hodgesLehmann";
@@ -521,13 +521,6 @@ function pValueCell(cell: unknown, row: number, column: number): number {
   throw new BadArgument(`The range pvalues must hold numbers from 0 to 1; ${where} holds ${cell}.`);
 }
 
-/** An adjusted p-value for its cell: empty where the input was not a number; anything else is a fault of ours. */
-function adjustedCell(adjusted: number, input: number): number | "" {
-  if (Number.isNaN(input) && Number.isNaN(adjusted)) return "";
-  if (adjusted >= 0 && adjusted <= 1 && !Number.isNaN(input)) return adjusted;
-  throw new Error("an adjusted p-value left [0, 1] or lost its place");
-}
-
 /**
  * Adjusts several p-values for multiple testing. Returns a range of the same shape; blank cells stay blank and do not count, and any other cell that is not a p-value is refused.
  * @customfunction ADJUST
@@ -540,13 +533,11 @@ export function adjust(pvalues: unknown[][], method?: unknown): unknown[][] {
   try {
     cells = cellsArgument("pvalues", pvalues);
     const chosen = chooseWord(ADJUST_METHOD, method);
-    const width = cells[0].length;
-    const flat = new Float64Array(cells.length * width);
-    cells.forEach((row, r) => {
-      for (let c = 0; c < width; c++) flat[r * width + c] = pValueCell(row[c], r, c);
-    });
-    const adjusted = adjustPValues(flat, chosen);
-    return cells.map((row, r) => row.map((_, c) => adjustedCell(adjusted[r * width + c], flat[r * width + c])));
+    // One pass reads the p-values (NaN for a blank cell); the first cell that is not one is refused with its message.
+    const read = boundedNumbersFromCells(cells, 0, 1);
+    if (read.refused !== null) pValueCell(read.refused.cell, read.refused.row, read.refused.column);
+    // adjustPValues keeps NaN (blank) in place and every other value in [0, 1].
+    return cellsFromValues(cells, adjustPValues(read.values, chosen), "");
   } catch (thrown) {
     const error = errorFor(thrown);
     return cells.map((row) => row.map(() => error));

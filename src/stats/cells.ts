@@ -207,6 +207,76 @@ export function signCountsFromCells(cells: readonly (readonly unknown[])[], cent
 /** Where values inside the tie window wait to be settled; grown (and kept) when a range needs more. */
 let INSIDE: Float64Array = new Float64Array(INITIAL_CAPACITY);
 
+/** The first cell a bounded read refused, by position in the range (0-based) and value. */
+export interface RefusedCell {
+  readonly row: number;
+  readonly column: number;
+  readonly cell: unknown;
+}
+
+/** Every cell of a range as a number, NaN for a blank one, in reading order; or the first cell refused. */
+export interface BoundedNumbers {
+  readonly values: Float64Array;
+  readonly refused: RefusedCell | null;
+}
+
+/**
+ * Reads a range whose every cell must be blank or a number in [low, high] (such as the p-values ADJUST
+ * adjusts): values[k] is the k-th cell in reading order, NaN where the cell is blank; the reading stops at
+ * the first cell that is neither, which comes back as `refused` so that the caller can say which cell.
+ * Rows must all have the width of the first (as host ranges do).
+ *
+ * @example
+ * boundedNumbersFromCells([[0.01], [null], [0.2]], 0, 1);  // values [0.01, NaN, 0.2]; refused null
+ * boundedNumbersFromCells([[0.01], ["0.02"]], 0, 1).refused; // { row: 1, column: 0, cell: "0.02" }
+ */
+export function boundedNumbersFromCells(cells: readonly (readonly unknown[])[], low: number, high: number): BoundedNumbers {
+  const rows = cells.length;
+  const width = rows === 0 ? 0 : cells[0].length;
+  const values = new Float64Array(rows * width);
+  let k = 0;
+  for (let r = 0; r < rows; r++) {
+    const row = cells[r];
+    for (let c = 0; c < width; c++) {
+      const v = row[c];
+      if (typeof v === "number" && v >= low && v <= high) values[k++] = v;
+      else if (v === null || v === undefined || v === "") values[k++] = NaN;
+      else return { values, refused: { row: r, column: c, cell: v } };
+    }
+  }
+  return { values, refused: null };
+}
+
+/**
+ * A matrix of the shape of `cells` holding values[k] in reading order, with `blank` where values[k] is
+ * NaN: the answer of a function that returns a range the shape of its input. One-cell rows are built as
+ * literals, the cheapest array the engine makes.
+ *
+ * @example
+ * cellsFromValues([[1, 2], [3, 4]], [0.5, NaN, 1, 0.25], ""); // [[0.5, ""], [1, 0.25]]
+ */
+export function cellsFromValues(cells: readonly (readonly unknown[])[], values: ArrayLike<number>, blank: number | string): (number | string)[][] {
+  const rows = cells.length;
+  const width = rows === 0 ? 0 : cells[0].length;
+  const out: (number | string)[][] = new Array(rows);
+  if (width === 1) {
+    for (let r = 0; r < rows; r++) {
+      const v = values[r];
+      out[r] = [v === v ? v : blank];
+    }
+    return out;
+  }
+  for (let r = 0, k = 0; r < rows; r++) {
+    const row: (number | string)[] = new Array(width);
+    for (let c = 0; c < width; c++, k++) {
+      const v = values[k];
+      row[c] = v === v ? v : blank;
+    }
+    out[r] = row;
+  }
+  return out;
+}
+
 /**
  * Pairs up two ranges of the same shape cell by cell, keeping the pairs where both cells are finite numbers.
  * Throws a RangeError when the shapes differ (the cell-function layer checks this first and says so to the user).

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import { numbersFromCells, pairsFromCells, signCountsFromCells, type SkippedCells } from "../../src/stats/cells";
+import { boundedNumbersFromCells, cellsFromValues, numbersFromCells, pairsFromCells, signCountsFromCells, type SkippedCells } from "../../src/stats/cells";
 import { compareAsShown } from "../../src/stats/differences";
 
 /**
@@ -92,6 +92,30 @@ describe("signCountsFromCells", () => {
         expect(got.skipped).toEqual(want.skipped);
       }),
       { numRuns: 300 },
+    );
+  });
+});
+
+describe("boundedNumbersFromCells and cellsFromValues", () => {
+  it("reads numbers in bounds and blanks, and stops at the first other cell (worked by hand)", () => {
+    const read = boundedNumbersFromCells([[0.01, null], [undefined, ""], [1, 0]], 0, 1);
+    expect(Array.from(read.values)).toEqual([0.01, NaN, NaN, NaN, 1, 0]);
+    expect(read.refused).toBeNull();
+    for (const bad of ["0.02", true, 1.5, -0.1, NaN, Infinity, { code: "#N/A" }]) {
+      expect(boundedNumbersFromCells([[0.01, 0.2], [0.3, bad], ["x", 0.4]], 0, 1).refused).toEqual({ row: 1, column: 1, cell: bad });
+    }
+  });
+
+  it("puts the values back in the range's shape, blank where NaN, for every shape (property)", () => {
+    fc.assert(
+      fc.property(fc.integer({ min: 0, max: 20 }), fc.integer({ min: 1, max: 5 }), (rows, width) => {
+        const cells = Array.from({ length: rows }, () => new Array(width).fill(null));
+        const values = Array.from({ length: rows * width }, (_, k) => (k % 3 === 0 ? NaN : k / 100));
+        const out = cellsFromValues(cells, values, "");
+        expect(out.length).toBe(rows);
+        expect(out.flat()).toEqual(values.map((v) => (Number.isNaN(v) ? "" : v)));
+        out.forEach((row) => expect(row.length).toBe(width));
+      }),
     );
   });
 });
