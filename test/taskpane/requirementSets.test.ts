@@ -37,6 +37,7 @@ const EXCEL_CLASS: Record<string, string> = {
   "HostContext.workbook": "Workbook",
   "HostContext.workbook.worksheets": "WorksheetCollection",
   "HostContext.workbook.names": "NamedItemCollection",
+  "HostContext.workbook.tables": "TableCollection",
 };
 
 /** Members every Office.js client object inherits (OfficeExtension), not declared in the Excel classes themselves. */
