@@ -63,6 +63,10 @@ describe("manifest.xml", () => {
     expect(path(root, "DisplayName").attributes.DefaultValue).toBe("Evensplit");
   });
 
+  it("is well-formed XML: the parser refuses the same text with its root left open", () => {
+    expect(() => parseXml(source.replace("</OfficeApp>", ""))).toThrow(SyntaxError);
+  });
+
   it("asks for ReadWriteDocument, the least that lets the pane write cells", () => {
     expect(path(root, "Permissions").text).toBe("ReadWriteDocument");
   });
@@ -143,13 +147,14 @@ function scriptSources(html: string): string[] {
 }
 
 describe("the pages the manifest names", () => {
-  it("taskpane.html loads Office.js from its CDN, then functions.js, then the pane", () => {
+  it("taskpane.html checks the webview first, then loads Office.js from its CDN, then functions.js, then the pane", () => {
     const html = distText("taskpane.html");
     const scripts = scriptSources(html);
-    expect(scripts[0]).toBe("https://appsforoffice.microsoft.com/lib/1/hosted/office.js");
+    expect(scripts[0]).toBe("legacy-check.js");
+    expect(scripts[1]).toBe("https://appsforoffice.microsoft.com/lib/1/hosted/office.js");
     const functions = scripts.findIndex((s) => /(^|\/)functions\.js$/.test(s));
     const pane = scripts.findIndex((s) => /(^|\/)taskpane\.js$/.test(s));
-    expect(functions).toBeGreaterThan(0);
+    expect(functions).toBeGreaterThan(1);
     expect(pane).toBeGreaterThan(functions);
     // The pane reuses the functions' modules instead of bundling (and registering) them again.
     expect(distText("taskpane.js")).not.toContain(".associate(");
