@@ -1,8 +1,8 @@
 /**
  * The deployment manifest: the development server's addresses moved to an
  * https folder. Excel loads add-in resources over https only (Microsoft,
- * "Office Add-ins XML manifest"); the manifest is parsed with the project's
- * XML reader to see that every address moved and the document is still whole.
+ * "Office Add-ins XML manifest"); the manifest is parsed with
+ * fast-xml-parser (test/functions/xml.ts) to see that every address moved and the document is still whole.
  */
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
