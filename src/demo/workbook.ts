@@ -515,7 +515,10 @@ export class Workbook {
         }
       }
       const taken = [...(areas.get(sheet)?.values() ?? [])].some((a) => rectsOverlap(a, rect));
-      if (blocked || taken) continue;
+      // Excel answers #SPILL! also when the spill would reach into a table or past the sheet's edge
+      // (Microsoft, "How to correct a #SPILL! error": spill range in table; extends beyond the worksheet's edge).
+      const inTable = this.tables.some((t) => t.sheet === sheet && rectsOverlap(t.rect, rect));
+      if (blocked || taken || inTable || areaRefusal(rect) !== null) continue;
       if (!areas.has(sheet)) areas.set(sheet, new Map());
       areas.get(sheet)?.set(k, rect);
     }

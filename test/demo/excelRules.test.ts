@@ -4,7 +4,9 @@
  */
 import { describe, expect, it } from "vitest";
 import { FakeApiError, fakeRun } from "../../src/demo/fakeExcel";
+import type { CustomFunction } from "../../src/demo/formula/evaluate";
 import { tableHeaders, Workbook } from "../../src/demo/workbook";
+import { LAST_COLUMN } from "../../src/taskpane/a1";
 import type { HostContext } from "../../src/taskpane/host";
 
 const S = "Paint line";
@@ -151,5 +153,30 @@ describe("null and empty text in what the API writes (Microsoft, \"Blank and nul
       await context.sync();
     });
     await expect(write).rejects.toMatchObject({ code: "InvalidArgument" });
+  });
+});
+
+describe("spilling (Microsoft, \"How to correct a #SPILL! error\")", () => {
+  const pair: CustomFunction = { fn: () => [[1, 2]], shapes: [] };
+
+  it("is #SPILL! for an array formula inside a table or one whose spill would reach into a table", () => {
+    const w = new Workbook([S]);
+    w.setFunctions(new Map([["PAIR", pair]]));
+    // A table over B1:C3 whose data cells are blank, so only the table is in the way.
+    w.writeEntries(S, 0, 1, [["A", "B"]]);
+    w.addTable(S, { top: 0, left: 1, bottom: 2, right: 2 });
+    w.writeEntries(S, 1, 0, [["=EVENSPLIT.PAIR()"]]);
+    expect((w.value(S, 1, 0) as { code: string }).code).toBe("#SPILL!");
+    w.writeEntries(S, 2, 1, [["=EVENSPLIT.PAIR()"]]);
+    expect((w.value(S, 2, 1) as { code: string }).code).toBe("#SPILL!");
+    w.writeEntries(S, 5, 0, [["=EVENSPLIT.PAIR()"]]);
+    expect([w.value(S, 5, 0), w.value(S, 5, 1)]).toEqual([1, 2]);
+  });
+
+  it("is #SPILL! when the spill would run past the last column", () => {
+    const w = new Workbook([S]);
+    w.setFunctions(new Map([["PAIR", pair]]));
+    w.writeEntries(S, 0, LAST_COLUMN, [["=EVENSPLIT.PAIR()"]]);
+    expect((w.value(S, 0, LAST_COLUMN) as { code: string }).code).toBe("#SPILL!");
   });
 });
