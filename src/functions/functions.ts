@@ -703,6 +703,10 @@ const CATALOGUE: Readonly<Record<string, CatalogueFunction>> = {
   WATCHPVALUE: watchpvalue as CatalogueFunction,
   WATCHBOUNDS: watchbounds as CatalogueFunction,
   SPRT: sprt as CatalogueFunction,
+  TWOGROUPS: twogroups as CatalogueFunction,
+  SHIFT: shift as CatalogueFunction,
+  GROUPS: groups as CatalogueFunction,
+  BYGROUP: bygroup as CatalogueFunction,
 };
 
 /** Every catalogue id, as registered under the EVENSPLIT namespace. */
@@ -722,4 +726,173 @@ export function callFunction(id: string, args: readonly unknown[]): unknown {
   const fn = Object.prototype.hasOwnProperty.call(CATALOGUE, id) ? CATALOGUE[id] : undefined;
   if (fn === undefined) throw new RangeError(`no EVENSPLIT function ${id}`);
   return fn(...args);
+}
+
+// ---------------------------------------------------------------------------
+// Two groups and many groups
+
+import { summariseGroups, type Missing } from "../stats/byGroup";
+import { groupCells, type GroupedCells } from "../stats/groupedCells";
+import { kruskalWallisTest } from "../stats/kruskalWallis";
+import { moodMedianTest, type MedianTieRule } from "../stats/moodMedian";
+import { rankSumTest } from "../stats/rankSum";
+import { shiftBounds, shiftEstimate } from "../stats/shiftBounds";
+import { cellError } from "./runtime";
+import type { Vocabulary } from "./vocabulary";
+
+const TWO_GROUP_METHOD: Vocabulary<"rank-sum" | "median"> = {
+  argument: "method",
+  choices: [
+    { value: "rank-sum", words: ["rank-sum", "rank sum", "ranksum", "wilcoxon", "mann-whitney"] },
+    { value: "median", words: ["median", "mood"] },
+  ],
+  fallback: "rank-sum",
+};
+
+const MANY_GROUP_METHOD: Vocabulary<"median" | "rank"> = {
+  argument: "method",
+  choices: [
+    { value: "median", words: ["median", "mood"] },
+    { value: "rank", words: ["rank", "ranks", "kruskal-wallis"] },
+  ],
+  fallback: "median",
+};
+
+/** Values equal to the pooled median in the median test (common practice varies, so it is a choice). */
+const AT_MEDIAN: Vocabulary<MedianTieRule> = {
+  argument: "at_median",
+  choices: [
+    { value: "join-lower", words: ["join-lower", "lower"] },
+    { value: "join-upper", words: ["join-upper", "upper"] },
+    { value: "leave-out", words: ["leave-out", "leave out"] },
+  ],
+  fallback: "join-lower",
+};
+
+/** The numbers of one group's range (any shape; blank and non-number cells are skipped). */
+function groupNumbers(name: string, raw: unknown): Float64Array {
+  return numbersFromCells(cellsArgument(name, raw)).values;
+}
+
+/** Values and labels grouped; the two ranges must have the same shape, position by position. */
+function groupsOf(values: unknown, labels: unknown): GroupedCells {
+  const v = cellsArgument("values", values);
+  const l = cellsArgument("labels", labels);
+  if (v.length !== l.length || v[0].length !== l[0].length) {
+    const shape = (c: Cells) => `${c.length} row${c.length === 1 ? "" : "s"} × ${c[0].length} column${c[0].length === 1 ? "" : "s"}`;
+    throw new BadArgument(`Arguments values and labels must have the same shape, the label of each value beside it: values is ${shape(v)}, labels is ${shape(l)}.`);
+  }
+  return groupCells(v, l);
+}
+
+/**
+ * P-value comparing two independent groups (not pairs: different items in each), such as two lines or two suppliers. The rank-sum method compares whole distributions; it speaks of a shift of medians only when the groups have the same shape.
+ * @customfunction TWOGROUPS
+ * @param first Range with the first group's measurements.
+ * @param second Range with the second group's measurements; any size.
+ * @param [shift] The shift second − first under test; default 0.
+ * @param [alternative] "two-sided" (default), "greater" (second tends to exceed first + shift) or "less".
+ * @param [method] "rank-sum" (default: Wilcoxon–Mann–Whitney, exact for small groups) or "median" (Mood's test, Fisher exact on above / not above the pooled median).
+ * @param [at_median] Median method only, values equal to the pooled median: "join-lower" (default: counted as not above), "join-upper" (counted as above) or "leave-out".
+ * @returns The p-value.
+ */
+export function twogroups(first: unknown[][], second: unknown[][], shift?: unknown, alternative?: unknown, method?: unknown, at_median?: unknown): number | CellError {
+  return scalar(() => {
+    const x = groupNumbers("first", first);
+    const moved = shiftOf(shift);
+    const chosenAlternative = chooseWord(ALTERNATIVE, alternative);
+    const chosenMethod = chooseWord(TWO_GROUP_METHOD, method);
+    const rule = chooseWord(AT_MEDIAN, at_median);
+    const y = groupNumbers("second", second);
+    if (chosenMethod === "rank-sum") {
+      const result = rankSumTest(x, y, { shift: moved, alternative: chosenAlternative });
+      return result.available ? result.pValue : unavailableError(result);
+    }
+    const result = moodMedianTest([x, moved === 0 ? y : differencesFrom(y, moved)], { ties: rule, alternative: chosenAlternative });
+    return result.available ? result.pValue : unavailableError(result);
+  });
+}
+
+/**
+ * Hodges–Lehmann shift between two independent groups (the median of all differences second − first) with distribution-free bounds. Returns one row: estimate, lower, upper, coverage (exact for continuous data differing by a shift).
+ * @customfunction SHIFT
+ * @param first Range with the first group's measurements.
+ * @param second Range with the second group's measurements; any size.
+ * @param [confidence] Confidence of the bounds, such as 0.95 (default).
+ * @returns One row: estimate, lower, upper, coverage.
+ */
+export function shift(first: unknown[][], second: unknown[][], confidence?: unknown): unknown[][] {
+  return oneRow(4, () => {
+    const x = groupNumbers("first", first);
+    const y = groupNumbers("second", second);
+    const level = fractionArgument("confidence", confidence, 0.95);
+    const result = shiftBounds(x, y, { confidence: level });
+    if (result.available) return [result.estimate, result.lower ?? "", result.upper ?? "", result.achievedConfidence];
+    const estimate = shiftEstimate(x, y);
+    if (typeof estimate !== "number") return unavailableError(estimate);
+    const missing = unavailableError(result);
+    return [estimate, missing, missing, missing];
+  });
+}
+
+/**
+ * P-value for "all groups share one median" (median method) or "all groups come from one distribution" (rank method), for a column of values and a column of group labels.
+ * @customfunction GROUPS
+ * @param values Range with the measurements, such as B2:B200.
+ * @param labels Range with each value's group label beside it, same shape, such as A2:A200. Rows with a blank label are skipped.
+ * @param [method] "median" (default: Mood's median test; chi-square, or a seeded simulation when counts are small) or "rank" (Kruskal–Wallis, tie-corrected).
+ * @param [at_median] Median method only, values equal to the pooled median: "join-lower" (default), "join-upper" or "leave-out".
+ * @returns The p-value.
+ */
+export function groups(values: unknown[][], labels: unknown[][], method?: unknown, at_median?: unknown): number | CellError {
+  return scalar(() => {
+    const chosen = chooseWord(MANY_GROUP_METHOD, method);
+    const rule = chooseWord(AT_MEDIAN, at_median);
+    const grouped = groupsOf(values, labels).groups.map((g) => g.values);
+    const result = chosen === "rank" ? kruskalWallisTest(grouped) : moodMedianTest(grouped, { ties: rule });
+    return result.available ? result.pValue : unavailableError(result);
+  });
+}
+
+/** The header row of BYGROUP. */
+const BY_GROUP_HEADER = ["Group", "Count", "Median", "Lower bound", "Upper bound", "Coverage", "Sign-test p", "Adjusted p"];
+
+/** A cell of a BYGROUP row: the number, empty for a bound not asked for, or #N/A saying why. */
+function groupCell(value: number | null | Missing): number | string | CellError {
+  if (value === null) return "";
+  if (typeof value === "number") return value;
+  return cellError("#N/A", value.missing);
+}
+
+/**
+ * Per group: count, median, distribution-free bounds for the median with their coverage, the sign-test p-value against a hypothesised median and the p-values adjusted across groups. Returns a table with a header row and a row per group, in order of first appearance.
+ * @customfunction BYGROUP
+ * @param values Range with the measurements, such as B2:B200.
+ * @param labels Range with each value's group label beside it, same shape, such as A2:A200. Rows with a blank label are skipped and counted in a last row.
+ * @param hypothesized_median The median under test for every group, such as 50.
+ * @param [alternative] "two-sided" (default: two-sided bounds), "greater" (a lower bound) or "less" (an upper bound).
+ * @param [confidence] Confidence of the bounds, such as 0.95 (default).
+ * @param [adjust] Adjustment across groups: "holm" (default), "bonferroni", "hochberg", "bh" or "by".
+ * @returns A table: header row, then one row per group.
+ */
+export function bygroup(values: unknown[][], labels: unknown[][], hypothesized_median: unknown, alternative?: unknown, confidence?: unknown, adjust?: unknown): unknown[][] {
+  try {
+    const center = numberArgument("hypothesized_median", hypothesized_median);
+    const chosenAlternative = chooseWord(ALTERNATIVE, alternative);
+    const level = fractionArgument("confidence", confidence, 0.95);
+    const method = chooseWord(ADJUST_METHOD, adjust);
+    const grouped = groupsOf(values, labels);
+    if (grouped.groups.length === 0) return [BY_GROUP_HEADER.map(() => cellError("#N/A", "No row has both a group label and a value."))];
+    const summary = summariseGroups(grouped.groups.map((g) => g.values), center, { alternative: chosenAlternative, confidence: level, adjust: method });
+    const rows: unknown[][] = summary.rows.map((row, g) => [
+      grouped.groups[g].label,
+      row.n,
+      ...[row.median, row.lower, row.upper, row.coverage, row.pValue, row.adjustedPValue].map(groupCell),
+    ]);
+    const skipped = grouped.blankLabels + grouped.labelErrors;
+    if (skipped > 0) rows.push(["Rows without a usable label (skipped)", skipped, "", "", "", "", "", ""]);
+    return [BY_GROUP_HEADER, ...rows];
+  } catch (thrown) {
+    return [BY_GROUP_HEADER.map(() => errorFor(thrown))];
+  }
 }
