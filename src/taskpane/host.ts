@@ -188,8 +188,11 @@ export interface Host {
 export type WriteReport =
   | { readonly kind: "changed"; readonly current: readonly CellsRead[] }
   | { readonly kind: "written" }
-  /** `left` lists what the sheet still holds of this write; empty when it is exactly as before. */
-  | { readonly kind: "undone"; readonly reason: string; readonly left: readonly string[] };
+  /**
+   * `left` lists what the sheet still holds of this write; empty when it is exactly as before.
+   * `unmade` lists the tables the write had made and that were turned back into plain cells.
+   */
+  | { readonly kind: "undone"; readonly reason: string; readonly left: readonly string[]; readonly unmade: readonly TableInfo[] };
 
 function parseSheetAddress(address: string, fallbackSheet: string): SheetRect {
   const parsed = parseAddress(address);
@@ -298,12 +301,15 @@ function columnMismatch(plan: PlannedWrite, made: readonly HostTable[]): string 
 }
 
 /** Puts back what a failed write changed, then reads the workbook again and lists whatever still differs. */
-async function undoWrite(run: RunBatch, plan: PlannedWrite, snapshot: readonly Snapshot[]): Promise<string[]> {
+async function undoWrite(run: RunBatch, plan: PlannedWrite, snapshot: readonly Snapshot[]): Promise<{ left: string[]; unmade: TableInfo[] }> {
+  // Which of the planned tables the failed write had made, as found before undoing.
+  let made: boolean[] = [];
   try {
     await run(async (context) => {
       const book = context.workbook;
       const found = madeObjects(context, plan);
       await context.sync();
+      made = found.tables.map((table) => !table.isNullObject);
       for (const table of found.tables) if (!table.isNullObject) table.convertToRange();
       if (found.chart && !found.chart.isNullObject) found.chart.delete();
       if (!found.mark.isNullObject) found.mark.delete();
@@ -325,10 +331,11 @@ async function undoWrite(run: RunBatch, plan: PlannedWrite, snapshot: readonly S
     return await run(async (context) => {
       const found = madeObjects(context, plan);
       const now = await readSnapshot(context, snapshot);
-      return [...cellsLeft(snapshot, now), ...objectsLeft(plan, found)];
+      const unmade = plan.tables.filter((_, i) => made[i] && found.tables[i].isNullObject);
+      return { left: [...cellsLeft(snapshot, now), ...objectsLeft(plan, found)], unmade };
     });
   } catch (thrown) {
-    return [`the sheet could not be read back (${refusal(thrown)}): look at ${snapshot.map((p) => formatAddress(p.rect, p.sheet)).join(" and ")}`];
+    return { left: [`the sheet could not be read back (${refusal(thrown)}): look at ${snapshot.map((p) => formatAddress(p.rect, p.sheet)).join(" and ")}`], unmade: [] };
   }
 }
 
@@ -479,7 +486,7 @@ export function createHost(run: RunBatch): Host {
         return { kind: "written" };
       });
       if (attempt.kind !== "failed") return attempt;
-      return { kind: "undone", reason: attempt.reason, left: await undoWrite(run, plan, attempt.snapshot) };
+      return { kind: "undone", reason: attempt.reason, ...(await undoWrite(run, plan, attempt.snapshot)) };
     },
   };
 }

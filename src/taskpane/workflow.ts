@@ -400,11 +400,20 @@ function sameRegion(a: Consent, b: Consent): boolean {
   return a.region.length === b.region.length && a.region.every((r, i) => sameSheet(r.sheet, b.region[i].sheet) && formatAddress(r.rect) === formatAddress(b.region[i].rect));
 }
 
-function undoneMessage(reason: string, left: readonly string[]): string {
+/**
+ * What the person reads after a refused write. A table turned back into plain
+ * cells keeps its look in Excel (the colours become the cells' own formats;
+ * common practice of Excel's Convert to Range), which the pane cannot undo,
+ * so the message says where.
+ */
+function undoneMessage(reason: string, left: readonly string[], unmade: readonly TableInfo[]): string {
+  const tables = unmade.map((t) => formatAddress(t.rect, t.sheet)).join(" and ");
+  const look = unmade.length === 0 ? "" : ` The table made from ${tables} was turned back into plain cells; Excel may leave the table's colours on them.`;
   if (left.length === 0) {
-    return `Excel refused part of the write (${reason}). Everything this write had changed was put back: the sheet holds exactly what it held before, with no new table, chart or name.`;
+    const what = unmade.length === 0 ? "the sheet holds exactly what it held before" : "every cell holds exactly what it held before";
+    return `Excel refused part of the write (${reason}). Everything this write had changed was put back: ${what}, with no new table, chart or name.${look}`;
   }
-  return `Excel refused part of the write (${reason}), and not all of it could be put back. The sheet now holds: ${left.join("; ")}. Check these before writing again.`;
+  return `Excel refused part of the write (${reason}), and not all of it could be put back. The sheet now holds: ${left.join("; ")}. Check these before writing again.${look}`;
 }
 
 /**
@@ -442,7 +451,7 @@ export async function writeResult(host: Host, plan: WritePlan): Promise<WriteOut
   if (listing.filled.length > 0 && !agreed) return { kind: "confirm", consent: listing, changed: plan.consent !== null };
   const report = await host.applyWrite(write, region, (current) => sameContents(consentFor(region, current), listing));
   if (report.kind === "changed") return { kind: "confirm", consent: consentFor(region, report.current), changed: true };
-  if (report.kind === "undone") return { kind: "undone", message: undoneMessage(report.reason, report.left), clean: report.left.length === 0 };
+  if (report.kind === "undone") return { kind: "undone", message: undoneMessage(report.reason, report.left, report.unmade), clean: report.left.length === 0 };
   const chartAt = write.chart ? formatAddress({ ...write.chart.area, bottom: write.chart.area.top, right: write.chart.area.left }) : null;
   return { kind: "written", address: formatAddress(place.rect, place.sheet), refs: write.refs, created: write.tables, rows: write.rows, chartAt, replaced: write.replaces };
 }
