@@ -365,7 +365,10 @@ function namesOf(workbook: Workbook): Map<string, { name: string; sheet: string;
  * already the name of a table or a defined name (they share one namespace, compared without case).
  */
 function checkNewName(workbook: Workbook, name: string): void {
-  const shaped = /^[\p{L}_\\][\p{L}\p{N}._]*$/u.test(name) && name.length <= 255 && !/^[A-Za-z]{1,3}[0-9]+$/.test(name) && !/^[RrCc]$/.test(name);
+  // Microsoft, "Define and use names in formulas": a letter, underscore or backslash first, no spaces, at most
+  // 255 characters, and never a cell reference in either style (Z100, R1C1, R2, C3, and R or C alone).
+  const cellLike = /^[A-Za-z]{1,3}[0-9]+$/.test(name) || /^[Rr][0-9]*([Cc][0-9]*)?$/.test(name) || /^[Cc][0-9]*$/.test(name);
+  const shaped = /^[\p{L}_\\][\p{L}\p{N}._]*$/u.test(name) && name.length <= 255 && !cellLike;
   if (!shaped) throw new FakeApiError("InvalidArgument", `${name} is not a valid name for a table or a defined name.`);
   const key = name.toLowerCase();
   if (workbook.tables.some((t) => t.name.toLowerCase() === key) || namesOf(workbook).has(key)) {

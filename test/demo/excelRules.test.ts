@@ -180,3 +180,21 @@ describe("spilling (Microsoft, \"How to correct a #SPILL! error\")", () => {
     expect((w.value(S, 0, LAST_COLUMN) as { code: string }).code).toBe("#SPILL!");
   });
 });
+
+describe("defined names (Microsoft, \"Define and use names in formulas\")", () => {
+  it("refuses names that read as a cell in either reference style", async () => {
+    for (const name of ["R1C1", "R2", "C3", "RC", "AB12", "has space"]) {
+      const w = new Workbook([S]);
+      const add = fakeRun(w)(async (context) => {
+        context.workbook.names.add(name, context.workbook.worksheets.getItem(S).getRange("A1"));
+        await context.sync();
+      });
+      await expect(add, name).rejects.toMatchObject({ code: "InvalidArgument" });
+    }
+    const w = new Workbook([S]);
+    await fakeRun(w)(async (context) => {
+      context.workbook.names.add("Evensplit_block_1", context.workbook.worksheets.getItem(S).getRange("A1"));
+      await context.sync();
+    });
+  });
+});
