@@ -13,7 +13,9 @@
  * custom functions then see fewer trailing blank cells than Excel would pass,
  * which changes nothing but blank counts.
  * Typing into the row just below a table makes the table one row longer, as
- * the spreadsheet's automatic table expansion does.
+ * the spreadsheet's automatic table expansion does. A write holding anything
+ * Excel would refuse (limits.ts: lengths, formula syntax, the sheet's edge)
+ * is refused whole, before any cell changes.
  *
  * Cost: a recalculation is O(formula cells × cells each reads).
  */
