@@ -19,7 +19,7 @@
 import { blockValue, reportCell, resultBlockRows, type BlockRequest } from "../report/resultBlock";
 import { adjustPValues } from "../stats/adjust";
 import { anytimeSignTest } from "../stats/anytimeSign";
-import { numbersInArrivalOrder } from "../stats/arrivalOrder";
+import { withNumbersInArrivalOrder } from "../stats/arrivalOrder";
 import { boundedNumbersFromCells, cellsFromValues, numbersFromCells, pairsFromCells, signCountsFromCells } from "../stats/cells";
 import { differencesFrom, pairedDifferences } from "../stats/differences";
 import { confidenceSequence } from "../stats/confidenceSequence";
@@ -591,9 +591,9 @@ export function report(
 // ---------------------------------------------------------------------------
 // Looking again as rows arrive: the sequential versions, where row order matters
 
-/** The numbers of a range in the order they arrived: down the rows, then across the columns. */
-function arrivingNumbersOf(data: unknown): Float64Array {
-  return numbersInArrivalOrder(cellsArgument("data", data));
+/** Calls `use` with the numbers of a range in the order they arrived: down the rows, then across the columns. */
+function withArrivingNumbers<T>(data: unknown, use: (values: Float64Array) => T): T {
+  return withNumbersInArrivalOrder(cellsArgument("data", data), use);
 }
 
 /** One end of the watched bounds: the value, or #N/A saying from which row it will exist. */
@@ -618,10 +618,8 @@ function watchedEnd(value: number | null, rowsNeeded: number, rows: number, end:
 export function watchpvalue(data: unknown[][], hypothesized_median: unknown, alternative?: unknown, ties?: unknown): number | CellError {
   return scalar(() => {
     const center = numberArgument("hypothesized_median", hypothesized_median);
-    const result = anytimeSignTest(arrivingNumbersOf(data), center, {
-      alternative: chooseWord(ALTERNATIVE, alternative),
-      ties: chooseWord(TIES, ties),
-    });
+    const options = { alternative: chooseWord(ALTERNATIVE, alternative), ties: chooseWord(TIES, ties) };
+    const result = withArrivingNumbers(data, (values) => anytimeSignTest(values, center, options));
     return result.available ? result.pValue : unavailableError(result);
   });
 }
@@ -638,7 +636,7 @@ export function watchbounds(data: unknown[][], confidence?: unknown, quantile?: 
   return oneRow(3, () => {
     const level = fractionArgument("confidence", confidence, 0.95);
     const q = fractionArgument("quantile", quantile, 0.5, "0.9");
-    const result = confidenceSequence(arrivingNumbersOf(data), { quantile: q, confidence: level });
+    const result = withArrivingNumbers(data, (values) => confidenceSequence(values, { quantile: q, confidence: level }));
     if (!result.available) return unavailableError(result);
     return [
       watchedEnd(result.lower, result.rowsForLower, result.rows, "lower"),
@@ -666,7 +664,7 @@ export function sprt(data: unknown[][], hypothesized_median: unknown, p_above: u
     const errorI = fractionArgument("alpha", alpha, 0.05, "0.05");
     const errorII = fractionArgument("beta", beta, 0.2, "0.2");
     if (errorI + errorII >= 1) throw new BadArgument(`alpha + beta must be below 1, such as 0.05 and 0.2; got ${errorI} + ${errorII}.`);
-    const r = sequentialRatioTest(arrivingNumbersOf(data), center, { pAbove, alpha: errorI, beta: errorII });
+    const r = withArrivingNumbers(data, (values) => sequentialRatioTest(values, center, { pAbove, alpha: errorI, beta: errorII }));
     return [[r.decision, r.rowsUsed, r.logLikelihoodRatio, r.limits.acceptAt, r.limits.rejectAt]];
   } catch (thrown) {
     const error = errorFor(thrown);

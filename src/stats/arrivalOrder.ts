@@ -6,31 +6,42 @@
  *
  * Method: one pass per column over the row-major matrix the host hands over
  * (Microsoft, "Custom functions parameter options", Office Add-ins
- * documentation: a range parameter is a two-dimensional array of rows). A
- * single column, by far the usual shape, is read by `numbersFromCells`, whose
- * row order is then the same. Blank cells, text, logical values and errors are
- * skipped as everywhere else (common practice).
+ * documentation: a range parameter is a two-dimensional array of rows). Only
+ * finite numbers are kept; blank cells, text, logical values and errors are
+ * skipped as everywhere else (common practice). The numbers are lent to a
+ * callback in a buffer that is kept between calls: a fresh array the size of a
+ * long column costs more to touch for the first time (the system maps its
+ * memory page by page) than the whole pass over the cells.
  *
- * Cost: O(cells) time, O(numbers) extra memory.
+ * Cost: O(cells) time; O(cells) memory, kept and reused.
  */
-import { numbersFromCells } from "./cells";
+
+/** The buffer lent by the last call, grown as needed; null while it is lent out. */
+let BUFFER: Float64Array | null = new Float64Array(4096);
 
 /**
- * The finite numbers of `cells`, column by column, each column top to bottom.
+ * Calls `use` with the finite numbers of `cells`, column by column, each column top to bottom, and returns
+ * what it returns. The array is valid only during the call (it is reused by the next one): copy it to keep it.
+ * A call made from inside `use` gets an array of its own.
  *
  * @example
- * numbersInArrivalOrder([[1, 4], [2, null], ["a", 5]]); // Float64Array [1, 2, 4, 5]
+ * withNumbersInArrivalOrder([[1, 4], [2, null], ["a", 5]], (v) => Array.from(v)); // [1, 2, 4, 5]
  */
-export function numbersInArrivalOrder(cells: readonly (readonly unknown[])[]): Float64Array {
-  const width = cells.length === 0 ? 0 : cells[0].length;
-  if (width <= 1) return numbersFromCells(cells).values;
-  const out = new Float64Array(cells.length * width);
-  let count = 0;
-  for (let c = 0; c < width; c++) {
-    for (let r = 0; r < cells.length; r++) {
-      const v = cells[r][c];
-      if (typeof v === "number" && v - v === 0) out[count++] = v; // v - v is NaN for NaN and ±Infinity
+export function withNumbersInArrivalOrder<T>(cells: readonly (readonly unknown[])[], use: (values: Float64Array) => T): T {
+  const rows = cells.length;
+  const width = rows === 0 ? 0 : cells[0].length;
+  const lent = BUFFER !== null && BUFFER.length >= rows * width ? BUFFER : new Float64Array(Math.max(rows * width, 4096));
+  BUFFER = null;
+  try {
+    let count = 0;
+    for (let c = 0; c < width; c++) {
+      for (let r = 0; r < rows; r++) {
+        const v = cells[r][c];
+        if (typeof v === "number" && v - v === 0) lent[count++] = v; // v - v is NaN for NaN and ±Infinity
+      }
     }
+    return use(lent.subarray(0, count));
+  } finally {
+    BUFFER = lent;
   }
-  return out.subarray(0, count);
 }

@@ -28,12 +28,14 @@
  * far from 1/2 it spends most of its weight on one side of q, so that side's
  * end is slower to tighten.
  *
- * Computation: the interval at the last row, from two selections (selection.ts),
- * contains the running intersection whenever that is not empty; only the
- * values inside it are sorted. One pass in row order then moves a pointer up
- * through them for the lower end (a candidate is passed once it is ruled out)
- * and one down for the upper end, each carrying the count and M_t of its
- * candidate by one factor a row (no logarithm in the loop).
+ * Computation: the interval at the last row contains the running intersection
+ * whenever that is not empty. It is placed by a sorted sample, one pass that
+ * collects a range around it, and selection (selection.ts) within that range;
+ * only the values inside the interval are sorted. One pass in row order follows the standing
+ * counts by one factor a row for each end (no logarithm in the loop), and
+ * moves a pointer up through the sorted values for the lower end (a
+ * candidate is passed once too few values lie at or below it) and one down
+ * for the upper end.
  *
  * Cost: O(n + m log m) time and O(m) extra memory over n values, m of them
  * between the last row's bounds (about 2 z sqrt(n q (1 − q) log n) for large n;
@@ -157,11 +159,188 @@ function lowerIndex(d: Float64Array, x: number): number {
   return from;
 }
 
-/** The running values are m × RESCALE^k, k >= 0, so an extreme count cannot overflow. */
-const RESCALE = 1e150;
-
 function checkFraction(name: string, x: number): void {
   if (!(x > 0 && x < 1)) throw new RangeError(`${name} must lie strictly between 0 and 1, got ${x}`);
+}
+
+/** The last row's bounds and the distinct values between them. */
+interface Window {
+  /** X(lowRank), or -Infinity when no lower end is asked. */
+  readonly lo: number;
+  /** X(highRank), or Infinity when no upper end is asked. */
+  readonly hi: number;
+  /** The distinct values from lo to hi, ascending. */
+  readonly distinct: Float64Array;
+}
+
+/**
+ * Working space of windowAround, grown (and kept) when a sample needs more: a fresh array the size of the
+ * data at every recalculation costs its zeroing and a garbage collection later. Only the returned `distinct`
+ * view lives on, and it is copied out before the next call can overwrite it.
+ */
+let SCRATCH = new Float64Array(4096);
+
+/** Values in the sample that locates the window. */
+const SAMPLE_SIZE = 2048;
+
+/**
+ * The order statistics X(lowRank) and X(highRank) (1-based; a rank of 0 or n + 1 asks for no end) and the
+ * distinct values between them. A sorted sample of every k-th value gives a wider range expected to hold
+ * both (four standard deviations of a sample position on each side); one pass collects the values in that
+ * range and counts those outside it, which checks the guess (when it fails, rare, the range is everything);
+ * selection (selection.ts) then places the two ranks among the collected values, and only the values
+ * between them are sorted. Throws a RangeError for NaN.
+ */
+function windowAround(values: ArrayLike<number>, lowRank: number, highRank: number): Window {
+  const n = values.length;
+  if (SCRATCH.length < n) SCRATCH = new Float64Array(Math.max(n, 2 * SCRATCH.length));
+  const scratch = SCRATCH;
+  const step = Math.max(1, Math.floor(n / SAMPLE_SIZE));
+  let size = 0;
+  for (let i = 0; i < n; i += step) scratch[size++] = values[i];
+  const sample = scratch.subarray(0, size).sort(); // a NaN sorts last, and the pass below refuses it
+  const spread = (rank: number) => 4 * Math.sqrt(size * (rank / n) * (1 - rank / n)) + 1;
+  const lowGuess = Math.floor((lowRank / n) * size - spread(lowRank));
+  const highGuess = Math.ceil((highRank / n) * size + spread(highRank));
+  let wideLo = lowRank < 1 || lowGuess < 0 ? -Infinity : sample[lowGuess];
+  let wideHi = highRank > n || highGuess >= size ? Infinity : sample[highGuess];
+  let collected = collect(values, wideLo, wideHi, scratch);
+  if (collected.below > lowRank - 1 || collected.above > n - highRank) {
+    wideLo = -Infinity;
+    wideHi = Infinity;
+    collected = collect(values, wideLo, wideHi, scratch);
+  }
+  const inside = scratch.subarray(0, collected.count);
+  const ranks: number[] = [];
+  if (lowRank >= 1) ranks.push(lowRank - 1 - collected.below);
+  if (highRank <= n) ranks.push(highRank - 1 - collected.below);
+  const placed = selectManyInPlace(inside, ranks);
+  const lo = lowRank >= 1 ? placed[0] : -Infinity;
+  const hi = highRank <= n ? placed[placed.length - 1] : Infinity;
+  let m = 0;
+  for (let i = 0; i < inside.length; i++) if (inside[i] >= lo && inside[i] <= hi) inside[m++] = inside[i];
+  const between = inside.subarray(0, m).sort();
+  let groups = 0;
+  for (let i = 0; i < m; i++) if (i === 0 || between[i] !== between[groups - 1]) between[groups++] = between[i];
+  return { lo, hi, distinct: between.slice(0, groups) };
+}
+
+/** Copies the values from lo to hi to the front of `into`, counting those below and above; throws on NaN. */
+function collect(values: ArrayLike<number>, lo: number, hi: number, into: Float64Array): { count: number; below: number; above: number } {
+  let count = 0;
+  let below = 0;
+  let above = 0;
+  const n = values.length;
+  // Branch-free: whether a value falls inside is unpredictable, so every value is written and the count
+  // advances only for those inside (`into` has room for all of them).
+  for (let i = 0; i < n; i++) {
+    const x = values[i];
+    const isBelow = +(x < lo);
+    const isAbove = +(x > hi);
+    below += isBelow;
+    above += isAbove;
+    into[count] = x;
+    count += +(x === x) & (1 - isBelow) & (1 - isAbove);
+  }
+  if (count + below + above < n) {
+    for (let i = 0; i < n; i++) if (values[i] !== values[i]) throw new RangeError(`confidenceSequence: value ${i} is NaN`);
+  }
+  return { count, below, above };
+}
+
+/** Where the two pointers of the pass stopped: the running ends as indices into the distinct values. */
+interface RunningEnds {
+  /** -1: nothing ruled out at or above lo. */
+  readonly lowAt: number;
+  /** d.length: nothing ruled out at or below hi. */
+  readonly highAt: number;
+}
+
+/** Rows between re-anchorings of the followed evidence in log space, so rounding cannot build up (a power of 2: tested with a mask, not a division). */
+const ANCHOR_EVERY = 4096;
+
+/**
+ * The pass in row order. The counts left standing, [low, high], are followed row by row: neither end ever
+ * moves down (M_t(s) for s below t q grows with t, and for s above it shrinks), so each row takes one factor
+ * for M_t(low) and one for M_t(high + 1), M_{t+1}(s) = M_t(s) (t + 1 − s) / ((t + 2)(1 − q)), and a step
+ * M_t(s + 1) = M_t(s) (s + 1)(1 − q) / ((t − s) q) whenever an end moves. Lower end: candidate d[lowAt]
+ * (lowAt = -1: just below lo) with lowCount values so far at or below it, passed while lowCount < low.
+ * Upper end: candidate d[highAt] (highAt = d.length: just above hi) with highCount values so far strictly
+ * below it, passed while highCount > high. Null when every count is ruled out or a pointer runs off the
+ * interval: the intersection is empty. At the last row the counts are `last`, computed in log space, which
+ * placed the window, so a rounding difference in the followed factors cannot leave a pointer outside it.
+ */
+function runningEnds(values: ArrayLike<number>, lo: number, hi: number, d: Float64Array, q: number, alpha: number, last: StandingCounts): RunningEnds | null {
+  const groups = d.length;
+  const arrived = new Int32Array(groups);
+  const limit = 1 / alpha;
+  const p = q;
+  const r = 1 - q;
+  let low = 0;
+  let lowM = 1; // M_t(low)
+  let high = 0; // high === t: every count stands, and highM is not followed
+  let highM = 0; // M_t(high + 1) while high < t
+  let lowAt = -1;
+  let lowCount = 0;
+  let highAt = groups;
+  let highCount = 0;
+  const n = values.length;
+  for (let t = 0; t < n; t++) {
+    const rows = t + 1;
+    // The standing counts from row t to row t + 1 (the same for every data set of this length: no data here).
+    const step = 1 / ((t + 2) * r); // one division a row, shared by both ends
+    lowM *= (t + 1 - low) * step;
+    while (lowM >= limit) {
+      if (low === rows) return null;
+      lowM *= ((low + 1) * r) / ((rows - low) * p);
+      low++;
+    }
+    if (high === t) {
+      highM = Math.exp(logQuantileEvidence(rows, rows, q));
+      if (highM < limit) high = rows;
+    } else {
+      highM *= (t - high) * step;
+      while (highM < limit) {
+        high++;
+        if (high === rows) break;
+        highM *= ((high + 1) * r) / ((rows - high) * p);
+      }
+    }
+    if ((rows & (ANCHOR_EVERY - 1)) === 0) {
+      lowM = Math.exp(logQuantileEvidence(low, rows, q));
+      if (high < rows) highM = Math.exp(logQuantileEvidence(high + 1, rows, q));
+    }
+    if (rows === n) {
+      // The last row's counts as computed in log space, which placed the window.
+      low = last.low;
+      high = last.high;
+    }
+    // The data. Branch-free for the values outside the last row's interval (nearly all): which side a value
+    // lies on is unpredictable, and a mispredicted branch costs more than the arithmetic. Below lo a value is
+    // at or below both candidates; above hi, at or below neither.
+    const x = values[t];
+    const isBelow = +(x < lo);
+    const isAbove = +(x > hi);
+    let toLow = isBelow;
+    let toHigh = 1 - isAbove;
+    if ((isBelow | isAbove) === 0) {
+      const g = lowerIndex(d, x);
+      arrived[g]++;
+      toLow = +(g <= lowAt);
+      toHigh = +(g < highAt);
+    }
+    lowCount += toLow;
+    highCount += toHigh;
+    while (lowCount < low) {
+      if (++lowAt === groups) return null;
+      lowCount += arrived[lowAt];
+    }
+    while (highCount > high) {
+      if (--highAt < 0) return null;
+      highCount -= arrived[highAt];
+    }
+  }
+  return { lowAt, highAt };
 }
 
 /**
@@ -181,98 +360,24 @@ export function confidenceSequence(values: ArrayLike<number>, options: Confidenc
   checkFraction("confidence", confidence);
   const n = values.length;
   if (n === 0) return unavailable("no-data", "No values were given, so there is nothing to bound.");
-  for (let i = 0; i < n; i++) if (Number.isNaN(values[i])) throw new RangeError(`confidenceSequence: value ${i} is NaN`);
   const alpha = 1 - confidence;
   const crossed = unavailable(
     "unreachable",
     `The bounds ruled out every value: the rows do not share one fixed ${q === 0.5 ? "median" : "quantile"} (did the process shift?), or a rare event happened (chance at most ${alpha.toPrecision(3)}).`,
   );
   const last = standingCounts(n, q, alpha);
-  if (last === null) return crossed;
-
-  // The last row's interval, which holds the running intersection when that is not empty.
-  const copy = Float64Array.from(values);
-  const ranks: number[] = [];
-  if (last.low >= 1) ranks.push(last.low - 1);
-  if (last.high + 1 <= n) ranks.push(last.high);
-  const picked = ranks.length > 0 ? selectManyInPlace(copy, ranks) : [];
-  const lo = last.low >= 1 ? picked[0] : -Infinity;
-  const hi = last.high + 1 <= n ? picked[picked.length - 1] : Infinity;
-  let m = 0;
-  for (let i = 0; i < n; i++) if (values[i] >= lo && values[i] <= hi) copy[m++] = values[i];
-  const inside = copy.subarray(0, m).sort();
-  let groups = 0; // distinct values, in place
-  for (let i = 0; i < m; i++) if (i === 0 || inside[i] !== inside[groups - 1]) inside[groups++] = inside[i];
-  const d = inside.subarray(0, groups);
-  const arrived = new Int32Array(groups);
-
-  const limit = 1 / alpha;
-  const p = q;
-  const r = 1 - q;
-  // Lower end: candidate d[lowAt] (lowAt = -1: just below lo), lowCount of the values so far at or below it,
-  // its evidence lowM × RESCALE^lowK. Upper end: candidate d[highAt] (highAt = groups: just above hi),
-  // highCount of the values so far strictly below it, its evidence highM × RESCALE^highK.
-  let lowAt = -1;
-  let lowCount = 0;
-  let lowM = 1;
-  let lowK = 0;
-  let highAt = groups;
-  let highCount = 0;
-  let highM = 1;
-  let highK = 0;
-  for (let t = 0; t < n; t++) {
-    const x = values[t];
-    const g = x < lo ? -1 : x > hi ? groups : lowerIndex(d, x);
-    if (g >= 0 && g < groups) arrived[g]++;
-    // t -> t + 1: M_{t+1}(s + 1) = M_t(s) (s + 1) / ((t + 2) q); M_{t+1}(s) = M_t(s) (t + 1 − s) / ((t + 2)(1 − q)).
-    if (g <= lowAt) lowM *= (lowCount++ + 1) / ((t + 2) * p);
-    else lowM *= (t + 1 - lowCount) / ((t + 2) * r);
-    if (g < highAt) highM *= (highCount++ + 1) / ((t + 2) * p);
-    else highM *= (t + 1 - highCount) / ((t + 2) * r);
-    const rows = t + 1;
-    // Lower candidate ruled out: its evidence reaches 1/alpha on the falling side (too few at or below it).
-    while ((lowK > 0 || lowM >= limit) && (lowCount + 1) * r < (rows - lowCount) * p) {
-      if (++lowAt === groups) return crossed;
-      for (let k = arrived[lowAt]; k > 0; k--) {
-        lowM *= ((lowCount + 1) * r) / ((rows - lowCount) * p);
-        lowCount++;
-      }
-      if (lowK > 0 && lowM < 1) {
-        lowM *= RESCALE;
-        lowK--;
-      }
-    }
-    // Upper candidate ruled out: evidence at least 1/alpha on the rising side (too many strictly below it).
-    while ((highK > 0 || highM >= limit) && highCount * r > (rows - highCount + 1) * p) {
-      if (--highAt < 0) return crossed;
-      for (let k = arrived[highAt]; k > 0; k--) {
-        highM *= ((rows - highCount + 1) * p) / (highCount * r);
-        highCount--;
-      }
-      if (highK > 0 && highM < 1) {
-        highM *= RESCALE;
-        highK--;
-      }
-    }
-    if (lowM > RESCALE) {
-      lowM /= RESCALE;
-      lowK++;
-    } else if (lowK > 0 && lowM < 1) {
-      lowM *= RESCALE;
-      lowK--;
-    }
-    if (highM > RESCALE) {
-      highM /= RESCALE;
-      highK++;
-    } else if (highK > 0 && highM < 1) {
-      highM *= RESCALE;
-      highK--;
-    }
+  if (last === null) {
+    collect(values, -Infinity, Infinity, new Float64Array(n)); // refuses NaN here too
+    return crossed;
   }
-  // The last row rules out everything below lo and above hi, so the ends are at least that tight (the max and
-  // min also absorb a rounding disagreement between the running factors and the log-space counts at a tie).
-  const lower = lowAt >= 0 ? Math.max(lo, d[lowAt]) : lo;
-  const upper = highAt < groups ? Math.min(hi, d[highAt]) : hi;
+  // A window holding the last row's bounds X(low) and X(high + 1), and so the running intersection when that
+  // is not empty.
+  const { lo, hi, distinct: d } = windowAround(values, last.low, last.high + 1);
+  const ends = runningEnds(values, lo, hi, d, q, alpha, last);
+  if (ends === null) return crossed;
+  const { lowAt, highAt } = ends;
+  const lower = lowAt >= 0 ? d[lowAt] : -Infinity;
+  const upper = highAt < d.length ? d[highAt] : Infinity;
   if (lower > upper) return crossed;
   return {
     available: true,
