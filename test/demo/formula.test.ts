@@ -175,6 +175,12 @@ describe("evaluate: custom functions", () => {
     expect(calc("1E-200*1E-200")).toBe(0);
   });
 
+  it("passes a blank cell given for a single value as 0, as desktop Excel does (office-js issue 4702); an omitted one as null", () => {
+    seen.length = 0;
+    calc("EVENSPLIT.ECHO(A1:A2,A3,)", { ECHO: echo });
+    expect(seen[0]).toEqual([[[1], [2]], 0, null]);
+  });
+
   it("shows a null inside a returned array as 0, not as a blank (office-js issue 1503, by design)", () => {
     const withNull: CustomFunction = { fn: () => [[1, null, ""]], shapes: [] };
     expect(calc("EVENSPLIT.HOLES()", { HOLES: withNull })).toEqual({ kind: "matrix", rows: [[1, 0, ""]] });

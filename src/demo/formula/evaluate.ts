@@ -269,7 +269,10 @@ function customArgument(value: Value, shape: ArgumentShape, context: EvaluationC
     const cells = cellsOf(value, context);
     return firstError(cells) ?? cells.map((row) => row.map((cell) => (cell === null ? "" : cell)));
   }
-  return single(value, context);
+  // A blank cell given for a single value arrives as 0 in desktop Excel (null on the web: OfficeDev/office-js
+  // issue 4702). The harsher of the two is passed, so that a blank never quietly means "the default" here.
+  const one = single(value, context);
+  return one === null ? 0 : one;
 }
 
 function callCustom(id: string, args: readonly Expression[], context: EvaluationContext): Value {
