@@ -205,7 +205,7 @@ function windowAround(values: ArrayLike<number>, lowRank: number, highRank: numb
   let wideLo = lowRank < 1 || lowGuess < 0 ? -Infinity : sample[lowGuess];
   let wideHi = highRank > n || highGuess >= size ? Infinity : sample[highGuess];
   let collected = collect(values, wideLo, wideHi, scratch);
-  if (collected.below > lowRank - 1 || collected.above > n - highRank) {
+  if ((lowRank >= 1 && collected.below > lowRank - 1) || (highRank <= n && collected.above > n - highRank)) {
     wideLo = -Infinity;
     wideHi = Infinity;
     collected = collect(values, wideLo, wideHi, scratch);

@@ -108,6 +108,45 @@ describe("confidence sequence: the running intersection against a plain referenc
     }
   });
 
+  it("agrees on long samples too, including one arranged so the sample that places the window misleads (every other value far off)", () => {
+    /** The same reference, keeping the values so far sorted by insertion: O(n²), fine for a few thousand. */
+    function longReference(values: readonly number[], q: number): { lower: number; upper: number } | "crossed" {
+      const sorted: number[] = [];
+      let lower = -Infinity;
+      let upper = Infinity;
+      for (let t = 1; t <= values.length; t++) {
+        const x = values[t - 1];
+        let at = sorted.length;
+        while (at > 0 && sorted[at - 1] > x) at--;
+        sorted.splice(at, 0, x);
+        const c = standingCounts(t, q, 0.05);
+        if (c === null) return "crossed";
+        if (c.low >= 1) lower = Math.max(lower, sorted[c.low - 1]);
+        if (c.high + 1 <= t) upper = Math.min(upper, sorted[c.high]);
+      }
+      return lower > upper ? "crossed" : { lower, upper };
+    }
+    const next = xorshift32(99);
+    // 6,000 values: the window's sample takes every 2nd value, all of which sit near 10 while the others are
+    // spread from 0 to 1000, so its guess is wrong and the check must catch it.
+    const arranged = Array.from({ length: 6000 }, (_, i) => (i % 2 === 0 ? 10 + next() : 1000 * next()));
+    const plain = Array.from({ length: 6000 }, () => Math.round(1000 * next()) / 10);
+    for (const [values, q] of [
+      [arranged, 0.5],
+      [arranged, 0.25],
+      [plain, 0.5],
+      [plain, 0.9],
+    ] as const) {
+      const truth = longReference(values, q);
+      const ours = confidenceSequence(values, { quantile: q });
+      if (truth === "crossed") expect(ours.available).toBe(false);
+      else {
+        if (!ours.available) throw new Error(ours.message);
+        expect([ours.lower, ours.upper]).toEqual([truth.lower, truth.upper]);
+      }
+    }
+  });
+
   it("a worked case: ten invented coating thicknesses (µm) bound the median from row 8 on", () => {
     const r = run([49, 53, 50, 52, 48, 51, 47, 54, 46, 55]);
     expect([r.lower, r.upper, r.rows, r.rowsForLower, r.rowsForUpper]).toEqual([47, 54, 10, 8, 8]);
