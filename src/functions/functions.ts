@@ -25,14 +25,14 @@ import { differencesFrom, pairedDifferences } from "../stats/differences";
 import { confidenceSequence } from "../stats/confidenceSequence";
 import { hodgesLehmann, hodgesLehmannEstimate } from "../stats/hodgesLehmann";
 import { signTestPower, signTestSampleSize } from "../stats/power";
-import { quantileBounds } from "../stats/quantileBounds";
+import { boundRanks, quantileBounds } from "../stats/quantileBounds";
 import { quantileTest } from "../stats/quantileTest";
 import { countSigns, type SignCounts } from "../stats/signCounts";
 import { EXACT_LIMIT, signedRankTest, type SignedRankResult } from "../stats/signedRank";
 import { signTest } from "../stats/signTest";
 import { sprt as sequentialRatioTest } from "../stats/sprt";
 import { unavailable, type BoundMethod, type BoundSide, type Unavailable } from "../stats/types";
-import { cellsArgument, fractionArgument, numberArgument, pairedCellsArgument, probabilityArgument, sampleSizeArgument, type Cells } from "./argumentChecks";
+import { cellsArgument, fractionArgument, LARGEST_N, numberArgument, pairedCellsArgument, probabilityArgument, sampleSizeArgument, type Cells } from "./argumentChecks";
 import { BadArgument, errorFor, oneRow, scalar, unavailableError, type RowCell } from "./errors";
 import type { CellError } from "./runtime";
 import {
@@ -701,6 +701,8 @@ const CATALOGUE: Readonly<Record<string, CatalogueFunction>> = {
   WATCHPVALUE: watchpvalue as CatalogueFunction,
   WATCHBOUNDS: watchbounds as CatalogueFunction,
   SPRT: sprt as CatalogueFunction,
+  COUNTPVALUE: countpvalue as CatalogueFunction,
+  ORDERRANKS: orderranks as CatalogueFunction,
   TWOGROUPS: twogroups as CatalogueFunction,
   SHIFT: shift as CatalogueFunction,
   GROUPS: groups as CatalogueFunction,
@@ -893,4 +895,55 @@ export function bygroup(values: unknown[][], labels: unknown[][], hypothesized_m
   } catch (thrown) {
     return [BY_GROUP_HEADER.map(() => errorFor(thrown))];
   }
+}
+
+// ---------------------------------------------------------------------------
+// From counts: the sign test and the ranks of the bounds without the values, for data summarised elsewhere
+// (a report of counts, a pivot table, a database that returns the counts and two order statistics)
+
+/** A count of values: a whole number from 0 to LARGEST_N. */
+function countArgument(name: string, raw: unknown): number {
+  const x = numberArgument(name, raw, undefined, "18");
+  if (Number.isInteger(x) && x >= 0 && x <= LARGEST_N) return x;
+  throw new BadArgument(`Argument ${name} must be a whole number of values from 0 to 1,000,000,000, such as 18; got ${x}.`);
+}
+
+/**
+ * Sign-test p-value from counts: how many values lie above and below the hypothesised median, values equal to it already left out. Gives the same p-value as PVALUE on the values themselves.
+ * @customfunction COUNTPVALUE
+ * @param above How many values lie above the hypothesised median, such as 18.
+ * @param below How many values lie below it, such as 7. Leave out values equal to it.
+ * @param [alternative] "two-sided" (default), "greater" (the median is above the hypothesised one) or "less".
+ * @param [method] "exact" (default, binomial), "midp" or "normal" (approximation).
+ * @returns The p-value.
+ */
+export function countpvalue(above: unknown, below: unknown, alternative?: unknown, method?: unknown): number | CellError {
+  return scalar(() => {
+    const counts: SignCounts = { below: countArgument("below", below), tied: 0, above: countArgument("above", above) };
+    if (counts.below + counts.above > LARGEST_N) {
+      throw new BadArgument(`Arguments above and below may add up to at most 1,000,000,000 values; they add up to ${counts.below + counts.above}.`);
+    }
+    const result = signTestOf(counts, alternative, null, method);
+    return result.available ? result.pValue : unavailableError(result);
+  });
+}
+
+/**
+ * Which order statistics bound the median (or another quantile) of n values, and their exact coverage: fetch the bounds as SMALL(range, lower rank) and SMALL(range, upper rank), or with a window function in a database. Returns one row: lower rank, upper rank, achieved confidence; "" for an end not asked for.
+ * @customfunction ORDERRANKS
+ * @param n Number of values, such as 40.
+ * @param [confidence] Confidence, such as 0.95 (default).
+ * @param [quantile] Which quantile, between 0 and 1: 0.5 (default) is the median, 0.9 the value 90% fall below.
+ * @param [side] "two-sided" (default), "lower" (a lower bound only) or "upper".
+ * @returns One row: lower rank, upper rank, achieved confidence.
+ */
+export function orderranks(n: unknown, confidence?: unknown, quantile?: unknown, side?: unknown): unknown[][] {
+  return oneRow(3, () => {
+    const size = sampleSizeArgument("n", n);
+    const level = fractionArgument("confidence", confidence, 0.95);
+    const q = fractionArgument("quantile", quantile, 0.5, "0.9");
+    const result = boundRanks(size, q, level, chooseWord(SIDE, side));
+    if (!result.available) return unavailableError(result);
+    return [result.lowerRank ?? "", result.upperRank ?? "", result.achievedConfidence];
+  });
 }
