@@ -22,11 +22,12 @@
  * data (selection.ts), never a full sort; the ranks from a galloping search
  * over exact binomial tails (binomial.ts) started at the normal approximation.
  *
- * Cost: O(n) expected time and one n-value copy; O(log n) tail evaluations.
+ * Cost: O(n) expected time: on long samples one read-only pass (selection.ts, valuesAtRanks), otherwise
+ * one n-value copy; O(log n) tail evaluations.
  */
 import { BINOMIAL_MAX_N, binomialLowerTail, binomialUpperTail } from "./binomial";
 import { normalQuantile } from "./normal";
-import { selectManyInPlace } from "./selection";
+import { checkFinite, valuesAtRanks } from "./selection";
 import type { BoundMethod, BoundSide, Unavailable } from "./types";
 import { unavailable } from "./types";
 
@@ -261,18 +262,6 @@ function tooFew(n: number, quantile: number, confidence: number, side: BoundSide
   return unavailable("too-few-values", `${n} value${n === 1 ? " is" : "s are"} too few for ${what}: at least ${minimumN} are needed.`, minimumN);
 }
 
-/** One copy of the data as doubles; non-finite values are a caller's error (the cell layer drops them). */
-function finiteCopy(values: ArrayLike<number>): Float64Array {
-  const n = values.length;
-  const copy = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    const x = values[i];
-    if (!Number.isFinite(x)) throw new RangeError(`quantileBounds: value ${i} is not a finite number (${x})`);
-    copy[i] = x;
-  }
-  return copy;
-}
-
 export interface QuantileBoundsOptions {
   /** Which quantile, strictly between 0 and 1; default 0.5 (the median). */
   quantile?: number;
@@ -324,38 +313,41 @@ export function quantileBounds(values: ArrayLike<number>, options: QuantileBound
     if (side !== "two-sided" && !(confidence > 0.5)) throw new RangeError("a one-sided interpolated bound needs confidence above 0.5");
   }
   const n = values.length;
-  const data = finiteCopy(values);
   const base = { available: true as const, confidence, quantile, side, method, n };
 
   if (method === "exact") {
     const ranks = boundRanks(n, quantile, confidence, side);
-    if (!ranks.available) return ranks;
+    if (!ranks.available) {
+      checkFinite(values); // a non-finite value is a caller's error whether or not the ranks exist
+      return ranks;
+    }
     const wanted = [ranks.lowerRank, ranks.upperRank].filter((r): r is number => r !== null).map((r) => r - 1);
-    selectManyInPlace(data, wanted);
+    const picked = valuesAtRanks(values, wanted); // the values are not changed; non-finite ones throw RangeError
     return {
       ...base,
-      lower: ranks.lowerRank === null ? null : data[ranks.lowerRank - 1],
-      upper: ranks.upperRank === null ? null : data[ranks.upperRank - 1],
+      lower: ranks.lowerRank === null ? null : picked[0],
+      upper: ranks.upperRank === null ? null : picked[picked.length - 1],
       achievedConfidence: ranks.achievedConfidence,
       lowerRank: ranks.lowerRank,
       upperRank: ranks.upperRank,
       interpolation: null,
     };
   }
-  return interpolatedBounds(data, confidence, side, base);
+  return interpolatedBounds(values, confidence, side, base);
 }
 
-/** Hettmansperger–Sheather bounds for the median on the copied data (destroys its order). */
+/** Hettmansperger–Sheather bounds for the median (the values are not changed). */
 function interpolatedBounds(
-  data: Float64Array,
+  values: ArrayLike<number>,
   confidence: number,
   side: BoundSide,
   base: Pick<QuantileBoundsResult, "available" | "confidence" | "quantile" | "side" | "method" | "n">,
 ): QuantileBoundsResult | Unavailable {
-  const n = data.length;
+  const n = values.length;
   const twoSidedConfidence = side === "two-sided" ? confidence : 2 * confidence - 1;
   const ranks = boundRanks(n, 0.5, twoSidedConfidence, "two-sided");
   if (!ranks.available) {
+    checkFinite(values);
     // Report the size needed for the bound actually asked (the same n, stated in the caller's terms).
     return tooFew(n, 0.5, confidence, side, ranks.minimumN ?? n + 1);
   }
@@ -367,7 +359,7 @@ function interpolatedBounds(
   const hasInner = d + 1 <= n - d;
   const wanted = [outerLow, outerHigh];
   if (hasInner) wanted.push(d, n - d - 1);
-  selectManyInPlace(data, wanted);
+  const [lowOuter, highOuter, lowInner, highInner] = valuesAtRanks(values, wanted);
 
   const allowance = (1 - twoSidedConfidence) / 2;
   const outerMiss = binomialLowerTail(d - 1, n, 0.5);
@@ -377,8 +369,8 @@ function interpolatedBounds(
     return {
       ...base,
       ...rankFields,
-      lower: wantLower ? data[outerLow] : null,
-      upper: wantUpper ? data[outerHigh] : null,
+      lower: wantLower ? lowOuter : null,
+      upper: wantUpper ? highOuter : null,
       achievedConfidence: 1 - oneOrTwo * outerMiss,
       interpolation: null,
     };
@@ -388,8 +380,8 @@ function interpolatedBounds(
   // near 1; clamped because withinAllowance lets the outer miss exceed the allowance by rounding.
   const share = Math.min(1, Math.max(0, (allowance - outerMiss) / (innerMiss - outerMiss)));
   const weight = ((n - d) * share) / (d + (n - 2 * d) * share);
-  const lower = (1 - weight) * data[outerLow] + weight * data[d];
-  const upper = (1 - weight) * data[outerHigh] + weight * data[n - d - 1];
+  const lower = (1 - weight) * lowOuter + weight * lowInner;
+  const upper = (1 - weight) * highOuter + weight * highInner;
   return {
     ...base,
     ...rankFields,

@@ -15,8 +15,19 @@
  * Several ranks are placed by taking the outermost two first (they split the
  * array so that the rest lie in the short stretch between them).
  *
+ * Ranks close together in a long array that must not be changed (confidence
+ * bounds) are found without moving it (`valuesAtRanks`): the ranks of a small
+ * evenly spaced sample give two values that bracket them with high probability
+ * (the idea of Floyd and Rivest's sample, used as a filter as in R. Motwani and
+ * P. Raghavan (1995), "Randomized Algorithms", Cambridge University Press,
+ * section 3.3, "LazySelect", from memory); one read-only pass counts the
+ * values below the bracket and gathers the few inside it, where the ranks are
+ * then selected. A bracket that misses (an unlucky sample) costs one more pass
+ * and a copy, never a wrong answer.
+ *
  * Cost: O(n) expected time (about n + min(k, n - k) comparisons for one rank),
- * O(n log n) worst case, O(log n) stack, no allocation.
+ * O(n log n) worst case, O(log n) stack, no allocation in place; valuesAtRanks
+ * reads the array once and keeps about 3 n^(2/3) values.
  */
 
 /** Above this range length the Floyd–Rivest sample is taken (the constant of the 1975 algorithm). */
@@ -159,4 +170,106 @@ function placeSpan(data: Float64Array, sorted: readonly number[], first: number,
   const high = sorted[last];
   floydRivest(data, low + 1, to, high);
   placeSpan(data, sorted, first + 1, last - 1, low + 1, high - 1);
+}
+
+/** From this length on, valuesAtRanks tries the bracket before copying the whole array. */
+const BRACKET_FROM = 1 << 14;
+
+/** Runs the bracket's sample is read in (see `bracketed`). */
+const SAMPLE_BLOCKS = 256;
+
+/**
+ * The values that the zero-based `ranks` would hold if `values` were sorted ascending, in the order of
+ * `ranks` (which may repeat); `values` is not modified. Throws RangeError for a rank outside [0, n - 1]
+ * or a value that is not a finite number.
+ *
+ * @example
+ * valuesAtRanks([9, 3, 7, 1, 5], [1, 3]); // [3, 7]
+ */
+export function valuesAtRanks(values: ArrayLike<number>, ranks: readonly number[]): number[] {
+  const n = values.length;
+  for (const rank of ranks) checkIndex("rank", rank, 0, n - 1);
+  if (ranks.length === 0) return [];
+  if (n >= BRACKET_FROM) {
+    const picked = bracketed(values, ranks);
+    if (picked !== null) return picked;
+  }
+  return selectManyInPlace(finiteCopy(values), ranks);
+}
+
+/**
+ * Throws RangeError naming the first value that is not a finite number: a caller's error (the cell layer
+ * drops such values), checked by valuesAtRanks and by callers that end before selecting.
+ *
+ * @example
+ * checkFinite([1, 2]);        // returns
+ * checkFinite([1, Infinity]); // throws RangeError: value 1 is not a finite number (Infinity)
+ */
+export function checkFinite(values: ArrayLike<number>): void {
+  for (let i = 0; i < values.length; i++) {
+    const x = values[i];
+    if (!Number.isFinite(x)) throw new RangeError(`value ${i} is not a finite number (${x})`);
+  }
+}
+
+/** One copy of the data, its values checked to be finite. */
+function finiteCopy(values: ArrayLike<number>): Float64Array {
+  checkFinite(values);
+  return Float64Array.from(values);
+}
+
+/**
+ * The bracket: a sample of about n^(2/3) values from evenly spaced positions, the sample ranks three
+ * standard deviations (of a sample rank, at most sqrt(s)/2) outside those expected for the lowest and the
+ * highest wanted rank, and one pass. Null when the bracket misses or gathers far more than expected.
+ */
+function bracketed(values: ArrayLike<number>, ranks: readonly number[]): number[] | null {
+  const n = values.length;
+  const lowest = Math.min(...ranks);
+  const highest = Math.max(...ranks);
+  // The sample is read in SAMPLE_BLOCKS runs of neighbouring values at evenly spaced places: one cache miss
+  // per run instead of one per value (scattered reads cost as much as the whole pass at n = 10^6). Even on
+  // sorted data a run's values span only n / SAMPLE_BLOCKS ranks, well inside the margin below.
+  const run = Math.ceil(n ** (2 / 3) / SAMPLE_BLOCKS);
+  const size = run * SAMPLE_BLOCKS;
+  const sample = new Float64Array(size);
+  for (let b = 0, t = 0; b < SAMPLE_BLOCKS; b++) {
+    const start = Math.floor((b * (n - run)) / (SAMPLE_BLOCKS - 1));
+    for (let j = 0; j < run; j++) sample[t++] = values[start + j];
+  }
+  const margin = Math.ceil(1.5 * Math.sqrt(size));
+  const lowRank = Math.floor((lowest * size) / n) - margin;
+  const highRank = Math.ceil((highest * size) / n) + margin;
+  const wantedInSample = [lowRank, highRank].filter((r) => r >= 0 && r < size);
+  const [first, second] = selectManyInPlace(sample, wantedInSample);
+  const low = lowRank >= 0 ? first : -Infinity;
+  const high = highRank < size ? (lowRank >= 0 ? second : first) : Infinity;
+  // Room for four times the share the sample leaves between the two values, at least a few thousand.
+  const room = Math.max(4096, Math.ceil((4 * n * (Math.min(highRank, size - 1) - Math.max(lowRank, 0) + 1)) / size));
+  const inside = new Float64Array(room + 1);
+  let below = 0;
+  let count = 0;
+  let nonFinite = 0;
+  let i = 0;
+  while (i < n) {
+    // A stretch short enough that `inside` cannot fill up within it, so the loop needs no check.
+    const end = Math.min(n, i + room - count);
+    if (end === i) return null; // far more inside than the sample promised: give up on the bracket
+    for (; i < end; i++) {
+      const x = values[i];
+      // Branch-free: every value is written at the end of `inside`, which only advances past values between
+      // the two; the side of a value is unpredictable, a branch on it would cost more than the write.
+      const isBelow = +(x < low);
+      below += isBelow;
+      inside[count] = x;
+      count += 1 - (isBelow | +(x > high));
+      nonFinite |= +(x - x !== 0);
+    }
+  }
+  if (nonFinite !== 0) checkFinite(values); // throws, naming the first such value
+  if (below > lowest || below + count <= highest) return null;
+  return selectManyInPlace(
+    inside.subarray(0, count),
+    ranks.map((rank) => rank - below),
+  );
 }

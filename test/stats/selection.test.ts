@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import { selectInPlace, selectManyInPlace } from "../../src/stats/selection";
+import { selectInPlace, selectManyInPlace, valuesAtRanks } from "../../src/stats/selection";
 
 // Reference for every check: the fully sorted array (Float64Array.prototype.sort, numeric order).
 function sortedCopy(a: ArrayLike<number>): Float64Array {
@@ -132,5 +132,61 @@ describe("selectManyInPlace", () => {
 
   it("rejects an index outside the array", () => {
     expect(() => selectManyInPlace(new Float64Array(3), [0, 3])).toThrow(RangeError);
+  });
+});
+
+describe("valuesAtRanks (read-only, bracketed on long arrays)", () => {
+  /** Reference: the ranks read off a full sort (the definition of an order statistic). */
+  const bySorting = (values: ArrayLike<number>, ranks: number[]) => {
+    const sorted = Float64Array.from(values).sort();
+    return ranks.map((r) => sorted[r]);
+  };
+  const n = 40_000; // above the length from which the bracket is tried
+  const shapes: Record<string, (i: number) => number> = {
+    "scrambled two-decimal values": (i) => Math.round(((i * 7919) % 10007) * 1.3) / 100,
+    "sorted": (i) => i / 7,
+    "reversed": (i) => -i,
+    "organ pipe": (i) => Math.abs(i - n / 2),
+    "period equal to the sample spacing": (i) => (i % 34 === 0 ? 0 : 1 + (i % 5)),
+    "five distinct values": (i) => i % 5,
+    "constant": () => 3,
+  };
+  for (const [name, shape] of Object.entries(shapes)) {
+    it(`agrees with a full sort and leaves the input as it was: ${name}`, () => {
+      const values = Float64Array.from({ length: n }, (_, i) => shape(i));
+      const before = values.slice();
+      const ranks = [0, 1, 19_500, 19_999, 20_000, 20_400, n - 2, n - 1, 20_000];
+      for (const set of [ranks, [19_600, 20_399], [20_000], [n - 1], [0, n - 1]]) {
+        expect(valuesAtRanks(values, set)).toEqual(bySorting(values, set));
+      }
+      expect(values).toEqual(before);
+    });
+  }
+
+  it("agrees with a full sort on random short and long arrays (property)", () => {
+    fc.assert(
+      fc.property(
+        fc.integer({ min: 1, max: 30_000 }),
+        fc.integer({ min: 0, max: 2 ** 31 - 1 }),
+        fc.array(fc.double({ min: 0, max: 1, noNaN: true }), { minLength: 1, maxLength: 4 }),
+        (size, seed, at) => {
+          let s = seed | 1;
+          const values = Float64Array.from({ length: size }, () => ((s = (Math.imul(s, 48271) >>> 0) % 2147483647) % 1000) / 10);
+          const ranks = at.map((a) => Math.min(size - 1, Math.floor(a * size)));
+          expect(valuesAtRanks(values, ranks)).toEqual(bySorting(values, ranks));
+        },
+      ),
+      { numRuns: 40 },
+    );
+  });
+
+  it("refuses ranks outside the array and values that are not finite numbers", () => {
+    expect(() => valuesAtRanks([1, 2, 3], [3])).toThrow(RangeError);
+    for (const bad of [NaN, Infinity, -Infinity]) {
+      const long = Float64Array.from({ length: n }, (_, i) => i);
+      long[n - 7] = bad;
+      expect(() => valuesAtRanks(long, [n / 2])).toThrow(/value 39993 is not a finite number/);
+      expect(() => valuesAtRanks([1, bad, 3], [1])).toThrow(RangeError);
+    }
   });
 });
