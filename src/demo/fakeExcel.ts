@@ -33,7 +33,15 @@ export class FakeApiError extends Error {
   /** As OfficeExtension.Error carries it (node_modules/@microsoft/office-js, Utility.createRuntimeError). */
   readonly debugInfo: { readonly code: string; readonly message: string };
   constructor(
-    readonly code: "ItemNotFound" | "InvalidArgument" | "PropertyNotLoaded" | "InvalidOperation" | "RunMustReturnPromise" | "InvalidRequestContext",
+    readonly code:
+      | "ItemNotFound"
+      | "InvalidArgument"
+      | "PropertyNotLoaded"
+      | "InvalidOperation"
+      | "RunMustReturnPromise"
+      | "InvalidRequestContext"
+      | "RequestPayloadSizeLimitExceeded"
+      | "ResponsePayloadSizeLimitExceeded",
     message: string,
   ) {
     super(message);
@@ -42,14 +50,45 @@ export class FakeApiError extends Error {
   }
 }
 
+/**
+ * Bytes a request or a response of one sync may carry: Excel on the web
+ * refuses more than 5 MB either way (Microsoft, "Resource limits and
+ * performance optimization for Office Add-ins", Excel add-ins; the codes are
+ * office-js's RequestPayloadSizeLimitExceeded and
+ * ResponsePayloadSizeLimitExceeded).
+ */
+const PAYLOAD_LIMIT = 5 * 1024 * 1024;
+
+/** Size in bytes of a value as the API would carry it (JSON, UTF-8). */
+function payloadBytes(value: unknown): number {
+  return new TextEncoder().encode(JSON.stringify(value) ?? "").length;
+}
+
 class Queue {
   private readonly operations: (() => void)[] = [];
+  private requestBytes = 0;
+  private responseBytes = 0;
   constructor(readonly workbook: Workbook) {}
-  add(operation: () => void): void {
+  add(operation: () => void, bytes = 0): void {
     this.operations.push(operation);
+    this.requestBytes += bytes;
+  }
+  /** Counts what a load sends back in this sync, and refuses the sync once that passes the limit. */
+  answer(bytes: number): void {
+    this.responseBytes += bytes;
+    if (this.responseBytes > PAYLOAD_LIMIT) {
+      throw new FakeApiError("ResponsePayloadSizeLimitExceeded", "The response of this sync is larger than the 5 MB Excel on the web carries; load fewer cells at a time.");
+    }
   }
   flush(): void {
     const pending = this.operations.splice(0);
+    const request = this.requestBytes;
+    this.requestBytes = 0;
+    this.responseBytes = 0;
+    // A request over the limit is refused before it is sent: nothing of it happens.
+    if (request > PAYLOAD_LIMIT) {
+      throw new FakeApiError("RequestPayloadSizeLimitExceeded", "The request of this sync is larger than the 5 MB Excel on the web accepts; write fewer cells at a time.");
+    }
     this.workbook.batch(() => {
       for (const operation of pending) {
         try {
@@ -192,12 +231,16 @@ class FakeRange implements HostRange {
         }
         const { sheet, rect } = w;
         const each = (read: (row: number, column: number) => unknown): unknown[][] => {
+          // Every cell costs at least two bytes ("1,"): refuse before building an answer that cannot be carried.
+          const { rows: height, columns: width } = rectSize(rect);
+          this.queue.answer(height * width * 2);
           const rows: unknown[][] = [];
           for (let r = rect.top; r <= rect.bottom; r++) {
             const row: unknown[] = [];
             for (let c = rect.left; c <= rect.right; c++) row.push(read(r, c));
             rows.push(row);
           }
+          this.queue.answer(payloadBytes(rows) - height * width * 2);
           return rows;
         };
         switch (name) {
@@ -255,7 +298,7 @@ class FakeRange implements HostRange {
           this.queue.workbook.setFormat(w.sheet, cell, { numberFormat: format === "" ? "General" : String(format) });
         }),
       );
-    });
+    }, payloadBytes(matrix));
   }
 
   private write(matrix: unknown[][]): void {
@@ -266,7 +309,7 @@ class FakeRange implements HostRange {
       if (!w) throw new FakeApiError("InvalidOperation", "This range does not exist.");
       checkShape(w.rect, copy);
       this.queue.workbook.writeEntries(w.sheet, w.rect.top, w.rect.left, copy);
-    });
+    }, payloadBytes(copy));
   }
 
   private part(pick: (rect: CellRect) => CellRect): FakeRange {

@@ -198,3 +198,36 @@ describe("defined names (Microsoft, \"Define and use names in formulas\")", () =
     });
   });
 });
+
+describe("payload of one sync (Microsoft, \"Resource limits and performance optimization for Office Add-ins\": 5 MB on the web)", () => {
+  it("refuses to load the values of a whole column in one sync, and loads a used range", async () => {
+    const w = new Workbook([S]);
+    w.writeEntries(S, 0, 0, [["Thickness"], [50]]);
+    const run = fakeRun(w);
+    const whole = run(async (context) => {
+      const column = context.workbook.worksheets.getItem(S).getRange("A:C");
+      column.load("values");
+      await context.sync();
+      return column.values.length;
+    });
+    await expect(whole).rejects.toMatchObject({ code: "ResponsePayloadSizeLimitExceeded" });
+    const used = await run(async (context) => {
+      const range = context.workbook.worksheets.getItem(S).getRange("A1:A2");
+      range.load("values");
+      await context.sync();
+      return range.values;
+    });
+    expect(used).toEqual([["Thickness"], [50]]);
+  });
+
+  it("refuses a write of more than 5 MB before any of it happens", async () => {
+    const w = new Workbook([S]);
+    const big = Array.from({ length: 200 }, () => Array.from({ length: 20 }, () => "x".repeat(1400)));
+    const write = fakeRun(w)(async (context) => {
+      context.workbook.worksheets.getItem(S).getRange("A1:T200").values = big;
+      await context.sync();
+    });
+    await expect(write).rejects.toMatchObject({ code: "RequestPayloadSizeLimitExceeded" });
+    expect(w.usedRect(S)).toBeNull();
+  });
+});
