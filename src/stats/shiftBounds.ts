@@ -17,14 +17,13 @@
  * - Selection over the implicitly sorted differences (differenceSelection.ts); the m·n
  *   differences are never formed.
  *
- * Cost: O((m + n) log(m + n)) expected time (sorting, then a few selections of
- * O(m + n) rounds each), O(m + n) memory; the exact rank adds O(min(m, n) m n) at worst,
+ * Cost: O(m + n) to find the distinct values (distinctValues.ts), then a few selections of O((p + q) log(p + q))
+ * expected time, p and q the numbers of distinct values; O(m + n) memory; the exact rank adds O(min(m, n) m n) at worst,
  * for m + n <= EXACT_AUTO_SIZE.
  */
-import { differenceOrderStatistic, nextDifference } from "./differenceSelection";
+import { differenceMatrix, differenceOrderStatistic, nextDifference, type DifferenceMatrix } from "./differenceSelection";
 import { normalLowerTail, normalQuantile } from "./normal";
 import { confidenceWords } from "./quantileBounds";
-import { sortFloat64 } from "./ranks";
 import { EXACT_AUTO_SIZE } from "./rankSum";
 import { mannWhitneyNullCdf } from "./rankSumNull";
 import { unavailable, type BoundSide, type Unavailable } from "./types";
@@ -49,27 +48,26 @@ export interface ShiftResult {
   boundRank: number;
 }
 
-/** Sorted copies of both groups; throws a RangeError on a non-finite value. */
-function sortedGroups(first: ArrayLike<number>, second: ArrayLike<number>, caller: string): { a: Float64Array; b: Float64Array } {
-  const a = Float64Array.from(first);
-  const b = Float64Array.from(second);
-  for (let i = 0; i < a.length; i++) if (a[i] - a[i] !== 0) throw new RangeError(`${caller}: value ${i} of the first group is not finite`);
-  for (let j = 0; j < b.length; j++) if (b[j] - b[j] !== 0) throw new RangeError(`${caller}: value ${j} of the second group is not finite`);
-  return { a: sortFloat64(a), b: sortFloat64(b) };
+/** Throws a RangeError naming the group of a value that is not finite. */
+function checkFinite(first: ArrayLike<number>, second: ArrayLike<number>, caller: string): void {
+  for (let i = 0; i < first.length; i++) if (first[i] - first[i] !== 0) throw new RangeError(`${caller}: value ${i} of the first group is not finite`);
+  for (let j = 0; j < second.length; j++) if (second[j] - second[j] !== 0) throw new RangeError(`${caller}: value ${j} of the second group is not finite`);
 }
 
 /** Whether every difference fits in a double (values near ±1E+308 on opposite sides do not). */
-function differencesFit(a: Float64Array, b: Float64Array): boolean {
+function differencesFit(matrix: DifferenceMatrix): boolean {
+  const a = matrix.a.values;
+  const b = matrix.b.values;
   return Number.isFinite(b[b.length - 1] - a[0]) && Number.isFinite(b[0] - a[a.length - 1]);
 }
 
 const TOO_LARGE = "A difference between the groups is too large to hold as a number (values near ±1E+308 on opposite sides); rescale the data (other units).";
 
-function medianDifference(a: Float64Array, b: Float64Array): number {
-  const count = a.length * b.length;
-  if (count % 2 === 1) return differenceOrderStatistic(a, b, (count + 1) / 2) + 0;
-  const lowerMiddle = differenceOrderStatistic(a, b, count / 2);
-  const upperMiddle = nextDifference(a, b, lowerMiddle, count / 2);
+function medianDifference(matrix: DifferenceMatrix): number {
+  const count = matrix.pairs;
+  if (count % 2 === 1) return differenceOrderStatistic(matrix, (count + 1) / 2) + 0;
+  const lowerMiddle = differenceOrderStatistic(matrix, count / 2);
+  const upperMiddle = nextDifference(matrix, lowerMiddle, count / 2);
   const m = (lowerMiddle + upperMiddle) / 2;
   return (Number.isFinite(m) ? m : lowerMiddle / 2 + upperMiddle / 2) + 0;
 }
@@ -84,9 +82,10 @@ function medianDifference(a: Float64Array, b: Float64Array): number {
  */
 export function shiftEstimate(first: ArrayLike<number>, second: ArrayLike<number>): number | Unavailable {
   if (first.length === 0 || second.length === 0) return unavailable("no-data", `Each group needs at least one number; the first has ${first.length}, the second ${second.length}.`);
-  const { a, b } = sortedGroups(first, second, "shiftEstimate");
-  if (!differencesFit(a, b)) return unavailable("unreachable", TOO_LARGE);
-  return medianDifference(a, b);
+  checkFinite(first, second, "shiftEstimate");
+  const matrix = differenceMatrix(first, second);
+  if (!differencesFit(matrix)) return unavailable("unreachable", TOO_LARGE);
+  return medianDifference(matrix);
 }
 
 /** Rank k of the bounds and their coverage, or null when even k = 1 does not reach the confidence. */
@@ -150,8 +149,9 @@ export function shiftBounds(
   const m = first.length;
   const n = second.length;
   if (m === 0 || n === 0) return unavailable("no-data", `Each group needs at least one number; the first has ${m}, the second ${n}.`);
-  const { a, b } = sortedGroups(first, second, "shiftBounds");
-  if (!differencesFit(a, b)) return unavailable("unreachable", TOO_LARGE);
+  checkFinite(first, second, "shiftBounds");
+  const matrix = differenceMatrix(first, second);
+  if (!differencesFit(matrix)) return unavailable("unreachable", TOO_LARGE);
   const tails = side === "two-sided" ? 2 : 1;
   const rank = boundRankFor(m, n, confidence, tails);
   if (rank === null) {
@@ -162,9 +162,9 @@ export function shiftBounds(
   const count = m * n;
   return {
     available: true,
-    estimate: medianDifference(a, b),
-    lower: side === "upper" ? null : differenceOrderStatistic(a, b, rank.k) + 0,
-    upper: side === "lower" ? null : differenceOrderStatistic(a, b, count - rank.k + 1) + 0,
+    estimate: medianDifference(matrix),
+    lower: side === "upper" ? null : differenceOrderStatistic(matrix, rank.k) + 0,
+    upper: side === "lower" ? null : differenceOrderStatistic(matrix, count - rank.k + 1) + 0,
     achievedConfidence: rank.achieved,
     confidence,
     side,

@@ -34,7 +34,7 @@ describe("TWOGROUPS", () => {
 
   it("refuses an unknown method with the accepted words, and an empty group with #N/A", () => {
     const bad = twogroups(col([1]), col([2]), null, null, "t-test");
-    expect(isCellError(bad) && bad.code === "#VALUE!" && bad.message.includes("rank-sum")).toBe(true);
+    expect(isCellError(bad) && bad.code === "#VALUE!" && (bad.message ?? "").includes("rank-sum")).toBe(true);
     const empty = twogroups(col(["a"]), col([2]));
     expect(isCellError(empty) && empty.code).toBe("#N/A");
   });
@@ -50,7 +50,7 @@ describe("SHIFT", () => {
   it("groups too small for the bounds still give the estimate; the bound cells say why", () => {
     const [row] = shift(col([1, 2]), col([3, 4]));
     expect(row[0]).toBe(2);
-    expect(row.slice(1).every((c) => isCellError(c) && c.code === "#N/A" && c.message.includes("4 values in each"))).toBe(true);
+    expect(row.slice(1).every((c) => isCellError(c) && c.code === "#N/A" && (c.message ?? "").includes("4 values in each"))).toBe(true);
   });
 });
 
@@ -65,7 +65,7 @@ describe("GROUPS", () => {
     const one = groups(col([1, 2]), col(["a", "A"]));
     expect(isCellError(one) && one.code).toBe("#N/A");
     const shape = groups(col([1, 2]), col(["a"]));
-    expect(isCellError(shape) && shape.code === "#VALUE!" && shape.message.includes("same shape")).toBe(true);
+    expect(isCellError(shape) && shape.code === "#VALUE!" && (shape.message ?? "").includes("same shape")).toBe(true);
   });
 });
 
