@@ -53,7 +53,7 @@ describe("dist/functions.js", () => {
         expect(p.type ?? "any").toBe("any");
       }
       const ranges = f.parameters.filter((p) => p.dimensionality === "matrix").map((p) => p.name);
-      const expectedRanges = { pvalues: true, data: true, first: true, second: true };
+      const expectedRanges = { pvalues: true, data: true, first: true, second: true, values: true, labels: true };
       for (const p of f.parameters) expect(ranges.includes(p.name), `${f.id}(${p.name})`).toBe(p.name in expectedRanges);
       expect(bundle.fns.get(f.id)?.length ?? -1, f.id).toBeGreaterThanOrEqual(f.parameters.filter((p) => !p.optional).length);
     }
