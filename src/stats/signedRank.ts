@@ -13,7 +13,13 @@
  *   integers, so the distribution of the score sum follows from the subset-sum
  *   recursion f_k(w) = f_{k-1}(w) + f_{k-1}(w - s_k) over the scores (divided by
  *   their common divisor); with ties and Pratt's zeros this is still exact. Only
- *   the smaller tail is summed, using the symmetry of the distribution.
+ *   the smaller tail is summed, using the symmetry of the distribution. Two
+ *   savings make it several times cheaper than the plain recursion: every
+ *   intermediate distribution is symmetric about half its total, so only its
+ *   lower half is built (the rest is read in mirror); and the scores are dealt
+ *   alternately into two sets whose distributions are built separately, so
+ *   each recursion runs over half the scores and a quarter of the total, and
+ *   P(W <= q) = sum_x P(A = x) P(B <= q - x) joins them in one O(q) pass.
  * - Normal approximation: mean and variance of V given the ranks (with the
  *   usual tie correction sum(t^3 - t)/48), continuity correction 1/2, as R's
  *   wilcox.test(correct = TRUE): E. L. Lehmann (1975), "Nonparametrics:
@@ -22,7 +28,8 @@
  *   differences, `exact` for up to EXACT_LIMIT; see those constants for the timing.
  *
  * Cost: ranking O(n) (radix sort, ranks.ts); exact distribution O(n * c) time and
- * O(c) memory, c <= n(n+1)/2 the tail cut-off (O(n^3) at worst); normal O(1) after ranking.
+ * O(c) memory, c <= n(n+1)/2 the tail cut-off (O(n^3) at worst, about n^3/24 additions
+ * with both savings against n^3/6 for the plain recursion); normal O(1) after ranking.
  */
 import { normalLowerTail, normalUpperTail } from "./normal";
 import { sortFloat64 } from "./ranks";
@@ -89,8 +96,11 @@ function timesPowerOfTwo(x: number, e: number): number {
 /** Scores beyond this could not be summed in a 32-bit integer index. */
 const MAX_SCORE = 2 ** 30;
 
-/** Items between rescalings of the count table: counts grow by at most 2 per item, 2^500 is far from overflow. */
-const RESCALE_EVERY = 500;
+/**
+ * Items between rescalings of a count table: counts grow by at most 2 per item, so a table's total stays
+ * below 2^420 and the product of two tables' totals (signedRankLowerTail) below 2^840, far from overflow.
+ */
+const RESCALE_EVERY = 400;
 
 /**
  * P(W <= w) for w = 0..cap, where W is the sum of a random subset of the positive integer
@@ -133,6 +143,92 @@ export function signedRankNullCdf(scores: ArrayLike<number>, cap: number): Float
     cdf[w] = timesPowerOfTwo(running, exponent - sorted.length);
   }
   return cdf;
+}
+
+/**
+ * The lower half of the distribution of a random subset sum of `scores` (ascending positive integers):
+ * counts[w] for w = 0..limit, limit = min(cap, floor(total / 2)), scaled by 2^-exponent; a count above
+ * the limit is the count at total - w (the distribution is symmetric about total / 2).
+ */
+interface LowerHalf {
+  readonly counts: Float64Array;
+  readonly limit: number;
+  readonly total: number;
+  readonly exponent: number;
+}
+
+/**
+ * The subset-sum recursion, keeping at every step only the lower half of the symmetric distribution so far:
+ * the values above the old half that the step needs are read in mirror first.
+ */
+function lowerHalf(scores: Int32Array, cap: number): LowerHalf {
+  let total = 0;
+  for (let k = 0; k < scores.length; k++) total += scores[k];
+  const finalLimit = Math.min(cap, Math.floor(total / 2));
+  const counts = new Float64Array(finalLimit + 1);
+  counts[0] = 1;
+  let reach = 0; // total of the scores so far
+  let limit = 0; // counts[0..limit] hold the distribution of the scores so far
+  let exponent = 0;
+  for (let k = 0; k < scores.length; k++) {
+    const s = scores[k];
+    const nextLimit = Math.min(finalLimit, Math.floor((reach + s) / 2));
+    // Counts of the scores so far above their half: by symmetry, or zero beyond their total.
+    for (let w = limit + 1; w <= nextLimit; w++) counts[w] = w <= reach ? counts[reach - w] : 0;
+    // Integer-typed loop variables and an Int32Array of scores keep this loop on small-integer arithmetic.
+    for (let w = nextLimit; w >= s; w--) counts[w] += counts[w - s];
+    reach += s;
+    limit = nextLimit;
+    if ((k + 1) % RESCALE_EVERY === 0) {
+      let largest = 0;
+      for (let w = 0; w <= limit; w++) if (counts[w] > largest) largest = counts[w];
+      const shift = Math.floor(Math.log2(largest));
+      const factor = 2 ** -shift;
+      for (let w = 0; w <= limit; w++) counts[w] *= factor;
+      exponent += shift;
+    }
+  }
+  return { counts, limit, total, exponent };
+}
+
+/** The count of sum w in a LowerHalf (zero outside 0..total). */
+function countAt(half: LowerHalf, w: number): number {
+  if (w < 0 || w > half.total) return 0;
+  return w <= half.limit ? half.counts[w] : half.counts[half.total - w];
+}
+
+/**
+ * P(W <= q), W the sum of a random subset of the positive integer `scores` (each in with probability 1/2):
+ * the scores, in ascending order, are dealt alternately into two sets A and B of near-equal totals, and
+ * P(W <= q) = sum over x of P(A = x) P(B <= q - x).
+ *
+ * @example
+ * signedRankLowerTail([1, 2, 3], 3); // 0.625 (sums 0, 1, 2, 3, 3 of the eight)
+ */
+export function signedRankLowerTail(scores: ArrayLike<number>, q: number): number {
+  if (!Number.isInteger(q)) throw new RangeError(`signedRankLowerTail: q must be an integer, got ${q}`);
+  const sorted = Int32Array.from(scores, (s) => {
+    if (!Number.isInteger(s) || s <= 0 || s > MAX_SCORE) throw new RangeError(`signedRankLowerTail: scores must be positive integers, got ${s}`);
+    return s;
+  }).sort();
+  if (q < 0) return 0;
+  const first = new Int32Array((sorted.length + 1) >> 1);
+  const second = new Int32Array(sorted.length >> 1);
+  for (let k = 0; k < sorted.length; k++) {
+    if (k % 2 === 0) first[k >> 1] = sorted[k];
+    else second[k >> 1] = sorted[k];
+  }
+  const a = lowerHalf(first, q);
+  const b = lowerHalf(second, q);
+  // P(B <= y) for y = 0..min(q, total of B), in B's scale.
+  const top = Math.min(q, b.total);
+  const cumulative = new Float64Array(top + 1);
+  let running = 0;
+  for (let y = 0; y <= top; y++) cumulative[y] = running += countAt(b, y);
+  let sum = 0;
+  const last = Math.min(q, a.total);
+  for (let x = 0; x <= last; x++) sum += countAt(a, x) * cumulative[Math.min(q - x, top)];
+  return timesPowerOfTwo(sum, a.exponent + b.exponent - sorted.length);
 }
 
 /** The ranked data a signed-rank test needs: V, the null moments, and the score groups for the exact distribution. */
@@ -255,9 +351,8 @@ function exactPValue(ranked: RankedDifferences, alternative: Alternative): numbe
   const lowerTail = (c: number): number => {
     if (c < 0) return 0;
     if (c >= total) return 1;
-    if (c <= total - c - 1) return signedRankNullCdf(scores, c)[c];
-    const other = total - c - 1;
-    return 1 - signedRankNullCdf(scores, other)[other];
+    if (c <= total - c - 1) return signedRankLowerTail(scores, c);
+    return 1 - signedRankLowerTail(scores, total - c - 1);
   };
   if (alternative === "less") return lowerTail(observed);
   if (alternative === "greater") return lowerTail(total - observed);

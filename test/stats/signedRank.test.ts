@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import { EXACT_AUTO_LIMIT, EXACT_LIMIT, signedRankNullCdf, signedRankTest, type SignedRankResult } from "../../src/stats/signedRank";
+import { EXACT_AUTO_LIMIT, EXACT_LIMIT, signedRankLowerTail, signedRankNullCdf, signedRankTest, type SignedRankResult } from "../../src/stats/signedRank";
 import type { Alternative, ZeroRule } from "../../src/stats/types";
 import fixture from "../fixtures/signedRank.json";
 
@@ -136,6 +136,49 @@ describe("signedRankNullCdf against R 4.2 psignrank (fixture)", () => {
   });
 });
 
+describe("signedRankLowerTail (two half-sets, lower halves only)", () => {
+  /** Exact P(W <= q) by enumerating every subset with BigInt counts. */
+  const enumerated = (scores: number[], q: number) => {
+    let ways = 0n;
+    for (let mask = 0; mask < 2 ** scores.length; mask++) {
+      let sum = 0;
+      scores.forEach((s, i) => (sum += mask & (1 << i) ? s : 0));
+      if (sum <= q) ways++;
+    }
+    return Number(ways) / 2 ** scores.length;
+  };
+
+  it("equals brute-force enumeration on random score multisets (exact arithmetic, property)", () => {
+    fc.assert(
+      fc.property(fc.array(fc.integer({ min: 1, max: 12 }), { minLength: 0, maxLength: 14 }), fc.integer({ min: -2, max: 90 }), (scores, q) => {
+        expect(signedRankLowerTail(scores, q)).toBe(enumerated(scores, q));
+      }),
+      { numRuns: 300 },
+    );
+  });
+
+  it("agrees with the plain recursion (R-checked signedRankNullCdf) on long tied and untied score sets", () => {
+    for (const scores of [
+      Array.from({ length: 1000 }, (_, i) => i + 1),
+      Array.from({ length: 999 }, (_, i) => 2 * (i >> 1) + 3), // tie pairs: every score odd
+      Array.from({ length: 700 }, (_, i) => 1 + ((i * 37) % 301)),
+    ]) {
+      const total = scores.reduce((x, y) => x + y, 0);
+      const qs = [0, 1, 5, Math.floor(total / 8), Math.floor(total / 2) - 1, Math.floor(total / 2)];
+      const cdf = signedRankNullCdf(scores, Math.max(...qs));
+      for (const q of qs) expect(relative(signedRankLowerTail(scores, q), cdf[q])).toBeLessThan(1e-13);
+    }
+  });
+
+  it("keeps full accuracy deep in the tail past the rescaling (exact arithmetic)", () => {
+    const scores = Array.from({ length: 1000 }, (_, i) => i + 1);
+    expect(signedRankLowerTail(scores, 0)).toBe(2 ** -1000);
+    expect(relative(signedRankLowerTail(scores, 3), 5 * 2 ** -1000)).toBeLessThan(1e-15); // sums 0, 1, 2, 3, 1+2
+    expect(() => signedRankLowerTail([1, 0], 2)).toThrow(RangeError);
+    expect(() => signedRankLowerTail([1], 0.5)).toThrow(RangeError);
+  });
+});
+
 describe("signedRankTest against brute-force enumeration (exact arithmetic), n <= 12", () => {
   const smallData = fc.array(fc.integer({ min: -4, max: 4 }).map((v) => v / 2), { minLength: 1, maxLength: 12 });
   it("exact p-values, statistic, null mean and variance with ties and zeros, both zero rules", () => {
@@ -212,7 +255,7 @@ describe("signedRankTest by hand and properties", () => {
       const e = run(d, { alternative: "less", method: "exact" });
       const z = run(d, { alternative: "less", method: "normal" });
       expect(e.statistic).toBe(q);
-      expect(e.pValue).toBe(cdf[q]);
+      expect(relative(e.pValue, cdf[q])).toBeLessThan(1e-13); // two summation orders of the same exact counts
       expect(relative(z.pValue, e.pValue)).toBeLessThan(0.01);
     }
   });
