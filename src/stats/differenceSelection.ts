@@ -102,24 +102,30 @@ function sampleCandidates(a: Distinct, b: Distinct, c: Candidates, size: number,
 }
 
 /**
- * For every row, the first column whose difference is >= value (strict = false) or > value (strict = true),
- * written to `ends`; returns how many pairs lie before those columns. The boundary only moves right as the
- * row's first value grows, so one merge-like walk visits every row. `padded` is the distinct second values
- * with +Infinity appended, which stops every row at the last column without a bounds test.
+ * For every row, the first column whose difference is >= value (written to `lessEnds`) and the first whose
+ * difference is > value (`atMostEnds`); returns how many pairs lie before each. Both boundaries only move
+ * right as the row's first value grows, so one merge-like walk visits every row; the second boundary
+ * starts from the first and, without ties, stays there after one comparison. `padded` is the distinct
+ * second values with +Infinity appended, which stops every row at the last column without a bounds test.
  */
-function countBelow(a: Distinct, padded: Float64Array, before: Float64Array, value: number, strict: boolean, ends: Int32Array): number {
+function countAround(a: Distinct, padded: Float64Array, before: Float64Array, value: number, lessEnds: Int32Array, atMostEnds: Int32Array): { less: number; atMost: number } {
   const first = a.values;
   const p = first.length;
   let j = 0;
-  let total = 0;
+  let k = 0;
+  let less = 0;
+  let atMost = 0;
   for (let i = 0; i < p; i++) {
     const x = first[i];
-    if (strict) while (padded[j] - x <= value) j++;
-    else while (padded[j] - x < value) j++;
-    ends[i] = j;
-    total += a.counts[i] * before[j];
+    while (padded[j] - x < value) j++;
+    if (k < j) k = j;
+    while (padded[k] - x <= value) k++;
+    lessEnds[i] = j;
+    atMostEnds[i] = k;
+    less += a.counts[i] * before[j];
+    atMost += a.counts[i] * before[k];
   }
-  return total;
+  return { less, atMost };
 }
 
 /** Keeps, in each row, only the columns in [from[i], to[i]) (either bound optional), and recounts. */
@@ -208,7 +214,8 @@ export function differenceOrderStatistic(matrix: DifferenceMatrix, k: number): n
   const c: Candidates = { left: new Int32Array(p), right: new Int32Array(p).fill(q - 1), count: matrix.pairs, cells: p * q, below: 0 };
   const lowEnds = new Int32Array(p);
   const highEnds = new Int32Array(p);
-  const atMostEnds = new Int32Array(p);
+  const lowAtMostEnds = new Int32Array(p);
+  const highAtMostEnds = new Int32Array(p);
   const random = xorshift(0x9e3779b9 ^ p ^ (q << 7) ^ k);
   const gatherAt = Math.max(GATHER_MIN, (p + q) >> 2);
   const size = sampleSize(p + q);
@@ -220,17 +227,16 @@ export function differenceOrderStatistic(matrix: DifferenceMatrix, k: number): n
     const high = sample[Math.min(size - 1, Math.ceil(target + bracket))];
     // Each bracket end is a candidate and is either returned or left out, so every round makes progress
     // even when ties make many differences equal to an end.
-    if (k <= countBelow(a, padded, b.before, low, false, lowEnds)) {
+    const atLow = countAround(a, padded, b.before, low, lowEnds, lowAtMostEnds);
+    if (k <= atLow.less) {
       narrow(a, b, c, null, lowEnds);
       continue;
     }
-    if (k <= countBelow(a, padded, b.before, low, true, atMostEnds)) return low;
-    if (k <= countBelow(a, padded, b.before, high, false, highEnds)) {
-      narrow(a, b, c, atMostEnds, highEnds);
-      continue;
-    }
-    if (k <= countBelow(a, padded, b.before, high, true, atMostEnds)) return high;
-    narrow(a, b, c, atMostEnds, null);
+    if (k <= atLow.atMost) return low;
+    const atHigh = countAround(a, padded, b.before, high, highEnds, highAtMostEnds);
+    if (k <= atHigh.less) narrow(a, b, c, lowAtMostEnds, highEnds);
+    else if (k <= atHigh.atMost) return high;
+    else narrow(a, b, c, highAtMostEnds, null);
   }
   return selectGathered(a, b, c, k);
 }
@@ -238,8 +244,9 @@ export function differenceOrderStatistic(matrix: DifferenceMatrix, k: number): n
 /** The (k+1)-th smallest difference given the k-th, `value`: one staircase walk instead of a second selection. */
 export function nextDifference(matrix: DifferenceMatrix, value: number, k: number): number {
   const { a, b } = matrix;
+  const lessEnds = new Int32Array(a.values.length);
   const ends = new Int32Array(a.values.length);
-  if (countBelow(a, matrix.padded, b.before, value, true, ends) >= k + 1) return value;
+  if (countAround(a, matrix.padded, b.before, value, lessEnds, ends).atMost >= k + 1) return value;
   let next = Infinity;
   for (let i = 0; i < a.values.length; i++) if (ends[i] < b.values.length && b.values[ends[i]] - a.values[i] < next) next = b.values[ends[i]] - a.values[i];
   return next;
