@@ -20,7 +20,12 @@ import { defineConfig } from "vitest/config";
 const WORKER_REPORTS = "test-output/worker-reports";
 mkdirSync(WORKER_REPORTS, { recursive: true });
 
-const DIST_TESTS = ["test/functions/accuracy.test.ts", "test/functions/bundle.test.ts", "test/functions/manifest.test.ts"];
+const DIST_TESTS = [
+  "test/functions/accuracy.test.ts",
+  "test/functions/bundle.test.ts",
+  "test/functions/helpPagesDist.test.ts",
+  "test/functions/manifest.test.ts",
+];
 
 export default defineConfig({
   test: {

@@ -9,11 +9,14 @@
  *                  template), then functions.js, then taskpane.js, which reuses the
  *                  modules functions.js already holds;
  * - demo.html      the in-page demo without Office.js (demo.js);
- * - manifest.xml, assets/ and the pages' style sheets copied as they are.
+ * - manifest.xml, assets/ and the pages' style sheets copied as they are;
+ * - help/          one help page per function, linked from functions.json's helpUrl
+ *                  (scripts/helpPages.ts, from the same JSDoc as the metadata).
  *
  * TypeScript is only transpiled here (ts-loader, transpileOnly); `npm run typecheck`
  * does the type checking once for the whole project.
  */
+const fs = require("node:fs");
 const path = require("node:path");
 const webpack = require("webpack");
 const HtmlWebpackPlugin = require("html-webpack-plugin");
@@ -21,6 +24,29 @@ const CopyWebpackPlugin = require("copy-webpack-plugin");
 const CustomFunctionsMetadataPlugin = require("custom-functions-metadata-plugin");
 
 const functionsSource = "./src/functions/functions.ts";
+
+/**
+ * Writes the help pages and each function's helpUrl once the metadata plugin has made
+ * functions.json. scripts/helpPages.ts is TypeScript: tsx loads it here as the scripts run.
+ */
+class HelpPagesPlugin {
+  apply(compiler) {
+    compiler.hooks.thisCompilation.tap("HelpPagesPlugin", (compilation) => {
+      const stage = webpack.Compilation.PROCESS_ASSETS_STAGE_ADDITIONAL;
+      compilation.hooks.processAssets.tap({ name: "HelpPagesPlugin", stage }, () => {
+        const metadata = compilation.getAsset("functions.json");
+        if (!metadata) return; // the metadata plugin has reported why
+        const paneCss = path.resolve(__dirname, "src/taskpane/taskpane.css");
+        compilation.fileDependencies.add(paneCss);
+        const { helpFiles } = require("tsx/cjs/api").require("./scripts/helpPages.ts", __filename);
+        const source = fs.readFileSync(path.resolve(__dirname, functionsSource), "utf8");
+        const help = helpFiles(metadata.source.source().toString(), source, fs.readFileSync(paneCss, "utf8"));
+        compilation.updateAsset("functions.json", new webpack.sources.RawSource(help.metadataJson));
+        for (const [name, text] of help.files) compilation.emitAsset(name, new webpack.sources.RawSource(text));
+      });
+    });
+  }
+}
 
 module.exports = (_env, argv) => {
   const mode = argv.mode ?? "production";
@@ -50,6 +76,7 @@ module.exports = (_env, argv) => {
     performance: { hints: false },
     plugins: [
       new CustomFunctionsMetadataPlugin({ output: "functions.json", input: functionsSource }),
+      new HelpPagesPlugin(),
       // The metadata plugin appends `CustomFunctions.associate(id, fn)` to functions.ts; this
       // binds that name to our registrar, which forwards to Excel's runtime when it is there,
       // so the same module also runs on the demo page, which has no Office.js.

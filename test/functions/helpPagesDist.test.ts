@@ -1,0 +1,38 @@
+/**
+ * The built add-in serves a help page at every function's helpUrl: dist/functions.json
+ * (or EVENSPLIT_DIST's) read as the build left it, each address fetched from the
+ * development server's handler (scripts/staticFiles.ts) over dist/. helpUrl as in
+ * Microsoft, "Manually create JSON metadata for custom functions".
+ */
+import { createServer, type Server } from "node:http";
+import type { AddressInfo } from "node:net";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { staticHandler } from "../../scripts/staticFiles";
+import { DIST, distText } from "./dist";
+
+let server: Server;
+let origin = "";
+
+beforeAll(async () => {
+  server = createServer(staticHandler(DIST, "demo.html"));
+  await new Promise<void>((done) => server.listen(0, "127.0.0.1", done));
+  origin = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+});
+
+afterAll(async () => {
+  await new Promise((done) => server.close(done));
+});
+
+describe("dist/functions.json's help links", () => {
+  it("name, for every function, a page the development server serves with that function's help", async () => {
+    const { functions } = JSON.parse(distText("functions.json")) as { functions: { id: string; name: string; helpUrl?: string }[] };
+    expect(functions.length).toBeGreaterThanOrEqual(20);
+    for (const fn of functions) {
+      expect(fn.helpUrl, fn.id).toBe(`https://localhost:3000/help/${fn.id.toLowerCase()}.html`);
+      const response = await fetch(`${origin}/${fn.helpUrl!.slice("https://localhost:3000/".length)}`);
+      expect(response.status, fn.helpUrl).toBe(200);
+      expect(response.headers.get("content-type")).toBe("text/html; charset=utf-8");
+      expect(await response.text()).toContain(`EVENSPLIT.${fn.name}`);
+    }
+  });
+});
