@@ -1,7 +1,8 @@
 /**
  * `npm run build:deploy -- https://addins.example.org/evensplit/`: the
  * production build (webpack, production mode) into dist/, with dist/manifest.xml
- * pointing at the given https folder instead of the development server, so
+ * and the help links of dist/functions.json pointing at the given https folder
+ * instead of the development server, so
  * the folder's contents can be uploaded as they are and the manifest handed
  * to Excel (or to an administrator's central deployment).
  */
@@ -9,7 +10,7 @@ import { readFileSync, writeFileSync } from "node:fs";
 import { createRequire } from "node:module";
 import { dirname, join, resolve } from "node:path";
 import { fileURLToPath } from "node:url";
-import { deploymentBase, manifestForDeployment } from "./deployManifest";
+import { deploymentBase, manifestForDeployment, metadataForDeployment } from "./deployManifest";
 
 const project = resolve(dirname(fileURLToPath(import.meta.url)), "..");
 const require = createRequire(import.meta.url);
@@ -35,6 +36,9 @@ async function main(): Promise<void> {
   const out = await build();
   const manifest = join(out, "manifest.xml");
   writeFileSync(manifest, manifestForDeployment(readFileSync(manifest, "utf8"), checked.base));
+  // The function picker's help links (helpUrl) move with the pages they name.
+  const metadata = join(out, "functions.json");
+  writeFileSync(metadata, metadataForDeployment(readFileSync(metadata, "utf8"), checked.base));
   console.log(`Built ${out} for ${checked.base}: upload its contents there and give Excel ${manifest}.`);
 }
 

@@ -51,3 +51,23 @@ export function manifestForDeployment(manifest: string, base: string): string {
   if (left) throw new Error(`manifest.xml still names localhost after moving its addresses (near "${moved.slice(Math.max(0, left.index - 40), left.index + 30)}").`);
   return moved;
 }
+
+/**
+ * functions.json with every help page address (helpUrl) moved from the
+ * development origin to `base`, as the manifest's addresses are; other
+ * fields are kept. Throws when a helpUrl names neither (an address written
+ * another way would be left pointing at nothing).
+ *
+ * @example
+ * metadataForDeployment('{"functions":[{"id":"PVALUE","helpUrl":"https://localhost:3000/help/pvalue.html"}]}', "https://example.org/es/");
+ * // '{"functions":[{"id":"PVALUE","helpUrl":"https://example.org/es/help/pvalue.html"}]}' (indented)
+ */
+export function metadataForDeployment(metadataJson: string, base: string): string {
+  const metadata = JSON.parse(metadataJson) as { functions: { id: string; helpUrl?: string }[] };
+  const functions = metadata.functions.map((fn) => {
+    if (fn.helpUrl === undefined) return fn;
+    if (!fn.helpUrl.startsWith(DEVELOPMENT_ORIGIN)) throw new Error(`The helpUrl of ${fn.id} (${fn.helpUrl}) is not on ${DEVELOPMENT_ORIGIN}; it cannot be moved.`);
+    return { ...fn, helpUrl: base + fn.helpUrl.slice(DEVELOPMENT_ORIGIN.length) };
+  });
+  return JSON.stringify({ ...metadata, functions }, null, 4);
+}

@@ -6,7 +6,7 @@
  */
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
-import { DEVELOPMENT_ORIGIN, deploymentBase, manifestForDeployment } from "../../scripts/deployManifest";
+import { DEVELOPMENT_ORIGIN, deploymentBase, manifestForDeployment, metadataForDeployment } from "../../scripts/deployManifest";
 import { descendants, parseXml } from "../functions/xml";
 
 const manifest = readFileSync(new URL("../../manifest.xml", import.meta.url), "utf8");
@@ -39,5 +39,25 @@ describe("the manifest for a deployment", () => {
 
   it("refuses a manifest that would still name localhost", () => {
     expect(() => manifestForDeployment('<a b="https://localhost:3001/x.html"/>', "https://example.org/")).toThrow(/localhost/);
+  });
+
+  it("moves every function's help page address with the files, and keeps the rest of functions.json", () => {
+    const metadata = {
+      allowCustomDataForDataTypeAny: true,
+      functions: [
+        { id: "PVALUE", name: "PVALUE", helpUrl: `${DEVELOPMENT_ORIGIN}help/pvalue.html`, parameters: [{ name: "data" }] },
+        { id: "COUNTS", name: "COUNTS", helpUrl: `${DEVELOPMENT_ORIGIN}help/counts.html`, parameters: [] },
+      ],
+    };
+    const moved = JSON.parse(metadataForDeployment(JSON.stringify(metadata), "https://addins.example.org/evensplit/"));
+    expect(moved).toEqual({
+      ...metadata,
+      functions: [
+        { ...metadata.functions[0], helpUrl: "https://addins.example.org/evensplit/help/pvalue.html" },
+        { ...metadata.functions[1], helpUrl: "https://addins.example.org/evensplit/help/counts.html" },
+      ],
+    });
+    const elsewhere = { functions: [{ id: "X", helpUrl: "https://localhost:3001/help/x.html" }] };
+    expect(() => metadataForDeployment(JSON.stringify(elsewhere), "https://example.org/")).toThrow(/cannot be moved/);
   });
 });
