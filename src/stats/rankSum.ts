@@ -35,18 +35,23 @@ import { unavailable } from "./types";
 
 /**
  * `auto` is exact without ties while m + n is at most this. Measured with `npx tsx bench/run.ts groups`
- * (2-core machine shared with other work): the slowest case, 200 and 200 at p near 1, takes about
- * 5 ms; the cumulative counts there are accurate to about 1e-11 against BigInt arithmetic.
+ * (2-core machine shared with other work, load average above 10): the slowest case, 200 and 200 at p near 1,
+ * took 11-14 ms, 9-13x a bare loop over 200,000 cells; the cumulative counts there are accurate to about
+ * 1e-11 against BigInt arithmetic (rankSumNull.ts).
  */
 export const EXACT_AUTO_SIZE = 400;
 
 /**
  * `auto` is exact with ties while m + n is at most this: the conditional distribution costs
- * O(N min(m, n) m n): about 90 ms at 60 and 60 in the same bench (tie pairs, p near 1), so 40 and 40 take about a fifth of that.
+ * O(N min(m, n) m n); in the same bench 60 and 60 (tie pairs, p near 1) took about 90 ms, 40 and 40 about 8 ms.
  */
 export const EXACT_AUTO_TIED_SIZE = 80;
 
-/** `exact` is honoured up to these sizes (C(m + n, n) stays a finite double; under a second in the bench); beyond, the normal method runs and `method` says so. */
+/**
+ * `exact` is honoured up to these sizes; beyond, the normal method runs and `method` says so. Measured on
+ * the same machine: 500 and 500 without ties took 0.4-0.5 s (C(1000, 500) is still a finite double), 100 and
+ * 100 with ties 0.9 s.
+ */
 export const EXACT_SIZE = 1000;
 export const EXACT_TIED_SIZE = 200;
 
