@@ -102,32 +102,48 @@ interface MetadataParameter {
 interface MetadataFunction {
   readonly id?: string;
   readonly parameters?: readonly MetadataParameter[];
+  readonly result?: { readonly dimensionality?: string };
+}
+
+/** What a function's metadata declares: the shape of each argument and of the answer. */
+export interface FunctionShape {
+  readonly args: readonly ArgumentShape[];
+  readonly result: ArgumentShape;
 }
 
 /**
- * Argument shapes per function id from custom-functions metadata (functions.json).
+ * Argument and result shapes per function id from custom-functions metadata
+ * (functions.json; a missing dimensionality means scalar — Microsoft,
+ * "Manually create JSON metadata for custom functions").
  *
  * @example
- * shapesFrom({ functions: [{ id: "PVALUE", parameters: [{ dimensionality: "matrix" }, { }] }] }).get("PVALUE"); // ["matrix", "scalar"]
+ * shapesFrom({ functions: [{ id: "PVALUE", parameters: [{ dimensionality: "matrix" }, { }] }] }).get("PVALUE"); // { args: ["matrix", "scalar"], result: "scalar" }
  */
-export function shapesFrom(metadata: unknown): Map<string, ArgumentShape[]> {
-  const shapes = new Map<string, ArgumentShape[]>();
+export function shapesFrom(metadata: unknown): Map<string, FunctionShape> {
+  const shapes = new Map<string, FunctionShape>();
   const list = (metadata as { functions?: readonly MetadataFunction[] } | null)?.functions ?? [];
+  const shape = (dimensionality: string | undefined): ArgumentShape => (dimensionality === "matrix" ? "matrix" : "scalar");
   for (const f of list) {
     if (typeof f.id !== "string") continue;
-    shapes.set(f.id.toUpperCase(), (f.parameters ?? []).map((p) => (p.dimensionality === "matrix" ? "matrix" : "scalar")));
+    shapes.set(f.id.toUpperCase(), { args: (f.parameters ?? []).map((p) => shape(p.dimensionality)), result: shape(f.result?.dimensionality) });
   }
   return shapes;
 }
 
 /**
  * The registered functions joined with their shapes, ready for the workbook.
+ * A function the metadata does not declare is left out: Excel knows a custom
+ * function only through its metadata, so a formula calling it shows #NAME?
+ * (same page).
  *
  * @example
- * withShapes(registered, shapesFrom(metadata)).get("PVALUE"); // { fn, shapes: ["matrix", "scalar", ...] }
+ * withShapes(registered, shapesFrom(metadata)).get("PVALUE"); // { fn, shapes: ["matrix", "scalar", ...], result: "scalar" }
  */
-export function withShapes(registered: ReadonlyMap<string, AnyFunction>, shapes: ReadonlyMap<string, ArgumentShape[]>): Map<string, CustomFunction> {
+export function withShapes(registered: ReadonlyMap<string, AnyFunction>, shapes: ReadonlyMap<string, FunctionShape>): Map<string, CustomFunction> {
   const joined = new Map<string, CustomFunction>();
-  for (const [id, fn] of registered) joined.set(id, { fn, shapes: shapes.get(id) ?? [] });
+  for (const [id, fn] of registered) {
+    const shape = shapes.get(id);
+    if (shape) joined.set(id, { fn, shapes: shape.args, result: shape.result });
+  }
   return joined;
 }

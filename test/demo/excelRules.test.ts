@@ -5,6 +5,7 @@
 import { describe, expect, it } from "vitest";
 import { FakeApiError, fakeRun } from "../../src/demo/fakeExcel";
 import type { CustomFunction } from "../../src/demo/formula/evaluate";
+import { shapesFrom, withShapes } from "../../src/demo/standIn";
 import { tableHeaders, Workbook } from "../../src/demo/workbook";
 import { LAST_COLUMN } from "../../src/taskpane/a1";
 import type { HostContext } from "../../src/taskpane/host";
@@ -157,7 +158,7 @@ describe("null and empty text in what the API writes (Microsoft, \"Blank and nul
 });
 
 describe("spilling (Microsoft, \"How to correct a #SPILL! error\")", () => {
-  const pair: CustomFunction = { fn: () => [[1, 2]], shapes: [] };
+  const pair: CustomFunction = { fn: () => [[1, 2]], shapes: [], result: "matrix" };
 
   it("is #SPILL! for an array formula inside a table or one whose spill would reach into a table", () => {
     const w = new Workbook([S]);
@@ -229,5 +230,21 @@ describe("payload of one sync (Microsoft, \"Resource limits and performance opti
     });
     await expect(write).rejects.toMatchObject({ code: "RequestPayloadSizeLimitExceeded" });
     expect(w.usedRect(S)).toBeNull();
+  });
+});
+
+describe("functions Excel knows only through their metadata (Microsoft, \"Manually create JSON metadata for custom functions\")", () => {
+  it("leaves out a registered function the metadata does not declare, and reads each answer's declared shape", () => {
+    const registered = new Map([
+      ["PVALUE", () => 0.5],
+      ["HIDDEN", () => 1],
+    ]);
+    const joined = withShapes(registered, shapesFrom({ functions: [{ id: "PVALUE", parameters: [{ dimensionality: "matrix" }, {}] }] }));
+    expect([...joined.keys()]).toEqual(["PVALUE"]);
+    expect(joined.get("PVALUE")).toMatchObject({ shapes: ["matrix", "scalar"], result: "scalar" });
+    const w = new Workbook([S]);
+    w.setFunctions(joined);
+    w.writeEntries(S, 0, 0, [["=EVENSPLIT.HIDDEN()"]]);
+    expect((w.value(S, 0, 0) as { code: string }).code).toBe("#NAME?");
   });
 });

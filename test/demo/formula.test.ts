@@ -153,6 +153,7 @@ describe("evaluate: custom functions", () => {
       return [[1, "", 3]];
     },
     shapes: ["matrix", "scalar", "scalar"],
+    result: "matrix",
   };
 
   it("passes a range as a matrix with \"\" for blanks, a one-cell reference as its value, an omitted argument as null", () => {
@@ -164,13 +165,13 @@ describe("evaluate: custom functions", () => {
   });
 
   it("turns error objects a function answers with into cell errors, and a missing function into #NAME?", () => {
-    const failing: CustomFunction = { fn: () => ({ code: "#N/A", message: "No numbers in the range." }), shapes: ["matrix"] };
+    const failing: CustomFunction = { fn: () => ({ code: "#N/A", message: "No numbers in the range." }), shapes: ["matrix"], result: "scalar" };
     expect(calc("EVENSPLIT.FAIL(A1:A4)", { FAIL: failing })).toEqual(errorValue("#N/A", "No numbers in the range."));
     expect((calc("EVENSPLIT.MISSING(A1)") as { code: string }).code).toBe("#NAME?");
   });
 
   it("holds a number below 2.2251E-308 as 0 (Microsoft, \"Excel specifications and limits\"; the flush to zero from memory)", () => {
-    const tiny: CustomFunction = { fn: () => [[1e-320, 2.5e-308]], shapes: [] };
+    const tiny: CustomFunction = { fn: () => [[1e-320, 2.5e-308]], shapes: [], result: "matrix" };
     expect(calc("EVENSPLIT.TINY()", { TINY: tiny })).toEqual({ kind: "matrix", rows: [[0, 2.5e-308]] });
     expect(calc("1E-200*1E-200")).toBe(0);
   });
@@ -181,8 +182,15 @@ describe("evaluate: custom functions", () => {
     expect(seen[0]).toEqual([[[1], [2]], 0, null]);
   });
 
+  it("answers #VALUE! when the answer's shape is not the one the metadata declares", () => {
+    const listForOne: CustomFunction = { fn: () => [[1, 2]], shapes: [], result: "scalar" };
+    const oneForList: CustomFunction = { fn: () => 1, shapes: [], result: "matrix" };
+    expect((calc("EVENSPLIT.A()", { A: listForOne }) as { code: string }).code).toBe("#VALUE!");
+    expect((calc("EVENSPLIT.B()", { B: oneForList }) as { code: string }).code).toBe("#VALUE!");
+  });
+
   it("shows a null inside a returned array as 0, not as a blank (office-js issue 1503, by design)", () => {
-    const withNull: CustomFunction = { fn: () => [[1, null, ""]], shapes: [] };
+    const withNull: CustomFunction = { fn: () => [[1, null, ""]], shapes: [], result: "matrix" };
     expect(calc("EVENSPLIT.HOLES()", { HOLES: withNull })).toEqual({ kind: "matrix", rows: [[1, 0, ""]] });
   });
 

@@ -29,6 +29,7 @@ const counts: CustomFunction = {
     return [[below, values.length - below - above, above, below + above]];
   },
   shapes: ["matrix", "scalar"],
+  result: "matrix",
 };
 
 describe("entries and recalculation", () => {

@@ -24,6 +24,8 @@ export interface CustomFunction {
   readonly fn: (...args: unknown[]) => unknown;
   /** Per argument position; positions past the end are taken as single values. */
   readonly shapes: readonly ArgumentShape[];
+  /** The answer's shape as the metadata declares it. */
+  readonly result: ArgumentShape;
 }
 
 /** What the evaluator needs from the workbook. */
@@ -275,6 +277,20 @@ function customArgument(value: Value, shape: ArgumentShape, context: EvaluationC
   return one === null ? 0 : one;
 }
 
+/**
+ * The answer checked against the shape the metadata declares: a list from a
+ * function declared to answer one value, or one value from a function
+ * declared to answer a matrix, is #VALUE! (Microsoft, "Manually create JSON
+ * metadata for custom functions": result dimensionality; what Excel shows for
+ * a mismatch is from memory). An error answers for either shape.
+ */
+function declared(value: Value, shape: ArgumentShape): Value {
+  if (isError(value)) return value;
+  if (shape === "scalar" && isMatrix(value)) return errorValue("#VALUE!", "The function is declared to answer one value but answered a list.");
+  if (shape === "matrix" && !isMatrix(value)) return errorValue("#VALUE!", "The function is declared to answer a list but answered one value.");
+  return value;
+}
+
 function callCustom(id: string, args: readonly Expression[], context: EvaluationContext): Value {
   const custom = context.customFunction(id);
   if (custom === undefined) return errorValue("#NAME?", `There is no function ${NAMESPACE}${id}.`);
@@ -290,7 +306,7 @@ function callCustom(id: string, args: readonly Expression[], context: Evaluation
     passed.push(value);
   }
   try {
-    return fromCustom(custom.fn(...passed));
+    return declared(fromCustom(custom.fn(...passed)), custom.result);
   } catch (thrown) {
     return fromCustom(typeof thrown === "object" && thrown !== null && "code" in thrown ? thrown : undefined);
   }
