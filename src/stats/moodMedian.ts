@@ -10,7 +10,7 @@
  * - k groups: Pearson's chi-square statistic on the 2×k table with k − 1 degrees of
  *   freedom (chiSquare.ts); when some expected count is below 5 (W. G. Cochran (1954),
  *   "Some methods for strengthening the common χ² tests", Biometrics 10, 417-451, from
- *   memory) `auto` gives instead a seeded Monte Carlo p-value: REPLICATES random tables
+ *   memory) `auto` gives instead, up to MONTE_CARLO_MAX_VALUES values, a seeded Monte Carlo p-value: REPLICATES random tables
  *   with the same margins (each group's count drawn in turn from its hypergeometric
  *   distribution), p = (1 + the number of tables whose statistic reaches the observed
  *   one) / (REPLICATES + 1), as R's chisq.test(simulate.p.value = TRUE) counts them. The
@@ -43,6 +43,13 @@ export const REPLICATES = 10000;
 
 /** Expected counts below this send `auto` to the Monte Carlo p-value (Cochran's rule, common practice). */
 const SMALL_EXPECTED = 5;
+
+/**
+ * `auto` simulates only up to this many values in the table: a replicate costs O(N), so 10,000 of them
+ * stay near 10^7 steps. Beyond it (a small group among large ones) the chi-square p-value is given and
+ * `method` says so.
+ */
+export const MONTE_CARLO_MAX_VALUES = 1000;
 
 export interface MoodMedianResult {
   available: true;
@@ -160,7 +167,8 @@ export function moodMedianTest(
     const pValue = fisherExactPValue(above[1], notAbove[1], above[0], notAbove[0], alternative);
     return { ...common, pValue, method: "fisher", alternative };
   }
-  const method = requested === "auto" ? (smallestExpected < SMALL_EXPECTED ? "monte-carlo" : "chi-square") : requested;
+  const simulate = smallestExpected < SMALL_EXPECTED && counted <= MONTE_CARLO_MAX_VALUES;
+  const method = requested === "auto" ? (simulate ? "monte-carlo" : "chi-square") : requested;
   const pValue = method === "chi-square" ? chiSquareUpperTail(statistic, sizes.length - 1) : monteCarloPValue(sizes, topTotal, counted, statistic);
   return { ...common, pValue, method, alternative: "two-sided" };
 }

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { fisherExactPValue, hypergeometricDraw } from "../../src/stats/fisherExact";
 import { kruskalWallisTest } from "../../src/stats/kruskalWallis";
-import { moodMedianTest, REPLICATES, type MoodMedianResult } from "../../src/stats/moodMedian";
+import { MONTE_CARLO_MAX_VALUES, moodMedianTest, REPLICATES, type MoodMedianResult } from "../../src/stats/moodMedian";
 
 function available(r: ReturnType<typeof moodMedianTest>): MoodMedianResult {
   if (!r.available) throw new Error(r.message);
@@ -105,6 +105,13 @@ describe("Mood's median test", () => {
   it("k groups with large counts use the chi-square p-value, and say so", () => {
     const groups = [0, 1, 2].map((g) => Array.from({ length: 40 }, (_, i) => i + g * 3));
     expect(available(moodMedianTest(groups)).method).toBe("chi-square");
+  });
+
+  it("a small group among large ones is not simulated beyond MONTE_CARLO_MAX_VALUES values (chi-square, said so)", () => {
+    const big = (shift: number) => Array.from({ length: MONTE_CARLO_MAX_VALUES }, (_, i) => i + shift);
+    const r = available(moodMedianTest([big(0), big(5), [1, 2]]));
+    expect(r.smallestExpected).toBeLessThan(5);
+    expect(r.method).toBe("chi-square");
   });
 
   it("needs two groups with numbers", () => {
