@@ -660,10 +660,10 @@ export function sprt(data: unknown[][], hypothesized_median: unknown, p_above: u
   try {
     const center = numberArgument("hypothesized_median", hypothesized_median);
     const pAbove = fractionArgument("p_above", p_above, undefined, "0.75");
-    if (pAbove === 0.5) throw new BadArgument("p_above must differ from 0.5, the chance under the hypothesised median: give the chance to detect, such as 0.75.");
+    if (pAbove === 0.5) throw new BadArgument("Argument p_above must differ from 0.5, the chance under the hypothesised median: give the chance to detect, such as 0.75.");
     const errorI = fractionArgument("alpha", alpha, 0.05, "0.05");
     const errorII = fractionArgument("beta", beta, 0.2, "0.2");
-    if (errorI + errorII >= 1) throw new BadArgument(`alpha + beta must be below 1, such as 0.05 and 0.2; got ${errorI} + ${errorII}.`);
+    if (errorI + errorII >= 1) throw new BadArgument(`Arguments alpha and beta must add up to less than 1, such as 0.05 and 0.2; got ${errorI} + ${errorII}.`);
     const r = withArrivingNumbers(data, (values) => sequentialRatioTest(values, center, { pAbove, alpha: errorI, beta: errorII }));
     return [[r.decision, r.rowsUsed, r.logLikelihoodRatio, r.limits.acceptAt, r.limits.rejectAt]];
   } catch (thrown) {

@@ -85,6 +85,6 @@ describe("SPRT", () => {
     for (const cell of sprt(col(51), 50, 0.5)[0]) expectError(cell, "#VALUE!", /p_above must differ from 0.5/);
     for (const cell of sprt(col(51), 50, 75)[0]) expectError(cell, "#VALUE!", /For 75% write 0.75/);
     for (const cell of sprt(col(51), 50, null)[0]) expectError(cell, "#VALUE!", /p_above is missing/);
-    for (const cell of sprt(col(51), 50, 0.75, 0.5, 0.6)[0]) expectError(cell, "#VALUE!", /alpha \+ beta must be below 1/);
+    for (const cell of sprt(col(51), 50, 0.75, 0.5, 0.6)[0]) expectError(cell, "#VALUE!", /alpha and beta must add up to less than 1/);
   });
 });
