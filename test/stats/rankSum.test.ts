@@ -71,7 +71,7 @@ describe("exact null distributions against brute-force enumeration", () => {
     const m = 100;
     const n = 100;
     const cap = (m * n) / 2;
-    let c: bigint[] = new Array(cap + 1).fill(0n);
+    const c: bigint[] = new Array(cap + 1).fill(0n);
     c[0] = 1n;
     for (let i = 1; i <= m; i++) {
       for (let u = cap; u >= n + i; u--) c[u] -= c[u - n - i];
