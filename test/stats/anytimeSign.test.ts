@@ -232,3 +232,26 @@ describe("anytime sign test: Monte Carlo under H0 (seeded xorshift32), looking a
     expect(watchedRate).toBeLessThanOrEqual(alpha + 3 * se);
   });
 });
+
+describe("anytime sign test: the one-sided version under the composite hypothesis P(above) <= 1/2 (seeded Monte Carlo)", () => {
+  it("rejects 'greater' in at most alpha of runs when values lie above with chance 0.45, and often when 0.6", () => {
+    const alpha = 0.05;
+    const runs = 1000;
+    const values = new Float64Array(500);
+    const rate = (pAbove: number, seed: number) => {
+      const next = xorshift32(seed);
+      let rejected = 0;
+      for (let k = 0; k < runs; k++) {
+        for (let i = 0; i < values.length; i++) values[i] = next() < pAbove ? 51 : 49;
+        const r = anytimeSignTest(values, 50, { alternative: "greater" });
+        if (r.available && r.pValue <= alpha) rejected++;
+      }
+      return rejected / runs;
+    };
+    const underNull = rate(0.45, 45);
+    const underAlternative = rate(0.6, 60);
+    console.log(`one-sided watched p-value, ${runs} runs of 500 rows: rejects in ${(100 * underNull).toFixed(1)}% at P(above) = 0.45, ${(100 * underAlternative).toFixed(1)}% at 0.6`);
+    expect(underNull).toBeLessThanOrEqual(alpha);
+    expect(underAlternative).toBeGreaterThan(0.5);
+  });
+});
