@@ -14,10 +14,17 @@
  * builds pass blank cells to add-ins as 0), and the signed-rank method row
  * states the method that ran, which under "auto" depends on the data's size.
  *
+ * The last row is an audit line, so that a block pasted into a report can be
+ * traced: the Evensplit version, the method and its options, the exact ranges
+ * the formulas read and when the block was written (a fixed text set at
+ * writing, not a volatile NOW(), which would change at every recalculation);
+ * REPORT shows the same row with the time it was evaluated instead.
+ *
  * Cost: O(rows) to build; evaluation costs the catalogue calls it makes.
  */
 import { EXACT_AUTO_LIMIT } from "../stats/signedRank";
 import type { Alternative, SignTestMethod, SignedRankMethod, TieRule, ZeroRule } from "../stats/types";
+import { EVENSPLIT_VERSION } from "./version";
 
 export type BlockTest = "sign" | "signed-rank" | "quantile";
 
@@ -69,7 +76,20 @@ export type BlockValue =
   | BlankCheckValue
   | { readonly kind: "decision"; readonly pValue: CallValue; readonly alpha: number; readonly reject: string; readonly keep: string }
   /** One text when a catalogue value is at most a limit, another above it (e.g. which method a size led to). */
-  | { readonly kind: "atMost"; readonly value: CallValue; readonly limit: number; readonly then: string; readonly otherwise: string };
+  | { readonly kind: "atMost"; readonly value: CallValue; readonly limit: number; readonly then: string; readonly otherwise: string }
+  | AuditValue;
+
+/**
+ * The audit line: version and method are known when the rows are made; the ranges and the time are filled in
+ * by the rendering (`blockFormula`: the references and the time of writing; `blockValue`: the ranges as REPORT
+ * received them and the time of evaluation).
+ */
+export interface AuditValue {
+  readonly kind: "audit";
+  readonly version: string;
+  /** The method with its options, in words. */
+  readonly method: string;
+}
 
 /**
  * The blank-cell check: the sheet's own COUNT of the ranges against the
@@ -433,7 +453,39 @@ export function resultBlockRows(request: BlockRequest): BlockRow[] {
     ),
     ...parts.bounds,
     ...cautionRows(request),
+    row("audit", "Audit", { kind: "audit", version: EVENSPLIT_VERSION, method: auditMethod(request) }, "text"),
   ];
+}
+
+/** The method and every option that changes the numbers, for the audit line. */
+function auditMethod(request: BlockRequest): string {
+  const common = `${request.alternative}, alpha ${numberWords(request.alpha)}, confidence ${numberWords(request.confidence)}`;
+  const kind = request.paired ? "paired" : "one sample";
+  if (request.test === "sign") {
+    const method = (request.method as SignTestMethod | undefined) ?? "exact";
+    return `sign test, ${kind} (${SIGN_METHOD_WORDS[method]}; ${TIE_WORDS[request.ties ?? "drop"]}; ${common}; hypothesised ${numberWords(request.center)})`;
+  }
+  if (request.test === "signed-rank") {
+    const method = (request.method as SignedRankMethod | undefined) ?? "auto";
+    const zeros = request.zeros ?? "drop";
+    return `Wilcoxon signed-rank test, ${kind} (method ${method}; zeros ${zeros}; ${common}; hypothesised ${numberWords(request.center)})`;
+  }
+  return `quantile test (quantile ${numberWords(request.quantile ?? 0.5)}; exact binomial; ${common}; hypothesised ${numberWords(request.center)})`;
+}
+
+/**
+ * A moment as the audit line states it: UTC to the second, so a block written anywhere reads the same.
+ *
+ * @example
+ * auditTime(new Date(Date.UTC(2026, 11, 2, 6, 30, 5))); // "2026-12-02 06:30:05 UTC"
+ */
+export function auditTime(moment: Date): string {
+  return `${moment.toISOString().slice(0, 19).replace("T", " ")} UTC`;
+}
+
+/** The audit line's words for a version, a method, the ranges read and a time ("written" or "evaluated"). */
+function auditWords(value: AuditValue, ranges: string, when: string): string {
+  return `Evensplit ${value.version}; ${value.method}; reads ${ranges}; ${when}`;
 }
 
 /** A number as a formula literal: shortest round-trip digits, Excel's exponent letter. */
@@ -455,6 +507,13 @@ function formulaOperand(operand: Operand, refs: { data: string; second?: string 
   return "number" in operand ? formulaNumber(operand.number) : formulaString(operand.text);
 }
 
+/** The references the formulas use, and for the audit line the moment of writing (now when not given). */
+export interface FormulaRefs {
+  readonly data: string;
+  readonly second?: string;
+  readonly writtenAt?: Date;
+}
+
 function formulaCall(value: CallValue, refs: { data: string; second?: string }): string {
   const inner = `EVENSPLIT.${value.fn}(${value.args.map((a) => formulaOperand(a, refs)).join(",")})`;
   return value.column === undefined ? inner : `INDEX(${inner},1,${value.column})`;
@@ -471,7 +530,7 @@ const FORMULA_LEAD = /^[=+\-@']/;
  * blockFormula({ kind: "call", fn: "COUNTS", args: [{ ref: "data" }, { number: 50 }], column: 3 }, { data: "Panels[Thickness]" });
  * // "=INDEX(EVENSPLIT.COUNTS(Panels[Thickness],50),1,3)"
  */
-export function blockFormula(value: BlockValue, refs: { data: string; second?: string }): string {
+export function blockFormula(value: BlockValue, refs: FormulaRefs): string {
   switch (value.kind) {
     case "text":
       return FORMULA_LEAD.test(value.text) ? `'${value.text}` : value.text;
@@ -492,6 +551,11 @@ export function blockFormula(value: BlockValue, refs: { data: string; second?: s
       const read = value.read.map((term) => formulaCall(term, refs)).join("+");
       return `=IF(${sheetCount}=${read},${formulaString(value.agree)},${formulaString(value.differ)})`;
     }
+    case "audit": {
+      // Plain text, fixed at writing: the time must not move with recalculation.
+      const ranges = refs.second === undefined ? refs.data : `${refs.data} and ${refs.second}`;
+      return blockFormula({ kind: "text", text: auditWords(value, ranges, `written ${auditTime(refs.writtenAt ?? new Date())}`) }, refs);
+    }
   }
 }
 
@@ -505,6 +569,8 @@ export interface BlockInputs {
    * (the pane reads `Range.values`, where a blank is always empty).
    */
   readonly passedAsArgument?: boolean;
+  /** The moment the audit line states as the evaluation time; now when not given. */
+  readonly evaluatedAt?: Date;
 }
 
 /** Runs a catalogue function by id on cell matrices, numbers and words; returns a scalar or a one-row matrix. */
@@ -558,6 +624,18 @@ function blankCheck(value: BlankCheckValue, inputs: BlockInputs, run: CatalogueC
   return inputs.passedAsArgument === true && zeros > 0 ? blankCheckUncheckedWords(zeros, read) : value.agree;
 }
 
+/** A range as REPORT receives it: its values, not its address, so the audit line gives its outline. */
+function rangeWords(cells: readonly (readonly unknown[])[]): string {
+  const rows = cells.length;
+  const columns = rows === 0 ? 0 : cells[0].length;
+  return `${rows} row${rows === 1 ? "" : "s"} × ${columns} column${columns === 1 ? "" : "s"}`;
+}
+
+function auditValue(value: AuditValue, inputs: BlockInputs): string {
+  const given = inputs.second === undefined ? `the range given (${rangeWords(inputs.data)})` : `the ranges given (${rangeWords(inputs.data)} and ${rangeWords(inputs.second)})`;
+  return auditWords(value, given, `evaluated ${auditTime(inputs.evaluatedAt ?? new Date())}`);
+}
+
 function evaluateCall(value: CallValue, inputs: BlockInputs, run: CatalogueCall): unknown {
   const args = value.args.map((operand) => ("ref" in operand ? rangeOf(operand.ref, inputs) : "number" in operand ? operand.number : operand.text));
   const result = run(value.fn, args);
@@ -601,5 +679,7 @@ export function blockValue(value: BlockValue, inputs: BlockInputs, run: Catalogu
     }
     case "blankCheck":
       return blankCheck(value, inputs, run);
+    case "audit":
+      return auditValue(value, inputs);
   }
 }

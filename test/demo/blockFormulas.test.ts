@@ -63,6 +63,12 @@ function sheetValues(workbook: Workbook, request: BlockRequest, refs: { data: st
 }
 
 function expectSame(sheet: unknown, direct: unknown, label: string): void {
+  if (label === "Audit") {
+    // Differs by design after the method: the sheet's line names the references and the time of writing,
+    // REPORT's the outline of the cells it got and the time of evaluation (test/report/auditRow.test.ts).
+    expect(String(sheet).split("; reads ")[0], label).toBe(String(direct).split("; reads ")[0]);
+    return;
+  }
   if (isCellError(direct)) {
     expect(isError(sheet) ? sheet.code : sheet, label).toBe(direct.code);
   } else if (direct === "" || direct === null || direct === undefined) {

@@ -55,7 +55,7 @@ function plan(choices: DataChoice[], overrides: Partial<WritePlan> = {}): WriteP
     choices,
     reference: "exact",
     request: SIGN,
-    target: { sheet: DEMO_SHEET, rect: { top: 0, left: 4, bottom: 20, right: 5 } },
+    target: { sheet: DEMO_SHEET, rect: { top: 0, left: 4, bottom: 21, right: 5 } },
     chart: false,
     consent: null,
     calculate: callFunction,
@@ -132,7 +132,7 @@ describe("writing the block", () => {
     const outcome = await writeResult(host, plan([{ range, useHeader: true }]));
     expect(outcome.kind).toBe("written");
     if (outcome.kind !== "written") return;
-    expect(outcome.address).toBe("'Paint line'!E1:F21");
+    expect(outcome.address).toBe("'Paint line'!E1:F22");
     expect(workbook.entry(DEMO_SHEET, 0, 4)).toBe("Evensplit result");
     const p = outcome.rows.findIndex((r) => r.key === "pvalue");
     expect(workbook.entry(DEMO_SHEET, p, 5)).toBe('=EVENSPLIT.PVALUE($B$2:$B$25,50,"greater","drop","exact")');
@@ -221,7 +221,7 @@ describe("writing the block through office-addin-mock", () => {
   function mockHost(target: { values: unknown[][]; formulas: unknown[][] }): { host: Host; written: () => unknown } {
     const sheet = {
       name: DEMO_SHEET,
-      target: { address: "'Paint line'!E1:F21", ...target, numberFormat: [], format: { font: {} } },
+      target: { address: "'Paint line'!E1:F22", ...target, numberFormat: [], format: { font: {} } },
       tables: itemsCollection([]),
       charts: itemsCollection([]),
       getRange(this: { target: unknown }) {
@@ -235,7 +235,7 @@ describe("writing the block through office-addin-mock", () => {
   it("stops at the overwrite check when a target cell holds something, before any write", async () => {
     const { host: demoHost } = demo();
     const range = await analyzed(demoHost, "B1:B25");
-    const blank = (): unknown[][] => Array.from({ length: 21 }, () => ["", ""]);
+    const blank = (): unknown[][] => Array.from({ length: 22 }, () => ["", ""]);
     const values = blank();
     values[3][1] = 0.5;
     const formulas = blank();
