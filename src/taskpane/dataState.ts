@@ -1,0 +1,217 @@
+/**
+ * The Data step's part of the pane state: one range, or two for pairs, as
+ * typed and as read; whether the first row is a name; how the block refers
+ * to the cells. Pure updates, and what the step shows, derived from a state.
+ *
+ * Method: reading and describing ranges is workflow.ts's (dataInfo.ts,
+ * references.ts); this module only keeps the choices and words them.
+ *
+ * Cost: O(cells of the data) for the summaries, O(1) for the updates.
+ */
+import { formatAddress } from "./a1";
+import type { PaneState, RangeSlot } from "./paneState";
+import { absoluteReference, openEnded } from "./references";
+import { blockRefs, bodyOf, dataProblem, referenceOptions, tablesToCreate, type Analysis, type DataChoice, type ReferenceChoice, type ReferenceOptions } from "./workflow";
+
+function withSlot(state: PaneState, index: number, slot: RangeSlot): PaneState {
+  const slots: [RangeSlot, RangeSlot] = index === 0 ? [slot, state.slots[1]] : [state.slots[0], slot];
+  return settleData({ ...state, slots, confirm: null });
+}
+
+/**
+ * One set of values or pairs. Pairs take no quantile test, and their shift starts at 0.
+ *
+ * @example
+ * setPaired(initialState(), true).question.center; // "0"
+ */
+export function setPaired(state: PaneState, paired: boolean): PaneState {
+  let question = state.question;
+  if (paired && question.test === "quantile") question = { ...question, test: "sign" };
+  if (paired && question.center.trim() === "") question = { ...question, center: "0" };
+  return settleData({ ...state, paired, question });
+}
+
+/**
+ * A range was cleared (typed as nothing).
+ *
+ * @example
+ * slotCleared(state, 0).slots[0].range; // null
+ */
+export function slotCleared(state: PaneState, index: number): PaneState {
+  return withSlot(state, index, { ...state.slots[index], text: "", range: null, problem: null });
+}
+
+/**
+ * A range was read: kept with its address as the workbook gives it, or its problem in words.
+ *
+ * @example
+ * slotRead(state, 0, "b1:b25", await analyzeRange(host, "b1:b25")).slots[0].text; // "'Paint line'!B1:B25"
+ */
+export function slotRead(state: PaneState, index: number, typed: string, analysis: Analysis): PaneState {
+  if (!analysis.ok) return withSlot(state, index, { ...state.slots[index], text: typed, range: null, problem: analysis.message });
+  const { range } = analysis;
+  return withSlot(state, index, { text: formatAddress(range.rect, range.sheet), range, useHeader: range.header !== null, problem: null });
+}
+
+/**
+ * A range could not be read at all (the workbook did not answer).
+ *
+ * @example
+ * slotFailed(state, 0, "B1:B25", "busy").slots[0].problem; // "The range could not be read: busy"
+ */
+export function slotFailed(state: PaneState, index: number, typed: string, reason: string): PaneState {
+  return withSlot(state, index, { ...state.slots[index], text: typed, range: null, problem: `The range could not be read: ${reason}` });
+}
+
+/**
+ * Whether the first row of a range is its name.
+ *
+ * @example
+ * setUseHeader(state, 0, false).slots[0].useHeader; // false
+ */
+export function setUseHeader(state: PaneState, index: number, useHeader: boolean): PaneState {
+  return settleData({ ...state, slots: index === 0 ? [{ ...state.slots[0], useHeader }, state.slots[1]] : [state.slots[0], { ...state.slots[1], useHeader }] });
+}
+
+/**
+ * How the block refers to the data.
+ *
+ * @example
+ * setReference(state, "table").reference; // "table" (when a table can be made)
+ */
+export function setReference(state: PaneState, reference: ReferenceChoice): PaneState {
+  return settleData({ ...state, reference, confirm: null });
+}
+
+/**
+ * The ranges in use, each with its header choice (one, or two for pairs; fewer while not all are read).
+ *
+ * @example
+ * choices(state).length; // 1
+ */
+export function choices(state: PaneState): DataChoice[] {
+  const used = state.paired ? state.slots : [state.slots[0]];
+  return used.flatMap((slot) => (slot.range ? [{ range: slot.range, useHeader: slot.useHeader }] : []));
+}
+
+/** True when every range the question needs is read. */
+export function dataComplete(state: PaneState): boolean {
+  return choices(state).length === (state.paired ? 2 : 1);
+}
+
+/**
+ * True when the data are complete and usable.
+ *
+ * @example
+ * dataReady(initialState()); // false
+ */
+export function dataReady(state: PaneState): boolean {
+  return dataComplete(state) && dataProblem(choices(state)) === null;
+}
+
+/**
+ * The state with a reference form that the data allow: a table or an open
+ * end that is no longer available falls back to exactly these cells.
+ *
+ * @example
+ * settleData({ ...state, reference: "table" }).reference; // "exact" when the range is part of a table
+ */
+export function settleData(state: PaneState): PaneState {
+  if (!dataComplete(state) || state.reference === "exact") return state;
+  const options = referenceOptions(choices(state));
+  if (options.allTableColumns) return state;
+  const available = state.reference === "table" ? options.table.available : options.open.available;
+  return available ? state : { ...state, reference: "exact" };
+}
+
+/**
+ * Why the Data step cannot be left, or null.
+ *
+ * @example
+ * dataStepProblem(initialState()); // "Give the range with the values first."
+ */
+export function dataStepProblem(state: PaneState): string | null {
+  if (!dataComplete(state)) return state.paired ? "Give both ranges first." : "Give the range with the values first.";
+  return dataProblem(choices(state));
+}
+
+/** What one range's part of the Data step shows. */
+export interface SlotView {
+  readonly label: string;
+  readonly problem: string | null;
+  readonly summary: string;
+  readonly canToggleHeader: boolean;
+  readonly useHeader: boolean;
+}
+
+/** What the Data step shows. */
+export interface DataView {
+  readonly paired: boolean;
+  readonly slots: readonly [SlotView, SlotView];
+  /** Null while the reference choice is not offered. */
+  readonly options: ReferenceOptions | null;
+  readonly reference: ReferenceChoice;
+  readonly note: string;
+  readonly problem: string;
+}
+
+function slotSummary(slot: RangeSlot): string {
+  if (!slot.range) return "";
+  const body = bodyOf({ range: slot.range, useHeader: slot.useHeader });
+  const { blank, text, boolean, other } = body.tally.skipped;
+  const parts = [`${body.tally.numbers} numbers`, `${blank} blank`, `${text} text`];
+  if (boolean > 0) parts.push(`${boolean} TRUE/FALSE`);
+  if (other > 0) parts.push(`${other} errors`);
+  const where = formatAddress(body.rect, body.sheet);
+  const named = body.name === undefined ? "No name row." : slot.range.place.kind === "column" ? `Table column “${body.name}”.` : `Name: “${body.name}”.`;
+  return `${where}: ${body.tally.cells} cells — ${parts.join(", ")}. ${named}`;
+}
+
+function slotView(slot: RangeSlot, label: string): SlotView {
+  const canToggleHeader = slot.range !== null && slot.range.place.kind !== "column" && slot.range.header !== null;
+  return { label, problem: slot.problem, summary: slotSummary(slot), canToggleHeader, useHeader: slot.useHeader };
+}
+
+/**
+ * The sentence saying what the block's formulas will read, for the chosen reference form.
+ *
+ * @example
+ * referenceSentence(state); // "The block will read exactly $B$2:$B$25; values added below are not counted until you write the block again."
+ */
+export function referenceSentence(state: PaneState): string {
+  const c = choices(state);
+  if (!dataComplete(state)) return "";
+  const options = referenceOptions(c);
+  const sheet = c[0].range.sheet;
+  const refs = blockRefs(c, state.reference, [], sheet);
+  const list = refs.second === undefined ? refs.data : `${refs.data} and ${refs.second}`;
+  if (options.allTableColumns) return `The block will refer to ${list}, so rows added to the table count automatically.`;
+  if (state.reference === "table") {
+    const rects = tablesToCreate(c).map((t) => formatAddress(t.rect));
+    return `With your agreement, ${rects.join(" and ")} will become a table when the block is written, and the block will follow its columns, so rows added to the table count automatically.`;
+  }
+  if (state.reference === "open") {
+    const open = c.map((choice) => absoluteReference(openEnded(bodyOf(choice).rect), sheet, sheet)).join(" and ");
+    return `The block will read ${open}, down to the last row of the sheet, so values typed below count; keep anything else out of those columns.`;
+  }
+  return `The block will read exactly ${list}; values added below are not counted until you write the block again.`;
+}
+
+/**
+ * Everything the Data step shows, from the state.
+ *
+ * @example
+ * dataView(initialState()).slots[0].label; // "Values"
+ */
+export function dataView(state: PaneState): DataView {
+  const complete = dataComplete(state);
+  const c = choices(state);
+  return {
+    paired: state.paired,
+    slots: [slotView(state.slots[0], state.paired ? "First values (for example, before)" : "Values"), slotView(state.slots[1], "Second values (for example, after)")],
+    options: complete ? referenceOptions(c) : null,
+    reference: state.reference,
+    note: referenceSentence(state),
+    problem: complete ? (dataProblem(c) ?? "") : "",
+  };
+}

@@ -1,0 +1,120 @@
+/**
+ * The Data step's page: the kind of data, one or two ranges with their
+ * summaries and name-row boxes, and how the block refers to the cells. It
+ * renders a DataView (dataState.ts) and forwards events; it holds no state.
+ *
+ * Cost: O(1) nodes per render.
+ */
+import { button, field, newId, radioGroup, setProblem, textInput } from "./controls";
+import type { DataView } from "./dataState";
+import { el, show } from "./dom";
+import type { ReferenceChoice } from "./workflow";
+
+export interface DataEvents {
+  kind(paired: boolean): void;
+  /** A range typed and committed (Enter, or leaving the field). */
+  rangeTyped(index: number, text: string): void;
+  useSelection(index: number): void;
+  header(index: number, useHeader: boolean): void;
+  reference(choice: ReferenceChoice): void;
+  next(): void;
+}
+
+export interface DataPage {
+  readonly element: HTMLElement;
+  /** The ranges' text fields, in slot order. */
+  readonly inputs: readonly HTMLInputElement[];
+  render(view: DataView, texts: readonly string[]): void;
+}
+
+/**
+ * Builds the Data step under `heading`.
+ *
+ * @example
+ * const page = dataPage(heading, events); page.render(dataView(state), state.slots.map((s) => s.text));
+ */
+export function dataPage(heading: HTMLElement, events: DataEvents): DataPage {
+  const kindGroup = radioGroup<"one" | "pairs">(
+    "What kind of data?",
+    [
+      { value: "one", label: "One set of values", hint: "Test where the median of one column lies." },
+      { value: "pairs", label: "Pairs of values", hint: "Two columns, a first and a second value for each item (such as before and after); the test looks at second − first." },
+    ],
+    "one",
+    (value) => events.kind(value === "pairs"),
+  );
+  const slotViews = [0, 1].map((index) => {
+    const input = textInput("", { autocomplete: "off" });
+    const pick = button("Use the selection", "secondary", () => events.useSelection(index));
+    const f = field(index === 0 ? "Values" : "Second values", input, "A range such as B1:B25; the first row may hold the name.", pick);
+    const summary = el("p", { class: "es-summary", attrs: { "aria-live": "polite" } });
+    const headerId = newId("header");
+    const headerBox = el("input", { id: headerId, attrs: { type: "checkbox" } });
+    headerBox.checked = true;
+    const headerRow = el("div", { class: "es-check" }, headerBox, el("label", { attrs: { for: headerId } }, "The first row is a name: leave it out of the test"));
+    input.addEventListener("change", () => events.rangeTyped(index, input.value));
+    input.addEventListener("keydown", (event) => {
+      if (event.key === "Enter") {
+        event.preventDefault();
+        events.rangeTyped(index, input.value);
+      }
+    });
+    headerBox.addEventListener("change", () => events.header(index, headerBox.checked));
+    const element = el("div", { class: "es-slot" }, f.element, summary, headerRow);
+    return { element, field: f, input, summary, headerBox, headerRow, shownText: "" };
+  });
+  const referenceGroup = radioGroup<ReferenceChoice>(
+    "When rows are added later",
+    [
+      { value: "exact", label: "Use exactly these cells", hint: "Nothing in the workbook changes." },
+      { value: "table", label: "Turn the range into a table", hint: "Rows added to the table then count automatically." },
+      { value: "open", label: "Read down to the end of the sheet", hint: "Values typed below count too." },
+    ],
+    "exact",
+    (value) => events.reference(value),
+  );
+  const referenceNote = el("p", { class: "es-note", attrs: { "aria-live": "polite" } });
+  const problemText = el("p", { class: "es-problem", attrs: { "aria-live": "polite" } });
+  const element = el(
+    "section",
+    { class: "es-step", attrs: { "aria-labelledby": heading.id } },
+    heading,
+    el("p", { class: "es-intro" }, "Choose the cells with your measurements. Blank cells, text and TRUE/FALSE are skipped and counted."),
+    kindGroup.element,
+    slotViews[0].element,
+    slotViews[1].element,
+    referenceGroup.element,
+    referenceNote,
+    problemText,
+    el("div", { class: "es-actions" }, button("Next: the question", "primary", () => events.next())),
+  );
+
+  function render(view: DataView, texts: readonly string[]): void {
+    kindGroup.set(view.paired ? "pairs" : "one");
+    show(slotViews[1].element, view.paired);
+    view.slots.forEach((slot, i) => {
+      const page = slotViews[i];
+      page.field.label.textContent = slot.label;
+      // The field shows the address as read; typing in progress is left alone until it is committed.
+      if (texts[i] !== page.shownText) {
+        page.input.value = texts[i];
+        page.shownText = texts[i];
+      }
+      setProblem(page.field, slot.problem);
+      page.summary.textContent = slot.summary;
+      show(page.headerRow, slot.canToggleHeader);
+      page.headerBox.checked = slot.useHeader;
+    });
+    const offered = view.options !== null && !view.options.allTableColumns;
+    show(referenceGroup.element, offered);
+    if (view.options && offered) {
+      referenceGroup.enable("table", view.options.table.available, view.options.table.reason);
+      referenceGroup.enable("open", view.options.open.available, view.options.open.reason);
+    }
+    referenceGroup.set(view.reference);
+    referenceNote.textContent = view.note;
+    problemText.textContent = view.problem;
+  }
+
+  return { element, inputs: slotViews.map((s) => s.input), render };
+}

@@ -1,0 +1,148 @@
+/**
+ * The Question step's part of the pane state: which test, the direction of
+ * the claim, the hypothesised value and the quantile, as typed. Pure
+ * updates; the block request built from the whole state; and what the step
+ * shows (labels, the hypotheses in notation, the problems of the fields).
+ *
+ * Method: numbers are read by request.ts (a decimal point only, fractions
+ * strictly between 0 and 1).
+ *
+ * Cost: O(length of the inputs).
+ */
+import type { BlockTest } from "../report/resultBlock";
+import type { Alternative } from "../stats/types";
+import { choices } from "./dataState";
+import type { PaneState } from "./paneState";
+import { buildRequest, notation, type FieldName, type FieldProblem } from "./request";
+import { bodyOf } from "./workflow";
+
+/**
+ * The test chosen.
+ *
+ * @example
+ * setTest(initialState(), "signed-rank").question.test; // "signed-rank"
+ */
+export function setTest(state: PaneState, test: BlockTest): PaneState {
+  return { ...state, question: { ...state.question, test } };
+}
+
+/**
+ * The direction of the claim.
+ *
+ * @example
+ * setAlternative(initialState(), "greater").question.alternative; // "greater"
+ */
+export function setAlternative(state: PaneState, alternative: Alternative): PaneState {
+  return { ...state, question: { ...state.question, alternative } };
+}
+
+/**
+ * The hypothesised value, as typed.
+ *
+ * @example
+ * setCenter(initialState(), "50").question.center; // "50"
+ */
+export function setCenter(state: PaneState, center: string): PaneState {
+  return { ...state, question: { ...state.question, center } };
+}
+
+/**
+ * The quantile, as typed.
+ *
+ * @example
+ * setQuantile(initialState(), "0.8").question.quantile; // "0.8"
+ */
+export function setQuantile(state: PaneState, quantile: string): PaneState {
+  return { ...state, question: { ...state.question, quantile } };
+}
+
+/** The test that runs: pairs take no quantile test. */
+export function effectiveTest(state: PaneState): BlockTest {
+  return state.paired && state.question.test === "quantile" ? "sign" : state.question.test;
+}
+
+/**
+ * The block request for the whole state, or the problems of its fields.
+ *
+ * @example
+ * currentRequest(setCenter(state, "50")); // { ok: true, request: { test: "sign", center: 50, ... } }
+ */
+export function currentRequest(state: PaneState): ReturnType<typeof buildRequest> {
+  const names = choices(state).map((choice) => bodyOf(choice).name);
+  return buildRequest(state.paired, state.question, state.settings, { data: names[0], second: names[1] });
+}
+
+/**
+ * The problems of some fields.
+ *
+ * @example
+ * problemsFor(initialState(), ["center"]); // [{ field: "center", message: "The hypothesised median is empty: type a number." }]
+ */
+export function problemsFor(state: PaneState, fields: readonly FieldName[]): FieldProblem[] {
+  const built = currentRequest(state);
+  return built.ok ? [] : built.problems.filter((p) => fields.includes(p.field));
+}
+
+/**
+ * Why the Question step cannot be left, or null.
+ *
+ * @example
+ * questionStepProblem(setCenter(state, "fifty")); // "The hypothesised median must be a plain number, ..."
+ */
+export function questionStepProblem(state: PaneState): string | null {
+  return problemsFor(state, ["center", "quantile"])[0]?.message ?? null;
+}
+
+/** What the Question step shows. */
+export interface QuestionView {
+  readonly test: BlockTest;
+  readonly quantileAvailable: boolean;
+  readonly showQuantile: boolean;
+  readonly subjectLabel: string;
+  readonly centerLabel: string;
+  readonly question: PaneState["question"];
+  readonly centerProblem: string | null;
+  readonly quantileProblem: string | null;
+  readonly h0: string;
+  readonly h1: string;
+  readonly symbol: string;
+}
+
+/**
+ * Everything the Question step shows, from the state. `showStepProblems`
+ * shows the hypothesised value's problem even before anything was typed (after
+ * an attempt to move on).
+ *
+ * @example
+ * questionView(setCenter(state, "50"), false).h0; // "H₀: median = 50"
+ */
+export function questionView(state: PaneState, showStepProblems: boolean): QuestionView {
+  const test = effectiveTest(state);
+  const names = choices(state).map((choice) => bodyOf(choice).name);
+  const { question } = state;
+  const subjectLabel = state.paired
+    ? `The median of the differences (${names[1] ?? "second"} − ${names[0] ?? "first"}) is`
+    : test === "quantile"
+      ? `The ${question.quantile.trim() || "chosen"} quantile of ${names[0] ? `“${names[0]}”` : "the values"} is`
+      : `The median of ${names[0] ? `“${names[0]}”` : "the values"} is`;
+  const centerLabel = state.paired ? "Hypothesised shift (often 0)" : test === "quantile" ? "Hypothesised value of the quantile" : "Hypothesised median";
+  const problems = problemsFor(state, ["center", "quantile"]);
+  const showCenterProblem = showStepProblems || (state.step >= 1 && (question.center !== "" || state.step > 1));
+  const center = Number(question.center.trim());
+  const q = Number(question.quantile.trim());
+  const typed = question.center.trim() !== "" && Number.isFinite(center);
+  const n = typed ? notation({ test, paired: state.paired, center, alternative: question.alternative, quantile: Number.isFinite(q) ? q : 0.5 }) : null;
+  return {
+    test,
+    quantileAvailable: !state.paired,
+    showQuantile: test === "quantile",
+    subjectLabel,
+    centerLabel,
+    question,
+    centerProblem: showCenterProblem ? (problems.find((p) => p.field === "center")?.message ?? null) : null,
+    quantileProblem: problems.find((p) => p.field === "quantile")?.message ?? null,
+    h0: n ? n.h0 : "H₀: …",
+    h1: n ? n.h1 : "H₁: …",
+    symbol: n ? n.symbol : "Type the hypothesised value to see the hypotheses.",
+  };
+}

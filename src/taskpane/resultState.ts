@@ -1,0 +1,217 @@
+/**
+ * The Result step's part of the pane state: where the block goes, the chart
+ * and plot choices, the listing of filled cells awaiting consent. Pure
+ * updates, and what the step shows: the preview rows computed now by the
+ * catalogue's own functions, the plots' inputs, the place and its problems.
+ *
+ * Method: the rows come from preview.ts (src/report/resultBlock.ts's one
+ * definition); the null distribution's bars from plot.ts.
+ *
+ * Cost: the preview costs the catalogue calls on the data (one pass each);
+ * the updates O(1).
+ */
+import { resultBlockRows, type BlockRequest, type CatalogueCall } from "../report/resultBlock";
+import { numbersFromCells, pairsFromCells } from "../stats/cells";
+import { pairedDifferences } from "../stats/differences";
+import { formatAddress, type CellRect } from "./a1";
+import { choices, dataReady, referenceSentence } from "./dataState";
+import type { Confirmation, PaneState } from "./paneState";
+import { nullBars, type NullBar } from "./plot";
+import type { NumberLineInput } from "./plotView";
+import { blockPreview, type PreviewRow } from "./preview";
+import { currentRequest } from "./questionState";
+import { blockInputs, blockRefs, bodyOf, chartSource, placeFromText, type DataChoice } from "./workflow";
+import { onSheet, wordingRequest } from "./writePlan";
+
+export const PAST_EDGE = "The block does not fit on the sheet there (1,048,576 rows, columns A to XFD): pick a top-left cell further up or to the left.";
+export const NO_ADDRESS = "Type a cell address such as E1 for the block’s top-left corner.";
+
+/**
+ * The place typed or picked by the person: the pane stops suggesting one, and a listing made for another place no longer holds.
+ *
+ * @example
+ * setTarget(state, "H1"); // { ...state, target: "H1", targetEdited: true, confirm: null }
+ */
+export function setTarget(state: PaneState, target: string): PaneState {
+  return { ...state, target, targetEdited: true, confirm: null };
+}
+
+/**
+ * The place the pane suggests, unless the person chose one.
+ *
+ * @example
+ * suggestTarget(state, "E1").target; // "E1"
+ */
+export function suggestTarget(state: PaneState, target: string): PaneState {
+  return state.targetEdited ? state : { ...state, target };
+}
+
+/**
+ * The top-left cell of a selection's address, as the block's place.
+ *
+ * @example
+ * targetFromSelection(state, "'Paint line'!H3:J9").target; // "'Paint line'!H3"
+ */
+export function targetFromSelection(state: PaneState, address: string): PaneState {
+  return setTarget(state, address.split(":")[0]);
+}
+
+/**
+ * Whether to add the chart.
+ *
+ * @example
+ * setChart(state, true).chart; // true
+ */
+export function setChart(state: PaneState, chart: boolean): PaneState {
+  return { ...state, chart };
+}
+
+/**
+ * Whether to show the count's null distribution.
+ *
+ * @example
+ * setShowNull(state, true).showNull; // true
+ */
+export function setShowNull(state: PaneState, showNull: boolean): PaneState {
+  return { ...state, showNull };
+}
+
+/**
+ * The filled cells to ask about, or null once the person answered.
+ *
+ * @example
+ * setConfirm(state, null).confirm; // null
+ */
+export function setConfirm(state: PaneState, confirm: Confirmation | null): PaneState {
+  return { ...state, confirm };
+}
+
+/**
+ * The state with a chart only where one can be made (paired columns side by side).
+ *
+ * @example
+ * settleResult({ ...state, chart: true }).chart; // false when the two columns are apart
+ */
+export function settleResult(state: PaneState): PaneState {
+  const c = choices(state);
+  if (!state.chart || c.length === 0 || chartSource(c, []) !== null) return state;
+  return { ...state, chart: false };
+}
+
+/**
+ * The block's place for a request, read from the target text, or null when it is not an address.
+ *
+ * @example
+ * targetPlace(state, request); // { sheet: "Paint line", rect: { top: 0, left: 4, bottom: 20, right: 5 } }
+ */
+export function targetPlace(state: PaneState, request: BlockRequest): { sheet: string; rect: CellRect } | null {
+  const c = choices(state);
+  if (c.length === 0) return null;
+  return placeFromText(state.target, c[0].range.sheet, resultBlockRows(request).length);
+}
+
+/**
+ * Numbers for the plot: the values, or the paired differences second − first.
+ *
+ * @example
+ * plotValues([{ range, useHeader: true }]).length; // 22
+ */
+export function plotValues(c: readonly DataChoice[]): Float64Array {
+  const bodies = c.map(bodyOf);
+  if (bodies.length === 1) return numbersFromCells(bodies[0].values).values;
+  const pairs = pairsFromCells(bodies[0].values, bodies[1].values);
+  return pairedDifferences(pairs.first, pairs.second, 0);
+}
+
+function numberOrNull(value: unknown): number | null {
+  return typeof value === "number" && Number.isFinite(value) ? value : null;
+}
+
+/** What the Result step shows. */
+export interface ResultView {
+  readonly rows: readonly PreviewRow[];
+  readonly plot: NumberLineInput | null;
+  readonly caption: string;
+  /** The count's null distribution is offered (sign and quantile tests). */
+  readonly countTest: boolean;
+  /** The bars to draw, empty when not asked for or too many. */
+  readonly bars: readonly NullBar[];
+  readonly barsWhat: string;
+  readonly tooManyBars: boolean;
+  readonly target: string;
+  readonly targetHint: string;
+  readonly targetProblem: string | null;
+  readonly recap: string;
+  readonly chartAvailable: boolean;
+  readonly chartHint: string;
+  readonly chart: boolean;
+  readonly busy: boolean;
+  readonly confirm: Confirmation | null;
+}
+
+const EMPTY: Omit<ResultView, "busy" | "confirm" | "target" | "chart"> = {
+  rows: [],
+  plot: null,
+  caption: "",
+  countTest: false,
+  bars: [],
+  barsWhat: "",
+  tooManyBars: false,
+  targetHint: "",
+  targetProblem: null,
+  recap: "",
+  chartAvailable: false,
+  chartHint: "",
+};
+
+/**
+ * Everything the Result step shows, from the state. The preview runs the
+ * tests on the data, so only while the Result step is shown.
+ *
+ * @example
+ * resultView(stateAtResult, callFunction).rows.find((r) => r.key === "pvalue")?.shown; // "0.0133"
+ */
+export function resultView(state: PaneState, calculate: CatalogueCall): ResultView {
+  const fixed = { busy: state.busy, confirm: state.confirm, target: state.target, chart: state.chart };
+  const built = currentRequest(state);
+  if (state.step !== 3 || !built.ok || !dataReady(state)) return { ...EMPTY, ...fixed };
+  const c = choices(state);
+  const request = built.request;
+  const refs = blockRefs(c, state.reference, [], c[0].range.sheet);
+  const rows = blockPreview(wordingRequest(request), blockInputs(c), refs, calculate);
+  const value = (key: string): unknown => rows.find((r) => r.key === key)?.value;
+  const values = plotValues(c);
+  const what = state.paired ? "differences" : "values";
+  const plot = { values, center: request.center, lower: numberOrNull(value("lower")), upper: numberOrNull(value("upper")), what };
+  const level = `${Math.round(request.confidence * 1000) / 10}%`;
+  const caption = `Dots: the ${values.length} ${what}. Dashed line: the hypothesised value ${request.center}. Shaded: the ${level} bounds${request.test === "signed-rank" ? " (Hodges–Lehmann)" : ""}.`;
+  const countTest = request.test !== "signed-rank";
+  const used = numberOrNull(value("used"));
+  const observed = request.test === "quantile" ? numberOrNull(value("below")) : numberOrNull(value("statistic"));
+  const bars = countTest && state.showNull && used !== null && observed !== null ? nullBars(used, request.quantile ?? 0.5, observed) : [];
+  const target = targetPlace(state, request);
+  const fits = target !== null && onSheet(target.rect);
+  const targetHint = fits
+    ? `The block takes 2 columns × ${rows.length} rows: ${formatAddress(target.rect, target.sheet)}.${state.targetEdited ? "" : " Suggested: the first empty area to the right of the data."}`
+    : `The block takes 2 columns × ${rows.length} rows; type the cell for its top-left corner, such as E1.`;
+  const targetProblem = state.target.trim() === "" ? null : !target ? "That is not a cell address; type one such as E1." : fits ? null : PAST_EDGE;
+  const source = chartSource(c, []);
+  return {
+    ...fixed,
+    rows,
+    plot,
+    caption,
+    countTest,
+    bars,
+    barsWhat: request.test === "quantile" ? "count below" : "sign statistic",
+    tooManyBars: state.showNull && countTest && bars.length === 0,
+    targetHint,
+    targetProblem,
+    recap: referenceSentence(state),
+    chartAvailable: source !== null,
+    chartHint:
+      source === null
+        ? "Not available: the two columns are not side by side."
+        : `A clustered column chart of ${formatAddress(source.rect)}, linked to the same cells, placed to the right of the block.`,
+  };
+}

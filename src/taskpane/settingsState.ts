@@ -1,0 +1,61 @@
+/**
+ * The Settings step's part of the pane state: alpha and the confidence
+ * level as typed, and the choices for ties, zeros and how the p-value is
+ * computed. Pure updates, and what the step shows.
+ *
+ * Cost: O(length of the inputs).
+ */
+import type { PaneState } from "./paneState";
+import { effectiveTest, problemsFor } from "./questionState";
+import type { SettingsForm } from "./request";
+
+/**
+ * One setting changed.
+ *
+ * @example
+ * setSetting(initialState(), "alpha", "0.01").settings.alpha; // "0.01"
+ */
+export function setSetting<K extends keyof SettingsForm>(state: PaneState, key: K, value: SettingsForm[K]): PaneState {
+  return { ...state, settings: { ...state.settings, [key]: value } };
+}
+
+/**
+ * Why the Settings step cannot be left, or null.
+ *
+ * @example
+ * settingsStepProblem(setSetting(state, "alpha", "5")); // "Alpha must lie strictly between 0 and 1. ..."
+ */
+export function settingsStepProblem(state: PaneState): string | null {
+  return problemsFor(state, ["alpha", "confidence"])[0]?.message ?? null;
+}
+
+/** What the Settings step shows. */
+export interface SettingsView {
+  readonly settings: SettingsForm;
+  readonly alphaProblem: string | null;
+  readonly confidenceProblem: string | null;
+  /** Ties and the sign test's method: sign test only. */
+  readonly signTest: boolean;
+  /** Zeros and the signed-rank method: signed-rank test only. */
+  readonly signedRank: boolean;
+  readonly quantileTest: boolean;
+}
+
+/**
+ * Everything the Settings step shows, from the state.
+ *
+ * @example
+ * settingsView(initialState()).signTest; // true
+ */
+export function settingsView(state: PaneState): SettingsView {
+  const test = effectiveTest(state);
+  const problems = problemsFor(state, ["alpha", "confidence"]);
+  return {
+    settings: state.settings,
+    alphaProblem: problems.find((p) => p.field === "alpha")?.message ?? null,
+    confidenceProblem: problems.find((p) => p.field === "confidence")?.message ?? null,
+    signTest: test === "sign",
+    signedRank: test === "signed-rank",
+    quantileTest: test === "quantile",
+  };
+}

@@ -1,0 +1,120 @@
+/**
+ * The Settings step's page: alpha, the confidence level, and the choices of
+ * the chosen test. It renders a SettingsView (settingsState.ts) and forwards
+ * events.
+ *
+ * Cost: O(1) nodes per render.
+ */
+import { EXACT_AUTO_LIMIT, EXACT_LIMIT } from "../stats/signedRank";
+import type { SignTestMethod, SignedRankMethod, TieRule, ZeroRule } from "../stats/types";
+import { button, field, hintFor, selectControl, setProblem, textInput, type Choice } from "./controls";
+import { el, show } from "./dom";
+import type { SettingsForm } from "./request";
+import type { SettingsView } from "./settingsState";
+
+const TIE_CHOICES: readonly Choice<TieRule>[] = [
+  { value: "drop", label: "Leave them out (default)", hint: "A tie says nothing about the direction, so the test uses the other values." },
+  { value: "split", label: "Share them between below and above", hint: "Keeps them in n; with an odd number of ties, one is left out." },
+  { value: "conservative", label: "Count them against the claim", hint: "The most cautious choice: the p-value can only grow." },
+];
+
+const SIGN_METHOD_CHOICES: readonly Choice<SignTestMethod>[] = [
+  { value: "exact", label: "Exact binomial (default)", hint: "Exact probabilities: the chance of a false alarm never exceeds alpha." },
+  { value: "midp", label: "Mid-p", hint: "Counts half the probability of the observed count: closer to alpha on average, but may exceed it." },
+  { value: "normal", label: "Normal approximation", hint: "For very large samples; continuity-corrected." },
+];
+
+const RANK_METHOD_CHOICES: readonly Choice<SignedRankMethod>[] = [
+  {
+    value: "auto",
+    label: "Exact when feasible (default)",
+    hint: `Exact distribution up to ${EXACT_AUTO_LIMIT.toLocaleString("en-US")} non-zero differences, normal approximation beyond; the block states which ran.`,
+  },
+  {
+    value: "exact",
+    label: "Exact",
+    hint: `Exact distribution given the ties, for up to ${EXACT_LIMIT.toLocaleString("en-US")} non-zero differences (slower as they grow); beyond that the cells answer #N/A and say so.`,
+  },
+  { value: "normal", label: "Normal approximation", hint: "With continuity and tie corrections." },
+];
+
+const ZERO_CHOICES: readonly Choice<ZeroRule>[] = [
+  { value: "drop", label: "Leave zero differences out (default)", hint: "Values equal to the hypothesised value are set aside before ranking." },
+  { value: "pratt", label: "Rank them, then leave them out of V (Pratt)", hint: "Zeros take part in the ranking, which shifts the other ranks up." },
+];
+
+export interface SettingsEvents {
+  setting<K extends keyof SettingsForm>(key: K, value: SettingsForm[K]): void;
+  back(): void;
+  next(): void;
+}
+
+export interface SettingsPage {
+  readonly element: HTMLElement;
+  render(view: SettingsView): void;
+}
+
+/**
+ * Builds the Settings step under `heading`.
+ *
+ * @example
+ * const page = settingsPage(heading, events); page.render(settingsView(state));
+ */
+export function settingsPage(heading: HTMLElement, events: SettingsEvents): SettingsPage {
+  const alphaField = field("Alpha (significance level)", textInput("0.05", { inputmode: "decimal" }), "The risk you accept of rejecting H₀ when it is true. A common choice is 0.05.");
+  alphaField.control.addEventListener("input", () => events.setting("alpha", alphaField.control.value));
+  const confidenceField = field(
+    "Confidence level of the bounds",
+    textInput("0.95", { inputmode: "decimal" }),
+    "The bounds cover the true value at least this often; the block also shows the level actually reached.",
+  );
+  confidenceField.control.addEventListener("input", () => events.setting("confidence", confidenceField.control.value));
+  const tiesField = field("Values equal to the hypothesised value (ties)", selectControl(TIE_CHOICES, "drop"), hintFor(TIE_CHOICES, "drop"));
+  tiesField.control.addEventListener("change", () => events.setting("ties", tiesField.control.value as TieRule));
+  const signMethodField = field("How the p-value is computed", selectControl(SIGN_METHOD_CHOICES, "exact"), hintFor(SIGN_METHOD_CHOICES, "exact"));
+  signMethodField.control.addEventListener("change", () => events.setting("signMethod", signMethodField.control.value as SignTestMethod));
+  const rankMethodField = field("How the p-value is computed", selectControl(RANK_METHOD_CHOICES, "auto"), hintFor(RANK_METHOD_CHOICES, "auto"));
+  rankMethodField.control.addEventListener("change", () => events.setting("rankMethod", rankMethodField.control.value as SignedRankMethod));
+  const zerosField = field("Differences of zero", selectControl(ZERO_CHOICES, "drop"), hintFor(ZERO_CHOICES, "drop"));
+  zerosField.control.addEventListener("change", () => events.setting("zeros", zerosField.control.value as ZeroRule));
+  const quantileNote = el("p", { class: "es-note" }, "The quantile test is exact and leaves out values equal to the hypothesised value.");
+  const element = el(
+    "section",
+    { class: "es-step", attrs: { "aria-labelledby": heading.id } },
+    heading,
+    alphaField.element,
+    confidenceField.element,
+    tiesField.element,
+    signMethodField.element,
+    rankMethodField.element,
+    zerosField.element,
+    quantileNote,
+    el("div", { class: "es-actions" }, button("Back", "secondary", () => events.back()), button("Next: the result", "primary", () => events.next())),
+  );
+  const keep = (control: HTMLInputElement | HTMLSelectElement, value: string): void => {
+    if (control.value !== value) control.value = value;
+  };
+
+  function render(view: SettingsView): void {
+    const { settings } = view;
+    keep(alphaField.control, settings.alpha);
+    keep(confidenceField.control, settings.confidence);
+    keep(tiesField.control, settings.ties);
+    keep(signMethodField.control, settings.signMethod);
+    keep(rankMethodField.control, settings.rankMethod);
+    keep(zerosField.control, settings.zeros);
+    setProblem(alphaField, view.alphaProblem);
+    setProblem(confidenceField, view.confidenceProblem);
+    show(tiesField.element, view.signTest);
+    show(signMethodField.element, view.signTest);
+    show(rankMethodField.element, view.signedRank);
+    show(zerosField.element, view.signedRank);
+    show(quantileNote, view.quantileTest);
+    tiesField.hint.textContent = hintFor(TIE_CHOICES, settings.ties);
+    signMethodField.hint.textContent = hintFor(SIGN_METHOD_CHOICES, settings.signMethod);
+    rankMethodField.hint.textContent = hintFor(RANK_METHOD_CHOICES, settings.rankMethod);
+    zerosField.hint.textContent = hintFor(ZERO_CHOICES, settings.zeros);
+  }
+
+  return { element, render };
+}
