@@ -80,8 +80,19 @@ async function start(): Promise<void> {
     workbook.writeEntries(DEMO_SHEET, row, 0, [extraPanel(added)], true);
     added++;
   });
+  // Some Excel builds hand custom functions blank cells as 0; this shows what the block then says.
+  const zerosButton = el(
+    "button",
+    { class: "es-button demo-button", attrs: { type: "button", "aria-pressed": "false", title: "Hand the functions blank cells as 0, as some Excel builds do" } },
+    "Blank cells as 0",
+  );
+  zerosButton.addEventListener("click", () => {
+    const on = zerosButton.getAttribute("aria-pressed") !== "true";
+    zerosButton.setAttribute("aria-pressed", String(on));
+    workbook.setBlanksAsZeros(on);
+  });
   const tools = document.getElementById("tools");
-  if (tools) replaceChildren(tools, themeButton, addButton);
+  if (tools) replaceChildren(tools, themeButton, addButton, zerosButton);
 }
 
 void start();

@@ -160,6 +160,7 @@ export class Workbook {
   /** Number of recalculations so far; tests watch it to see that a batch recalculated once. */
   recalculations = 0;
   private held = 0;
+  private blanksAsZeros = false;
   private pending = { recalculate: false, notify: false };
 
   constructor(sheetNames: readonly string[]) {
@@ -179,6 +180,16 @@ export class Workbook {
   /** Registers the add-in's functions (captured from the bundle) and recalculates. */
   setFunctions(functions: ReadonlyMap<string, CustomFunction>): void {
     this.functions = new Map(functions);
+    this.recalculate();
+  }
+
+  /**
+   * Hands custom functions the blank cells of a range as 0 (as some Excel
+   * builds do: OfficeDev/office-js issues 5262 and 1951) or as "" (Excel on
+   * the web), and recalculates.
+   */
+  setBlanksAsZeros(on: boolean): void {
+    this.blanksAsZeros = on;
     this.recalculate();
   }
 
@@ -424,6 +435,7 @@ export class Workbook {
   private context(sheetName: string, evaluateCell: (sheet: string, row: number, column: number) => Scalar): EvaluationContext {
     return {
       sheet: sheetName,
+      blanksAsZeros: this.blanksAsZeros,
       hasSheet: (name: string) => this.hasSheet(name),
       read: (reference: ReferenceValue) => {
         const used = this.usedRect(reference.sheet);

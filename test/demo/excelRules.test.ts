@@ -5,10 +5,13 @@
 import { describe, expect, it } from "vitest";
 import { FakeApiError, fakeRun } from "../../src/demo/fakeExcel";
 import type { CustomFunction } from "../../src/demo/formula/evaluate";
+import { demoRows, DEMO_SHEET } from "../../src/demo/inventedData";
 import { shapesFrom, withShapes } from "../../src/demo/standIn";
 import { tableHeaders, Workbook } from "../../src/demo/workbook";
 import { LAST_COLUMN } from "../../src/taskpane/a1";
 import type { HostContext } from "../../src/taskpane/host";
+import { BLANK_CHECK_WORDS, blockFormula, resultBlockRows, type BlockRequest } from "../../src/report/resultBlock";
+import { catalogueFunctions } from "./catalogue";
 
 const S = "Paint line";
 
@@ -246,5 +249,31 @@ describe("functions Excel knows only through their metadata (Microsoft, \"Manual
     w.setFunctions(joined);
     w.writeEntries(S, 0, 0, [["=EVENSPLIT.HIDDEN()"]]);
     expect((w.value(S, 0, 0) as { code: string }).code).toBe("#NAME?");
+  });
+});
+
+describe("blank cells handed to a function as 0, as some Excel builds do (office-js issues 5262, 1951)", () => {
+  it("passes \"\" by default and 0 once switched, and the block's blank check then warns", async () => {
+    const seen: unknown[] = [];
+    const echo: CustomFunction = { fn: (cells: unknown) => (seen.push(cells), 1), shapes: ["matrix"], result: "scalar" };
+    const w = new Workbook([S]);
+    w.setFunctions(new Map([["ECHO", echo]]));
+    w.writeEntries(S, 0, 0, [[1], [""], [3], ["=EVENSPLIT.ECHO(A1:A3)"]]);
+    expect(seen.at(-1)).toEqual([[1], [""], [3]]);
+    w.setBlanksAsZeros(true);
+    expect(seen.at(-1)).toEqual([[1], [0], [3]]);
+
+    const block = (zeros: boolean): unknown => {
+      const sheet = new Workbook([DEMO_SHEET]);
+      sheet.writeEntries(DEMO_SHEET, 0, 0, demoRows());
+      sheet.setFunctions(functions);
+      sheet.setBlanksAsZeros(zeros);
+      const request: BlockRequest = { test: "sign", paired: false, center: 50, alternative: "two-sided", alpha: 0.05, confidence: 0.95, dataName: "Thickness (µm)" };
+      const rows = resultBlockRows(request);
+      sheet.writeEntries(DEMO_SHEET, 0, 5, rows.map((row) => [blockFormula(row.value, { data: "$B$2:$B$26" })]));
+      return sheet.value(DEMO_SHEET, rows.findIndex((r) => r.key === "blanks"), 5);
+    };
+    const functions = await catalogueFunctions();
+    expect([block(false), block(true)]).toEqual([BLANK_CHECK_WORDS.agree, BLANK_CHECK_WORDS.differ]);
   });
 });

@@ -23,6 +23,7 @@ const CELLS = new Map<string, Scalar>([
 function context(functions: Record<string, CustomFunction> = {}): EvaluationContext {
   return {
     sheet: "S",
+    blanksAsZeros: false,
     hasSheet: (name) => name === "S" || name === "Sheet1" || name === "Paint line",
     read: (ref: ReferenceValue) => {
       const bottom = Math.min(ref.rect.bottom, 9);

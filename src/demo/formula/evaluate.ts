@@ -32,6 +32,11 @@ export interface CustomFunction {
 export interface EvaluationContext {
   /** Sheet of the cell being calculated: references without a sheet prefix point here. */
   readonly sheet: string;
+  /**
+   * True to hand custom functions the blank cells of a range as 0, as some
+   * Excel builds do (OfficeDev/office-js issues 5262 and 1951), instead of "".
+   */
+  readonly blanksAsZeros: boolean;
   /** True when the workbook has a sheet of this name (any case). */
   hasSheet(name: string): boolean;
   /** Values of a reference, row by row (null for blank cells). */
@@ -269,7 +274,8 @@ function fromCustom(result: unknown): Value {
 function customArgument(value: Value, shape: ArgumentShape, context: EvaluationContext): unknown {
   if (shape === "matrix") {
     const cells = cellsOf(value, context);
-    return firstError(cells) ?? cells.map((row) => row.map((cell) => (cell === null ? "" : cell)));
+    const blank = context.blanksAsZeros ? 0 : "";
+    return firstError(cells) ?? cells.map((row) => row.map((cell) => (cell === null ? blank : cell)));
   }
   // A blank cell given for a single value arrives as 0 in desktop Excel (null on the web: OfficeDev/office-js
   // issue 4702). The harsher of the two is passed, so that a blank never quietly means "the default" here.
