@@ -5,7 +5,12 @@
  * - normal method on 10^6 differences: target <= 30x the bare loop;
  * - the exact method at both limits in its slowest configuration (tie pairs make every score odd, so the
  *   score total doubles, and a p-value near 1 needs half the distribution);
- * - how far the continuity-corrected normal p-value is from the exact one at several sizes.
+ * - how far the continuity-corrected normal p-value is from the exact one at several sizes;
+ * - (issue 8, item 7) the exact p-value at n = 200..1,000 without ties against the plain recursion R 4.2's
+ *   psignrank uses (the whole lower half of the table, f_k(w) += f_(k-1)(w - k) for k = 2..n), written
+ *   here in the same engine and timed in the same run: limit 1x. R itself runs that recursion in C, about
+ *   twice as fast as this engine runs it; `npx tsx bench/signedRankVsR.ts` prints R's own times beside ours
+ *   when R is installed.
  *
  * Data: invented, from a fixed-seed generator.
  */
@@ -13,7 +18,7 @@ import { differencesFrom } from "../src/stats/differences";
 import { normalLowerTail } from "../src/stats/normal";
 import { EXACT_AUTO_LIMIT, EXACT_LIMIT, signedRankNullCdf, signedRankTest } from "../src/stats/signedRank";
 import { alternate, bareLoop, columnOf } from "./cells.bench";
-import { report, timeMedian } from "./timing";
+import { fastestAlternating, report, timeMedian } from "./timing";
 import { xorshift32 as uniforms } from "../src/stats/xorshift";
 
 const N = 1_000_000;
@@ -24,6 +29,30 @@ function slowestExact(m: number): Float64Array {
   const d = new Float64Array(m);
   for (let i = 0; i < m; i++) d[i] = (i % 2 === 0 ? 1 : -1) * (1 + (i >> 1));
   return d;
+}
+
+/**
+ * R's method for an untied sample (src/library/stats/src/signrank.c, csignrank, read from memory): the
+ * count table up to c = floor(n(n+1)/4), the lower tail summed from it, two-sided doubled. Only a baseline.
+ */
+function plainRecursionPValue(n: number, v: number): number {
+  const c = Math.floor((n * (n + 1)) / 4);
+  const w = new Float64Array(c + 1);
+  w[0] = 1;
+  for (let k = 1; k <= n; k++) {
+    const end = Math.min((k * (k + 1)) / 2, c);
+    for (let i = end; i >= k; i--) w[i] += w[i - k];
+  }
+  const q = Math.min(v, (n * (n + 1)) / 2 - v);
+  let sum = 0;
+  for (let i = 0; i <= Math.min(q, c); i++) sum += w[i];
+  return Math.min(1, 2 * sum * 2 ** -n);
+}
+
+/** Untied differences with random signs, invented from a fixed seed. */
+function untied(n: number, seed: number): Float64Array {
+  const next = uniforms(seed);
+  return Float64Array.from({ length: n }, (_, i) => (next() < 0.5 ? -1 : 1) * (i + 1 + next() * 0.5));
 }
 
 export async function run(): Promise<void> {
@@ -53,6 +82,23 @@ export async function run(): Promise<void> {
       if (r.available) sink += r.pValue;
     }, 3);
     report(`exact, slowest case at ${label} = ${m} (${ms.toFixed(0)} ms)`, ms, baseMs);
+  }
+
+  for (const n of [200, 400, 600, 800, 1000]) {
+    const d = untied(n, n);
+    const probe = signedRankTest(d, { method: "exact" });
+    const v = probe.available ? probe.statistic : 0;
+    const timed = fastestAlternating(
+      () => (sink += plainRecursionPValue(n, v)),
+      () => {
+        const r = signedRankTest(d, { method: "exact" });
+        if (r.available) sink += r.pValue;
+      },
+      3,
+      2,
+      2,
+    );
+    report(`exact, no ties, n = ${n}, against the plain recursion`, timed.ms, timed.baseMs, 1);
   }
 
   // Relative error of the normal approximation in the lower tail, untied ranks, at exact p near each level.

@@ -17,13 +17,15 @@
  *   Statistics 29, 1165-1188.
  * The adjusted values match R's p.adjust (checked against it in the tests).
  *
- * Cost: O(m) time: the ordering is a least-significant-digit radix sort of the
- * p-values' IEEE 754 bit patterns (for doubles >= 0 the bits, read as an unsigned
- * 64-bit integer, order exactly as the numbers do), four passes of 16 bits,
- * each skipped when all keys share its digit (D. E. Knuth (1998), "The Art of
- * Computer Programming, Vol. 3", 2nd ed., section 5.2.5, from memory). Equal
- * p-values get equal adjusted values whatever their order, so stability is
- * not needed. O(m) memory.
+ * Cost: O(m) expected time: the ordering is a least-significant-digit radix
+ * sort of the high 32 bits of the p-values' IEEE 754 bit patterns (for doubles
+ * >= 0 the bits, read as an unsigned integer, order exactly as the numbers do),
+ * two passes of 16 bits, each skipped when all keys share its digit (D. E.
+ * Knuth (1998), "The Art of Computer Programming, Vol. 3", 2nd ed., section
+ * 5.2.5, from memory), then an insertion pass that orders the few neighbours
+ * sharing a high word (O(m^2) only if most p-values agree in their first 20
+ * fraction bits and differ after). Equal p-values get equal adjusted values
+ * whatever their order, so stability is not needed. O(m) memory.
  */
 import type { AdjustMethod } from "./types";
 
@@ -94,21 +96,33 @@ const BUCKETS = 1 << DIGIT_BITS;
 const HIGH = new Uint8Array(new Uint32Array([1]).buffer)[0] === 1 ? 1 : 0;
 
 /**
- * Sorts non-negative doubles (no NaN, no -0) ascending, carrying `places` along: LSD radix sort on the four
- * 16-bit digits of the bit patterns, low digit first. Sorts into fresh buffers; the inputs are reused as
- * scratch space.
+ * Sorts non-negative doubles (no NaN, no -0) ascending, carrying `places` along. For such doubles the bits
+ * read as an unsigned integer order as the numbers do; an LSD radix sort on the two 16-bit digits of the
+ * high 32-bit word (sign, exponent and the top 20 bits of the fraction) leaves out of order only values
+ * that share that word, next to each other, and an insertion pass puts those right. Should that pass have
+ * much to do (most values agreeing in their high word), the low word's two digits are sorted too, first
+ * as LSD order requires, and the high word's again. The inputs are reused as scratch space.
  */
 function sortAscending(keys: Float64Array, places: Uint32Array): SortedKeys {
-  const m = keys.length;
-  let fromKeys: Float64Array = keys;
-  let fromPlaces: Uint32Array = places;
+  let sorted = radixPasses({ keys, places }, [HIGH, HIGH], [0, DIGIT_BITS]);
+  if (!insertionFinished(sorted, 8 * keys.length)) {
+    sorted = radixPasses(sorted, [1 - HIGH, 1 - HIGH, HIGH, HIGH], [0, DIGIT_BITS, 0, DIGIT_BITS]);
+  }
+  return sorted;
+}
+
+/** LSD radix passes on the 16-bit digits given by word index and shift, in order; a digit all keys share is skipped. */
+function radixPasses(input: SortedKeys, wordOf: readonly number[], shiftOf: readonly number[]): SortedKeys {
+  const m = input.keys.length;
+  let fromKeys: Float64Array = input.keys;
+  let fromPlaces: Uint32Array = input.places;
   let toKeys: Float64Array = new Float64Array(m);
   let toPlaces: Uint32Array = new Uint32Array(m);
   const counts = new Int32Array(BUCKETS);
-  for (let digit = 0; digit < 4; digit++) {
+  for (let pass = 0; pass < wordOf.length; pass++) {
     const words = new Uint32Array(fromKeys.buffer, fromKeys.byteOffset, 2 * m);
-    const word = digit < 2 ? 1 - HIGH : HIGH;
-    const shift = (digit & 1) * DIGIT_BITS;
+    const word = wordOf[pass];
+    const shift = shiftOf[pass];
     counts.fill(0);
     for (let k = 0; k < m; k++) counts[(words[2 * k + word] >>> shift) & (BUCKETS - 1)]++;
     if (counts[(words[word] >>> shift) & (BUCKETS - 1)] === m) continue; // every key has this digit: nothing moves
@@ -127,4 +141,29 @@ function sortAscending(keys: Float64Array, places: Uint32Array): SortedKeys {
     [fromPlaces, toPlaces] = [toPlaces, fromPlaces];
   }
   return { keys: fromKeys, places: fromPlaces };
+}
+
+/**
+ * Insertion sort of nearly sorted keys in place, carrying places along; gives up (false, keys still a
+ * permutation of the input) once more than `budget` moves would be needed.
+ */
+function insertionFinished(sorted: SortedKeys, budget: number): boolean {
+  const { keys, places } = sorted;
+  let moves = 0;
+  for (let k = 1; k < keys.length; k++) {
+    const key = keys[k];
+    if (!(key < keys[k - 1])) continue;
+    const place = places[k];
+    let j = k - 1;
+    while (j >= 0 && keys[j] > key) {
+      keys[j + 1] = keys[j];
+      places[j + 1] = places[j];
+      j--;
+    }
+    keys[j + 1] = key;
+    places[j + 1] = place;
+    moves += k - 1 - j;
+    if (moves > budget) return false;
+  }
+  return true;
 }

@@ -94,6 +94,12 @@ describe("adjustPValues on large sets, against the definitions applied literally
     const plus = p.map((x) => x + 0);
     for (const method of METHODS) expect([method, ...adjustPValues(p, method)]).toEqual([method, ...byDefinition(plus, method)]);
   });
+
+  it("agrees exactly when most p-values share their leading bits (the ordering's slower path)", () => {
+    // 0.05 + k 2^-60: all share sign, exponent and the first 20 fraction bits, so only the low word orders them.
+    const p = Array.from({ length: 5000 }, (_, i) => 0.05 + ((i * 7919) % 5000) * 2 ** -60);
+    for (const method of METHODS) expect([method, ...adjustPValues(p, method)]).toEqual([method, ...byDefinition(p, method)]);
+  });
 });
 
 describe("adjustPValues properties (fast-check)", () => {
