@@ -138,6 +138,7 @@ describe("manifest.xml", () => {
         "PAIREDSTATISTIC", "PAIREDBOUNDS", "SIGNRANKSTATISTIC", "PAIREDSIGNRANKSTATISTIC",
         "WATCHPVALUE", "WATCHBOUNDS", "SPRT",
         "TWOGROUPS", "SHIFT", "GROUPS", "BYGROUP",
+        "COUNTPVALUE", "ORDERRANKS",
       ]),
     );
   });
