@@ -200,6 +200,64 @@ export function differenceMatrix(first: ArrayLike<number>, second: ArrayLike<num
   return { a: distinct(first), b, pairs: first.length * second.length, padded: withStop(b.values) };
 }
 
+/** Scratch arrays and sampling settings of one selection. */
+interface Walks {
+  lowEnds: Int32Array;
+  highEnds: Int32Array;
+  lowAtMostEnds: Int32Array;
+  highAtMostEnds: Int32Array;
+  random: () => number;
+  gatherAt: number;
+  size: number;
+  bracket: number;
+}
+
+function walksFor(matrix: DifferenceMatrix, seed: number): Walks {
+  const p = matrix.a.values.length;
+  const q = matrix.b.values.length;
+  const size = sampleSize(p + q);
+  return {
+    lowEnds: new Int32Array(p),
+    highEnds: new Int32Array(p),
+    lowAtMostEnds: new Int32Array(p),
+    highAtMostEnds: new Int32Array(p),
+    random: xorshift(0x9e3779b9 ^ p ^ (q << 7) ^ seed),
+    gatherAt: Math.max(GATHER_MIN, (p + q) >> 2),
+    size,
+    bracket: 2 * Math.sqrt(size),
+  };
+}
+
+function allCandidates(matrix: DifferenceMatrix): Candidates {
+  const p = matrix.a.values.length;
+  const q = matrix.b.values.length;
+  return { left: new Int32Array(p), right: new Int32Array(p).fill(q - 1), count: matrix.pairs, cells: p * q, below: 0 };
+}
+
+/** The k-th smallest difference among the candidates (which must hold it), narrowing them in place. */
+function selectAmong(matrix: DifferenceMatrix, c: Candidates, k: number, w: Walks): number {
+  const { a, b, padded } = matrix;
+  while (c.cells > w.gatherAt) {
+    const sample = sampleCandidates(a, b, c, w.size, w.random);
+    const target = ((k - c.below) / c.count) * w.size;
+    const low = sample[Math.max(0, Math.floor(target - w.bracket))];
+    const high = sample[Math.min(w.size - 1, Math.ceil(target + w.bracket))];
+    // Each bracket end is a candidate and is either returned or left out, so every round makes progress
+    // even when ties make many differences equal to an end.
+    const atLow = countAround(a, padded, b.before, low, w.lowEnds, w.lowAtMostEnds);
+    if (k <= atLow.less) {
+      narrow(a, b, c, null, w.lowEnds);
+      continue;
+    }
+    if (k <= atLow.atMost) return low;
+    const atHigh = countAround(a, padded, b.before, high, w.highEnds, w.highAtMostEnds);
+    if (k <= atHigh.less) narrow(a, b, c, w.lowAtMostEnds, w.highEnds);
+    else if (k <= atHigh.atMost) return high;
+    else narrow(a, b, c, w.highAtMostEnds, null);
+  }
+  return selectGathered(a, b, c, k);
+}
+
 /**
  * The k-th smallest (1-based) difference of the matrix, without forming the m·n differences. The caller
  * checks k and that the extreme differences are finite.
@@ -208,37 +266,40 @@ export function differenceMatrix(first: ArrayLike<number>, second: ArrayLike<num
  * differenceOrderStatistic(differenceMatrix([1, 4], [2, 3, 9]), 2); // -1: the differences are 1, 2, 8, -2, -1, 5
  */
 export function differenceOrderStatistic(matrix: DifferenceMatrix, k: number): number {
+  return selectAmong(matrix, allCandidates(matrix), k, walksFor(matrix, k));
+}
+
+/**
+ * Several order statistics at once (ranks 1-based, in any order), answered in the order asked. Bounds and
+ * the estimate lie close together among the m·n differences, so the first rounds narrow the candidates
+ * around all of them together (each round keeps what lies strictly between two sample values bracketing
+ * the lowest and the highest rank), while that still halves them; each rank is then selected on its own
+ * from a copy of what is left.
+ *
+ * @example
+ * differenceOrderStatistics(differenceMatrix([1, 4], [2, 3, 9]), [5, 2]); // [5, -1]
+ */
+export function differenceOrderStatistics(matrix: DifferenceMatrix, ranks: readonly number[]): number[] {
   const { a, b, padded } = matrix;
-  const p = a.values.length;
-  const q = b.values.length;
-  const c: Candidates = { left: new Int32Array(p), right: new Int32Array(p).fill(q - 1), count: matrix.pairs, cells: p * q, below: 0 };
-  const lowEnds = new Int32Array(p);
-  const highEnds = new Int32Array(p);
-  const lowAtMostEnds = new Int32Array(p);
-  const highAtMostEnds = new Int32Array(p);
-  const random = xorshift(0x9e3779b9 ^ p ^ (q << 7) ^ k);
-  const gatherAt = Math.max(GATHER_MIN, (p + q) >> 2);
-  const size = sampleSize(p + q);
-  const bracket = 2 * Math.sqrt(size);
-  while (c.cells > gatherAt) {
-    const sample = sampleCandidates(a, b, c, size, random);
-    const target = ((k - c.below) / c.count) * size;
-    const low = sample[Math.max(0, Math.floor(target - bracket))];
-    const high = sample[Math.min(size - 1, Math.ceil(target + bracket))];
-    // Each bracket end is a candidate and is either returned or left out, so every round makes progress
-    // even when ties make many differences equal to an end.
-    const atLow = countAround(a, padded, b.before, low, lowEnds, lowAtMostEnds);
-    if (k <= atLow.less) {
-      narrow(a, b, c, null, lowEnds);
-      continue;
-    }
-    if (k <= atLow.atMost) return low;
-    const atHigh = countAround(a, padded, b.before, high, highEnds, highAtMostEnds);
-    if (k <= atHigh.less) narrow(a, b, c, lowAtMostEnds, highEnds);
-    else if (k <= atHigh.atMost) return high;
-    else narrow(a, b, c, highAtMostEnds, null);
+  const lowest = Math.min(...ranks);
+  const highest = Math.max(...ranks);
+  const shared = allCandidates(matrix);
+  const w = walksFor(matrix, lowest ^ highest);
+  while (shared.cells > w.gatherAt) {
+    const sample = sampleCandidates(a, b, shared, w.size, w.random);
+    const low = sample[Math.max(0, Math.floor(((lowest - shared.below) / shared.count) * w.size - w.bracket))];
+    const high = sample[Math.min(w.size - 1, Math.ceil(((highest - shared.below) / shared.count) * w.size + w.bracket))];
+    const atLow = countAround(a, padded, b.before, low, w.lowEnds, w.lowAtMostEnds);
+    const atHigh = countAround(a, padded, b.before, high, w.highEnds, w.highAtMostEnds);
+    if (!(atLow.atMost < lowest && highest <= atHigh.less)) break; // a rank at or beyond an end: finish one by one
+    const before = shared.cells;
+    narrow(a, b, shared, w.lowAtMostEnds, w.highEnds);
+    if (2 * shared.cells > before) break; // the ranks' own spread now bounds the band
   }
-  return selectGathered(a, b, c, k);
+  return ranks.map((k) => {
+    const own: Candidates = { ...shared, left: shared.left.slice(), right: shared.right.slice() };
+    return selectAmong(matrix, own, k, w);
+  });
 }
 
 /** The (k+1)-th smallest difference given the k-th, `value`: one staircase walk instead of a second selection. */

@@ -21,7 +21,7 @@
  * expected time, p and q the numbers of distinct values; O(m + n) memory; the exact rank adds O(min(m, n) m n) at worst,
  * for m + n <= EXACT_AUTO_SIZE.
  */
-import { differenceMatrix, differenceOrderStatistic, nextDifference, type DifferenceMatrix } from "./differenceSelection";
+import { differenceMatrix, differenceOrderStatistic, differenceOrderStatistics, nextDifference, type DifferenceMatrix } from "./differenceSelection";
 import { normalLowerTail, normalQuantile } from "./normal";
 import { confidenceWords } from "./quantileBounds";
 import { EXACT_AUTO_SIZE } from "./rankSum";
@@ -63,13 +63,18 @@ function differencesFit(matrix: DifferenceMatrix): boolean {
 
 const TOO_LARGE = "A difference between the groups is too large to hold as a number (values near ±1E+308 on opposite sides); rescale the data (other units).";
 
-function medianDifference(matrix: DifferenceMatrix): number {
+/** The median of the differences given the lower middle one (rank floor((mn + 1)/2)). */
+function medianFrom(matrix: DifferenceMatrix, lowerMiddle: number): number {
   const count = matrix.pairs;
-  if (count % 2 === 1) return differenceOrderStatistic(matrix, (count + 1) / 2) + 0;
-  const lowerMiddle = differenceOrderStatistic(matrix, count / 2);
+  if (count % 2 === 1) return lowerMiddle + 0;
   const upperMiddle = nextDifference(matrix, lowerMiddle, count / 2);
   const m = (lowerMiddle + upperMiddle) / 2;
   return (Number.isFinite(m) ? m : lowerMiddle / 2 + upperMiddle / 2) + 0;
+}
+
+/** Rank of the lower middle difference: the median itself for an odd count. */
+function middleRank(count: number): number {
+  return Math.floor((count + 1) / 2);
 }
 
 /**
@@ -85,7 +90,7 @@ export function shiftEstimate(first: ArrayLike<number>, second: ArrayLike<number
   checkFinite(first, second, "shiftEstimate");
   const matrix = differenceMatrix(first, second);
   if (!differencesFit(matrix)) return unavailable("unreachable", TOO_LARGE);
-  return medianDifference(matrix);
+  return medianFrom(matrix, differenceOrderStatistic(matrix, middleRank(matrix.pairs)));
 }
 
 /** Rank k of the bounds and their coverage, or null when even k = 1 does not reach the confidence. */
@@ -160,11 +165,14 @@ export function shiftBounds(
     return unavailable("unreachable", `${what} larger groups (for example ${needed} values in each); there are ${m} and ${n}.`, needed);
   }
   const count = m * n;
+  // The bounds and the estimate are selected together: they lie close together among the m·n differences.
+  const ranks = [middleRank(count), ...(side === "upper" ? [] : [rank.k]), ...(side === "lower" ? [] : [count - rank.k + 1])];
+  const [middle, ...ends] = differenceOrderStatistics(matrix, ranks);
   return {
     available: true,
-    estimate: medianDifference(matrix),
-    lower: side === "upper" ? null : differenceOrderStatistic(matrix, rank.k) + 0,
-    upper: side === "lower" ? null : differenceOrderStatistic(matrix, count - rank.k + 1) + 0,
+    estimate: medianFrom(matrix, middle),
+    lower: side === "upper" ? null : ends[0] + 0,
+    upper: side === "lower" ? null : ends[ends.length - 1] + 0,
     achievedConfidence: rank.achieved,
     confidence,
     side,

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import { differenceMatrix, differenceOrderStatistic } from "../../src/stats/differenceSelection";
+import { differenceMatrix, differenceOrderStatistic, differenceOrderStatistics } from "../../src/stats/differenceSelection";
 import { rankSumTest } from "../../src/stats/rankSum";
 import { shiftBounds, shiftEstimate, type ShiftResult } from "../../src/stats/shiftBounds";
 
@@ -25,7 +25,13 @@ describe("differenceOrderStatistic against the sorted list of every difference (
       fc.property(fc.array(value, { minLength: 1, maxLength: 250 }), fc.array(value, { minLength: 1, maxLength: 250 }), fc.nat(), (x, y, seed) => {
         const d = allDifferences(x, y);
         const matrix = differenceMatrix(sorted(x), sorted(y));
-        for (const k of [1, d.length, 1 + (seed % d.length), Math.ceil(d.length / 2)]) expect(differenceOrderStatistic(matrix, k)).toBe(d[k - 1]);
+        const ranks = [1, d.length, 1 + (seed % d.length), Math.ceil(d.length / 2)];
+        for (const k of ranks) expect(differenceOrderStatistic(matrix, k)).toBe(d[k - 1]);
+        // Several at once, as SHIFT asks for them: close together around the middle, and spread out.
+        const middle = Math.ceil(d.length / 2);
+        const near = [middle, Math.max(1, middle - 1 - (seed % 50)), Math.min(d.length, middle + 1 + (seed % 70))];
+        expect(differenceOrderStatistics(matrix, near)).toEqual(near.map((k) => d[k - 1]));
+        expect(differenceOrderStatistics(matrix, ranks)).toEqual(ranks.map((k) => d[k - 1]));
       }),
       { numRuns: 200 },
     );
