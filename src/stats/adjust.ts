@@ -20,7 +20,7 @@
  * Cost: O(m) expected time: the ordering is a least-significant-digit radix
  * sort of the high 32 bits of the p-values' IEEE 754 bit patterns (for doubles
  * >= 0 the bits, read as an unsigned integer, order exactly as the numbers do),
- * two passes of 16 bits, each skipped when all keys share its digit (D. E.
+ * three passes of 11 bits, each skipped when all keys share its digit (D. E.
  * Knuth (1998), "The Art of Computer Programming, Vol. 3", 2nd ed., section
  * 5.2.5, from memory), then an insertion pass that orders the few neighbours
  * sharing a high word (O(m^2) only if most p-values agree in their first 20
@@ -90,28 +90,32 @@ interface SortedKeys {
   readonly places: Uint32Array;
 }
 
-const DIGIT_BITS = 16;
+const DIGIT_BITS = 11;
 const BUCKETS = 1 << DIGIT_BITS;
 /** Index of the high 32-bit word of a double in a Uint32Array view (1 on little-endian machines). */
 const HIGH = new Uint8Array(new Uint32Array([1]).buffer)[0] === 1 ? 1 : 0;
 
 /**
  * Sorts non-negative doubles (no NaN, no -0) ascending, carrying `places` along. For such doubles the bits
- * read as an unsigned integer order as the numbers do; an LSD radix sort on the two 16-bit digits of the
+ * read as an unsigned integer order as the numbers do; an LSD radix sort on the three 11-bit digits of the
  * high 32-bit word (sign, exponent and the top 20 bits of the fraction) leaves out of order only values
  * that share that word, next to each other, and an insertion pass puts those right. Should that pass have
- * much to do (most values agreeing in their high word), the low word's two digits are sorted too, first
+ * much to do (most values agreeing in their high word), the low word's three digits are sorted too, first
  * as LSD order requires, and the high word's again. The inputs are reused as scratch space.
  */
 function sortAscending(keys: Float64Array, places: Uint32Array): SortedKeys {
-  let sorted = radixPasses({ keys, places }, [HIGH, HIGH], [0, DIGIT_BITS]);
+  let sorted = radixPasses({ keys, places }, [HIGH, HIGH, HIGH], [0, DIGIT_BITS, 2 * DIGIT_BITS]);
   if (!insertionFinished(sorted, 8 * keys.length)) {
-    sorted = radixPasses(sorted, [1 - HIGH, 1 - HIGH, HIGH, HIGH], [0, DIGIT_BITS, 0, DIGIT_BITS]);
+    const low = 1 - HIGH;
+    sorted = radixPasses(sorted, [low, low, low, HIGH, HIGH, HIGH], [0, DIGIT_BITS, 2 * DIGIT_BITS, 0, DIGIT_BITS, 2 * DIGIT_BITS]);
   }
   return sorted;
 }
 
-/** LSD radix passes on the 16-bit digits given by word index and shift, in order; a digit all keys share is skipped. */
+/**
+ * LSD radix passes on the 11-bit digits given by word index and shift, in order (2,048 buckets: their write
+ * positions stay in cache, where 65,536 would not); a digit all keys share is skipped.
+ */
 function radixPasses(input: SortedKeys, wordOf: readonly number[], shiftOf: readonly number[]): SortedKeys {
   const m = input.keys.length;
   let fromKeys: Float64Array = input.keys;
