@@ -5,16 +5,17 @@
  *
  * Method: each group on its own as the one-sample functions treat a range: the sign test
  * (signTest.ts: exact binomial, values equal to the hypothesised median dropped), the bounds
- * (quantileBounds.ts: exact, two-sided for a two-sided question, the one bound that matters
- * for a one-sided one), the median by selection (selection.ts). The p-values of the groups
+ * (the exact order-statistic ranks of quantileBounds.ts: two-sided for a two-sided question, the
+ * one bound that matters for a one-sided one), found with the median in one multi-rank selection
+ * (selection.ts). The p-values of the groups
  * that have one are then adjusted together (adjust.ts: Holm by default), so that a group
  * picked out because its p-value is small is judged knowing how many groups were looked at.
  *
  * Cost: O(N) expected time over all groups (selection and counting; no sort), O(N) memory.
  */
 import { adjustPValues } from "./adjust";
-import { quantileBounds } from "./quantileBounds";
-import { selectInPlace } from "./selection";
+import { boundRanks } from "./quantileBounds";
+import { selectManyInPlace } from "./selection";
 import { countSigns } from "./signCounts";
 import { signTest } from "./signTest";
 import type { AdjustMethod, Alternative, BoundSide } from "./types";
@@ -56,15 +57,19 @@ function sideFor(alternative: Alternative): BoundSide {
   return alternative === "greater" ? "lower" : alternative === "less" ? "upper" : "two-sided";
 }
 
-/** Median of the values, reordering them (they belong to the caller's scratch copy). */
-function medianInPlace(values: Float64Array): number {
+/**
+ * The median and the order statistics of the given one-based ranks (null for none), in one multi-rank
+ * selection on the values, which it reorders (they belong to the caller's scratch copy).
+ */
+function medianAndRanks(values: Float64Array, lowerRank: number | null, upperRank: number | null): { median: number; lower: number | null; upper: number | null } {
   const n = values.length;
-  const upper = selectInPlace(values, n >> 1);
-  if (n % 2 === 1) return upper;
-  let lower = -Infinity;
-  for (let i = 0; i < n >> 1; i++) if (values[i] > lower) lower = values[i];
-  const mid = (lower + upper) / 2;
-  return Number.isFinite(mid) ? mid : lower / 2 + upper / 2;
+  const middle = n % 2 === 1 ? [(n - 1) / 2] : [n / 2 - 1, n / 2];
+  const ends = [lowerRank, upperRank].filter((r): r is number => r !== null).map((r) => r - 1);
+  const found = selectManyInPlace(values, [...middle, ...ends]);
+  const mid = middle.length === 1 ? found[0] : (found[0] + found[1]) / 2;
+  const median = Number.isFinite(mid) ? mid : found[0] / 2 + found[1] / 2;
+  const at = middle.length;
+  return { median, lower: lowerRank === null ? null : found[at], upper: upperRank === null ? null : found[found.length - 1] };
 }
 
 /**
@@ -94,15 +99,16 @@ export function summariseGroups(groups: readonly Float64Array[], center: number,
       continue;
     }
     const test = signTest(countSigns(values, center), { alternative });
-    const bounds = quantileBounds(values, { confidence, side });
-    const noBounds: Missing = { missing: bounds.available ? "" : bounds.message };
+    const ranks = boundRanks(n, 0.5, confidence, side);
+    const noBounds: Missing = { missing: ranks.available ? "" : ranks.message };
+    const picked = ranks.available ? medianAndRanks(values, ranks.lowerRank, ranks.upperRank) : medianAndRanks(values, null, null);
     if (test.available) pValues[g] = test.pValue;
     rows.push({
       n,
-      median: medianInPlace(values),
-      lower: bounds.available ? bounds.lower : noBounds,
-      upper: bounds.available ? bounds.upper : noBounds,
-      coverage: bounds.available ? bounds.achievedConfidence : noBounds,
+      median: picked.median,
+      lower: ranks.available ? picked.lower : noBounds,
+      upper: ranks.available ? picked.upper : noBounds,
+      coverage: ranks.available ? ranks.achievedConfidence : noBounds,
       pValue: test.available ? test.pValue : { missing: test.message },
       // filled in below, once every group's p-value is known
       adjustedPValue: test.available ? NaN : { missing: test.message },

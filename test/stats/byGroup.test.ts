@@ -25,6 +25,16 @@ describe("groupCells", () => {
     expect(g.labelErrors).toBe(1);
   });
 
+  it("tells apart labels that share a cache slot (same length, same last two characters), and still folds case", () => {
+    const labels = ["Line 10", "Fine 10", "line 10", "Fine 10", "LINE 10", "Mine 10"];
+    const g = groupCells(labels.map((_, i) => [i]), labels.map((l) => [l]));
+    expect(g.groups.map((x) => [x.label, Array.from(x.values)])).toEqual([
+      ["Line 10", [0, 2, 4]],
+      ["Fine 10", [1, 3]],
+      ["Mine 10", [5]],
+    ]);
+  });
+
   it("refuses ranges of different shapes", () => {
     expect(() => groupCells([[1], [2]], [["a"]])).toThrow(RangeError);
   });
