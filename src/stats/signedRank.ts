@@ -39,17 +39,19 @@ import { unavailable, type Unavailable } from "./types";
 /**
  * `auto` is exact up to this many non-zero differences. Chosen by measurement with
  * `npx tsx bench/run.ts signedRank` (2-core machine shared with other work): the slowest
- * exact case at 400 (tie pairs making every score odd, p near 1) took 73-100 ms, 6-9x a bare
- * loop over 10^6 cells and less than the normal method on 10^6 differences (13-18x); the
- * cost grows as n^3, so 600 would take about 0.3 s. At 400 the continuity-corrected normal
- * p-value is off by 0.04% at p = 0.05, 0.6% at 0.01, 2.6% at 0.001 and 19% at 1e-6 (same
- * bench), so below this size exactness is worth its cost.
+ * exact case at 400 (tie pairs making every score odd, p near 1) took 73-100 ms with the plain
+ * recursion and takes about 12 ms with the halved one (issue 8); the cost grows as n^3. At 400
+ * the continuity-corrected normal p-value is off by 0.04% at p = 0.05, 0.6% at 0.01, 2.6% at
+ * 0.001 and 19% at 1e-6 (same bench), so below this size exactness is worth its cost. The
+ * limit is also where the Hodges-Lehmann bounds (hodgesLehmann.ts) stop using the plain
+ * recursion for their exact rank, and where the result block's words change; it is kept while
+ * the exact p-value at 1,000 is not yet clearly faster than R's (bench/signedRankVsR.ts).
  */
 export const EXACT_AUTO_LIMIT = 400;
 
 /**
  * `exact` is honoured up to this many non-zero differences: the slowest case took 1.1-1.6 s in
- * the same bench. Above it the O(n^3) cost would freeze a spreadsheet, so the normal approximation
+ * the same bench with the plain recursion, about 0.4 s with the halved one. Above it the O(n^3) cost would freeze a spreadsheet, so the normal approximation
  * is used and `method` says so (at 1000 it is off by 0.2% at p = 0.01 and 1% at 0.001).
  */
 export const EXACT_LIMIT = 1000;
