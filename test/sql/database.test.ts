@@ -74,6 +74,33 @@ afterAll(() => {
   instance?.closeSync();
 });
 
+describe("the README's SQL on a small table, as the README describes it", () => {
+  it("leaves out NULL measurements, and gives empty bounds to a group without ranks and to a NULL label", async () => {
+    const small = await DuckDBInstance.create(":memory:");
+    const c = await small.connect();
+    try {
+      await c.run(`CREATE TABLE measurements (group_label VARCHAR, measurement DOUBLE)`);
+      // Invented: line A 49, 50, 51, 52, NULL; line B 47, 53; a row with no label.
+      await c.run(`INSERT INTO measurements VALUES ('A', 49), ('A', 50), ('A', 51), ('A', 52), ('A', NULL), ('B', 47), ('B', 53), (NULL, 50.5)`);
+      await c.run(`CREATE TABLE median_question AS SELECT 50 AS hypothesised_median, 2 AS lower_rank, 6 AS upper_rank`);
+      await c.run(`CREATE TABLE group_ranks (group_label VARCHAR, lower_rank BIGINT, upper_rank BIGINT)`);
+      await c.run(`INSERT INTO group_ranks VALUES ('A', 1, 4), (NULL, 1, 1)`);
+      const one = (await c.runAndReadAll(ONE_COLUMN)).getRowObjects().map((r) => Object.values(r).map((v) => (v === null ? null : Number(v))));
+      // Seven values 47, 49, 50, 50.5, 51, 52, 53 (by hand): 2 below 50, 1 tied, 4 above; 2nd smallest 49, 6th 52.
+      expect(one).toEqual([[7, 2, 1, 4, 49, 52]]);
+      const grouped = (await c.runAndReadAll(BY_GROUP)).getRowObjects().map((r) => Object.values(r).map((v) => (v === null || typeof v === "string" ? v : Number(v))));
+      expect(grouped).toEqual([
+        ["A", 4, 1, 1, 2, 49, 52],
+        ["B", 2, 1, 0, 1, null, null],
+        [null, 1, 0, 0, 1, null, null],
+      ]);
+    } finally {
+      c.closeSync();
+      small.closeSync();
+    }
+  });
+});
+
 describe("the README's SQL in DuckDB", () => {
   it("is the text the README quotes", () => {
     const readme = readFileSync(new URL("../../README.md", import.meta.url), "utf8");
