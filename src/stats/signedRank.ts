@@ -19,7 +19,8 @@
  *   lower half is built (the rest is read in mirror); and the scores are dealt
  *   alternately into two sets whose distributions are built separately, so
  *   each recursion runs over half the scores and a quarter of the total, and
- *   P(W <= q) = sum_x P(A = x) P(B <= q - x) joins them in one O(q) pass.
+ *   P(W <= q) = sum_x P(A = x) P(B <= q - x) joins them in one O(q) pass (B is
+ *   built in units of its scores' common divisor: 2 for untied ranks).
  * - Normal approximation: mean and variance of V given the ranks (with the
  *   usual tie correction sum(t^3 - t)/48), continuity correction 1/2, as R's
  *   wilcox.test(correct = TRUE): E. L. Lehmann (1975), "Nonparametrics:
@@ -221,15 +222,19 @@ export function signedRankLowerTail(scores: ArrayLike<number>, q: number): numbe
     else second[k >> 1] = sorted[k];
   }
   const a = lowerHalf(first, q);
-  const b = lowerHalf(second, q);
-  // P(B <= y) for y = 0..min(q, total of B), in B's scale.
-  const top = Math.min(q, b.total);
+  // B in units of its scores' common divisor: untied ranks deal the even scores to B, which halves its table.
+  let unit = 0;
+  for (let k = 0; k < second.length; k++) unit = greatestCommonDivisor(second[k], unit);
+  if (unit > 1) for (let k = 0; k < second.length; k++) second[k] /= unit;
+  const b = lowerHalf(second, Math.floor(q / Math.max(1, unit)));
+  // P(B <= y units) for y = 0..min(q / unit, total of B), in B's scale.
+  const top = Math.min(Math.floor(q / Math.max(1, unit)), b.total);
   const cumulative = new Float64Array(top + 1);
   let running = 0;
   for (let y = 0; y <= top; y++) cumulative[y] = running += countAt(b, y);
   let sum = 0;
   const last = Math.min(q, a.total);
-  for (let x = 0; x <= last; x++) sum += countAt(a, x) * cumulative[Math.min(q - x, top)];
+  for (let x = 0; x <= last; x++) sum += countAt(a, x) * cumulative[Math.min(Math.floor((q - x) / Math.max(1, unit)), top)];
   return timesPowerOfTwo(sum, a.exponent + b.exponent - sorted.length);
 }
 
