@@ -84,7 +84,8 @@ export const REFERENCE_CASES: readonly ReferenceCase[] = [
     fn: "PVALUE",
     args: [BATCHES, 50, "greater"],
     expected: TAIL_18_OF_25,
-    source: "Exact arithmetic: (C(25,18) + … + C(25,25)) / 2^25 = 363103/16777216; R 4.2 binom.test(18, 25, alternative = \"greater\") agrees (test/fixtures/counts.json)",
+    source:
+      'Exact arithmetic: (C(25,18) + … + C(25,25)) / 2^25 = 363103/16777216; R 4.2 binom.test(18, 25, alternative = "greater") agrees (test/fixtures/counts.json)',
     tolerance: 1e-15,
   },
   {
@@ -216,7 +217,8 @@ export const REFERENCE_CASES: readonly ReferenceCase[] = [
 ];
 
 function errorCode(value: unknown): string | null {
-  if (typeof value === "object" && value !== null && typeof (value as { code?: unknown }).code === "string") return (value as { code: string }).code;
+  if (typeof value === "object" && value !== null && typeof (value as { code?: unknown }).code === "string")
+    return (value as { code: string }).code;
   return null;
 }
 

@@ -76,7 +76,11 @@ describe("ORDERRANKS", () => {
     const sorted = [...values].sort((a, b) => a - b);
     for (const side of ["two-sided", "lower", "upper"]) {
       const [lowerRank, upperRank, coverage] = orderranks(values.length, 0.9, null, side)[0];
-      const [lower, upper, achieved] = bounds(values.map((v) => [v]), 0.9, side)[0];
+      const [lower, upper, achieved] = bounds(
+        values.map((v) => [v]),
+        0.9,
+        side,
+      )[0];
       expect(lower).toBe(lowerRank === "" ? "" : sorted[(lowerRank as number) - 1]);
       expect(upper).toBe(upperRank === "" ? "" : sorted[(upperRank as number) - 1]);
       expect(achieved).toBe(coverage);

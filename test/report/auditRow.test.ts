@@ -49,8 +49,12 @@ describe("the audit line", () => {
   });
 
   it("states every option that changes the numbers, for each test", () => {
-    const words = requests.map((request) => blockFormula(auditOf(request).row.value, { data: "A2:A9", second: "B2:B9", writtenAt: WRITTEN }));
-    expect(words[2]).toContain("Wilcoxon signed-rank test, one sample (method auto; zeros drop; less, alpha 0.01, confidence 0.9; hypothesised 50)");
+    const words = requests.map((request) =>
+      blockFormula(auditOf(request).row.value, { data: "A2:A9", second: "B2:B9", writtenAt: WRITTEN }),
+    );
+    expect(words[2]).toContain(
+      "Wilcoxon signed-rank test, one sample (method auto; zeros drop; less, alpha 0.01, confidence 0.9; hypothesised 50)",
+    );
     expect(words[3]).toContain("quantile test (quantile 0.9; exact binomial; two-sided, alpha 0.05, confidence 0.95; hypothesised 58)");
   });
 
@@ -73,7 +77,11 @@ describe("the audit line", () => {
     const block = report(data, 50, "greater");
     const last = block[block.length - 1];
     expect(last[0]).toBe("Audit");
-    expect(last[1]).toMatch(new RegExp(`^Evensplit ${EVENSPLIT_VERSION.replace(/\./g, "\\.")}; sign test, one sample .*; reads the range given \\(3 rows × 1 column\\); evaluated \\d{4}-\\d\\d-\\d\\d \\d\\d:\\d\\d:\\d\\d UTC$`));
+    expect(last[1]).toMatch(
+      new RegExp(
+        `^Evensplit ${EVENSPLIT_VERSION.replace(/\./g, "\\.")}; sign test, one sample .*; reads the range given \\(3 rows × 1 column\\); evaluated \\d{4}-\\d\\d-\\d\\d \\d\\d:\\d\\d:\\d\\d UTC$`,
+      ),
+    );
   });
 
   it("gives times in UTC to the second", () => {

@@ -38,7 +38,8 @@ describe("the installation check", () => {
   });
 
   it("fails a case whose function answers with an error or throws, giving the error", () => {
-    const refusing = (fn: string, args: unknown[]): unknown => (fn === "BOUNDS" ? [[{ code: "#N/A" }, { code: "#N/A" }, { code: "#N/A" }]] : callFunction(fn, args));
+    const refusing = (fn: string, args: unknown[]): unknown =>
+      fn === "BOUNDS" ? [[{ code: "#N/A" }, { code: "#N/A" }, { code: "#N/A" }]] : callFunction(fn, args);
     const bounds = runInstallationCheck(refusing).filter((o) => o.reference.fn === "BOUNDS");
     expect(bounds.length).toBeGreaterThan(0);
     for (const o of bounds) expect(o).toMatchObject({ actual: "#N/A", difference: null, passed: false });

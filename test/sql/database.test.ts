@@ -81,14 +81,20 @@ describe("the README's SQL on a small table, as the README describes it", () => 
     try {
       await c.run(`CREATE TABLE measurements (group_label VARCHAR, measurement DOUBLE)`);
       // Invented: line A 49, 50, 51, 52, NULL; line B 47, 53; a row with no label.
-      await c.run(`INSERT INTO measurements VALUES ('A', 49), ('A', 50), ('A', 51), ('A', 52), ('A', NULL), ('B', 47), ('B', 53), (NULL, 50.5)`);
+      await c.run(
+        `INSERT INTO measurements VALUES ('A', 49), ('A', 50), ('A', 51), ('A', 52), ('A', NULL), ('B', 47), ('B', 53), (NULL, 50.5)`,
+      );
       await c.run(`CREATE TABLE median_question AS SELECT 50 AS hypothesised_median, 2 AS lower_rank, 6 AS upper_rank`);
       await c.run(`CREATE TABLE group_ranks (group_label VARCHAR, lower_rank BIGINT, upper_rank BIGINT)`);
       await c.run(`INSERT INTO group_ranks VALUES ('A', 1, 4), (NULL, 1, 1)`);
-      const one = (await c.runAndReadAll(ONE_COLUMN)).getRowObjects().map((r) => Object.values(r).map((v) => (v === null ? null : Number(v))));
+      const one = (await c.runAndReadAll(ONE_COLUMN))
+        .getRowObjects()
+        .map((r) => Object.values(r).map((v) => (v === null ? null : Number(v))));
       // Seven values 47, 49, 50, 50.5, 51, 52, 53 (by hand): 2 below 50, 1 tied, 4 above; 2nd smallest 49, 6th 52.
       expect(one).toEqual([[7, 2, 1, 4, 49, 52]]);
-      const grouped = (await c.runAndReadAll(BY_GROUP)).getRowObjects().map((r) => Object.values(r).map((v) => (v === null || typeof v === "string" ? v : Number(v))));
+      const grouped = (await c.runAndReadAll(BY_GROUP))
+        .getRowObjects()
+        .map((r) => Object.values(r).map((v) => (v === null || typeof v === "string" ? v : Number(v))));
       expect(grouped).toEqual([
         ["A", 4, 1, 1, 2, 49, 52],
         ["B", 2, 1, 0, 1, null, null],
@@ -108,55 +114,69 @@ describe("the README's SQL in DuckDB", () => {
     expect(readme).toContain("```sql\n" + BY_GROUP + "```");
   });
 
-  it("gives the core's counts and exact median bounds for one column, and COUNTPVALUE equals PVALUE", async () => {
-    const counts = countSigns(values, HYPOTHESISED);
-    const n = values.length;
-    expect(n).toBe(ROWS - Math.ceil(ROWS / 997));
-    const [lowerRank, upperRank, coverage] = orderranks(n)[0];
-    await connection.run(`CREATE OR REPLACE TABLE median_question AS SELECT ${HYPOTHESISED} AS hypothesised_median, ${lowerRank} AS lower_rank, ${upperRank} AS upper_rank`);
-    const start = performance.now();
-    const [row] = await rowsOf(ONE_COLUMN);
-    console.log(`DuckDB: one-column query over ${ROWS.toLocaleString("en-US")} rows in ${secondsSince(start)} s`);
-    expect(row.n).toBe(n);
-    expect({ below: row.below, tied: row.tied, above: row.above }).toEqual({ below: counts.below, tied: counts.tied, above: counts.above });
-    expect(counts.tied).toBeGreaterThan(0);
-    const core = quantileBounds(values, { quantile: 0.5, confidence: 0.95, side: "two-sided", method: "exact" });
-    if (!core.available) throw new Error("the core found no bounds");
-    expect([core.lowerRank, core.upperRank, core.achievedConfidence]).toEqual([lowerRank, upperRank, coverage]);
-    expect([row.lower_bound, row.upper_bound]).toEqual([core.lower, core.upper]);
-    for (const alternative of ["two-sided", "greater", "less"]) {
-      expect(countpvalue(row.above, row.below, alternative)).toBe(pvalue([Array.from(values)], HYPOTHESISED, alternative));
-    }
-  }, MINUTES);
-
-  it("gives every group's counts and bounds in one GROUP BY", async () => {
-    const byGroup = Array.from({ length: GROUPS }, () => [] as number[]);
-    for (let i = 0; i < values.length; i++) byGroup[groups[i]].push(values[i]);
-    const ranks = byGroup.map((group, label) => {
-      const [lower, upper] = orderranks(group.length, 0.99)[0];
-      return `(${label}, ${lower}, ${upper})`;
-    });
-    await connection.run(`CREATE OR REPLACE TABLE median_question AS SELECT ${HYPOTHESISED} AS hypothesised_median`);
-    await connection.run(`CREATE OR REPLACE TABLE group_ranks (group_label INTEGER, lower_rank BIGINT, upper_rank BIGINT)`);
-    await connection.run(`INSERT INTO group_ranks VALUES ${ranks.join(", ")}`);
-    const start = performance.now();
-    const rows = await rowsOf(BY_GROUP);
-    console.log(`DuckDB: grouped query (${GROUPS} groups) over ${ROWS.toLocaleString("en-US")} rows in ${secondsSince(start)} s`);
-    expect(rows.map((row) => row.group_label)).toEqual(byGroup.map((_, label) => label));
-    for (const row of rows) {
-      const group = Float64Array.from(byGroup[row.group_label as number]);
-      const counts = countSigns(group, HYPOTHESISED);
-      const core = quantileBounds(group, { confidence: 0.99 });
-      if (!core.available) throw new Error("the core found no bounds");
-      expect(row).toEqual({
-        group_label: row.group_label,
-        n: group.length,
+  it(
+    "gives the core's counts and exact median bounds for one column, and COUNTPVALUE equals PVALUE",
+    async () => {
+      const counts = countSigns(values, HYPOTHESISED);
+      const n = values.length;
+      expect(n).toBe(ROWS - Math.ceil(ROWS / 997));
+      const [lowerRank, upperRank, coverage] = orderranks(n)[0];
+      await connection.run(
+        `CREATE OR REPLACE TABLE median_question AS SELECT ${HYPOTHESISED} AS hypothesised_median, ${lowerRank} AS lower_rank, ${upperRank} AS upper_rank`,
+      );
+      const start = performance.now();
+      const [row] = await rowsOf(ONE_COLUMN);
+      console.log(`DuckDB: one-column query over ${ROWS.toLocaleString("en-US")} rows in ${secondsSince(start)} s`);
+      expect(row.n).toBe(n);
+      expect({ below: row.below, tied: row.tied, above: row.above }).toEqual({
         below: counts.below,
         tied: counts.tied,
         above: counts.above,
-        lower_bound: core.lower,
-        upper_bound: core.upper,
       });
-    }
-  }, MINUTES);
+      expect(counts.tied).toBeGreaterThan(0);
+      const core = quantileBounds(values, { quantile: 0.5, confidence: 0.95, side: "two-sided", method: "exact" });
+      if (!core.available) throw new Error("the core found no bounds");
+      expect([core.lowerRank, core.upperRank, core.achievedConfidence]).toEqual([lowerRank, upperRank, coverage]);
+      expect([row.lower_bound, row.upper_bound]).toEqual([core.lower, core.upper]);
+      for (const alternative of ["two-sided", "greater", "less"]) {
+        expect(countpvalue(row.above, row.below, alternative)).toBe(pvalue([Array.from(values)], HYPOTHESISED, alternative));
+      }
+    },
+    MINUTES,
+  );
+
+  it(
+    "gives every group's counts and bounds in one GROUP BY",
+    async () => {
+      const byGroup = Array.from({ length: GROUPS }, () => [] as number[]);
+      for (let i = 0; i < values.length; i++) byGroup[groups[i]].push(values[i]);
+      const ranks = byGroup.map((group, label) => {
+        const [lower, upper] = orderranks(group.length, 0.99)[0];
+        return `(${label}, ${lower}, ${upper})`;
+      });
+      await connection.run(`CREATE OR REPLACE TABLE median_question AS SELECT ${HYPOTHESISED} AS hypothesised_median`);
+      await connection.run(`CREATE OR REPLACE TABLE group_ranks (group_label INTEGER, lower_rank BIGINT, upper_rank BIGINT)`);
+      await connection.run(`INSERT INTO group_ranks VALUES ${ranks.join(", ")}`);
+      const start = performance.now();
+      const rows = await rowsOf(BY_GROUP);
+      console.log(`DuckDB: grouped query (${GROUPS} groups) over ${ROWS.toLocaleString("en-US")} rows in ${secondsSince(start)} s`);
+      expect(rows.map((row) => row.group_label)).toEqual(byGroup.map((_, label) => label));
+      for (const row of rows) {
+        const group = Float64Array.from(byGroup[row.group_label as number]);
+        const counts = countSigns(group, HYPOTHESISED);
+        const core = quantileBounds(group, { confidence: 0.99 });
+        if (!core.available) throw new Error("the core found no bounds");
+        expect(row).toEqual({
+          group_label: row.group_label,
+          n: group.length,
+          below: counts.below,
+          tied: counts.tied,
+          above: counts.above,
+          lower_bound: core.lower,
+          upper_bound: core.upper,
+        });
+      }
+    },
+    MINUTES,
+  );
 });
