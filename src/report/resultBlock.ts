@@ -459,18 +459,18 @@ export function resultBlockRows(request: BlockRequest): BlockRow[] {
 
 /** The method and every option that changes the numbers, for the audit line. */
 function auditMethod(request: BlockRequest): string {
-  const common = `${request.alternative}, alpha ${numberWords(request.alpha)}, confidence ${numberWords(request.confidence)}`;
+  const common = `${request.alternative}, alpha ${numberWords(request.alpha)}, confidence ${numberWords(request.confidence)}; hypothesised ${numberWords(request.center)}`;
   const kind = request.paired ? "paired" : "one sample";
   if (request.test === "sign") {
     const method = (request.method as SignTestMethod | undefined) ?? "exact";
-    return `sign test, ${kind} (${SIGN_METHOD_WORDS[method]}; ${TIE_WORDS[request.ties ?? "drop"]}; ${common}; hypothesised ${numberWords(request.center)})`;
+    return `sign test, ${kind} (${SIGN_METHOD_WORDS[method]}; ${TIE_WORDS[request.ties ?? "drop"]}; ${common})`;
   }
   if (request.test === "signed-rank") {
     const method = (request.method as SignedRankMethod | undefined) ?? "auto";
     const zeros = request.zeros ?? "drop";
-    return `Wilcoxon signed-rank test, ${kind} (method ${method}; zeros ${zeros}; ${common}; hypothesised ${numberWords(request.center)})`;
+    return `Wilcoxon signed-rank test, ${kind} (method ${method}; zeros ${zeros}; ${common})`;
   }
-  return `quantile test (quantile ${numberWords(request.quantile ?? 0.5)}; exact binomial; ${common}; hypothesised ${numberWords(request.center)})`;
+  return `quantile test (quantile ${numberWords(request.quantile ?? 0.5)}; exact binomial; ${common})`;
 }
 
 /**
@@ -632,7 +632,10 @@ function rangeWords(cells: readonly (readonly unknown[])[]): string {
 }
 
 function auditValue(value: AuditValue, inputs: BlockInputs): string {
-  const given = inputs.second === undefined ? `the range given (${rangeWords(inputs.data)})` : `the ranges given (${rangeWords(inputs.data)} and ${rangeWords(inputs.second)})`;
+  const given =
+    inputs.second === undefined
+      ? `the range given (${rangeWords(inputs.data)})`
+      : `the ranges given (${rangeWords(inputs.data)} and ${rangeWords(inputs.second)})`;
   return auditWords(value, given, `evaluated ${auditTime(inputs.evaluatedAt ?? new Date())}`);
 }
 
