@@ -9,26 +9,36 @@
  * Cost: O(cells of the data) for the summaries, O(1) for the updates.
  */
 import { formatAddress } from "./a1";
+import { headerName } from "./dataInfo";
 import type { PaneState, RangeSlot } from "./paneState";
 import { absoluteReference, openEnded } from "./references";
-import { blockRefs, bodyOf, dataProblem, referenceOptions, tablesToCreate, type Analysis, type DataChoice, type ReferenceChoice, type ReferenceOptions } from "./workflow";
+import { blockRefs, bodyOf, dataProblem, referenceOptions, tablesToCreate, type Analysis, type AnalyzedRange, type DataChoice, type ReferenceChoice, type ReferenceOptions } from "./workflow";
+
+function sameRange(a: AnalyzedRange, b: AnalyzedRange | null): boolean {
+  return b !== null && a.sheet === b.sheet && formatAddress(a.rect) === formatAddress(b.rect);
+}
 
 function withSlot(state: PaneState, index: number, slot: RangeSlot): PaneState {
   const slots: [RangeSlot, RangeSlot] = index === 0 ? [slot, state.slots[1]] : [state.slots[0], slot];
-  return settleData({ ...state, slots, confirm: null });
+  // The same range read again leaves a pending listing alone: the write checks the cells it lists anyway.
+  const before = state.slots[index].range;
+  const same = slot.range !== null && before !== null && sameRange(slot.range, before);
+  return settleData({ ...state, slots, confirm: same ? state.confirm : null });
 }
 
 /**
- * One set of values or pairs. Pairs take no quantile test, and their shift starts at 0.
+ * One set of values or pairs. Pairs take no quantile test; a change of kind
+ * resets the hypothesised value (a shift starts at 0, a median is typed anew).
  *
  * @example
- * setPaired(initialState(), true).question.center; // "0"
+ * setPaired(setCenter(initialState(), "50"), true).question.center; // "0"
  */
 export function setPaired(state: PaneState, paired: boolean): PaneState {
-  let question = state.question;
+  if (paired === state.paired) return state;
+  // A median and a shift are different questions: the value typed for one means nothing for the other.
+  let question = { ...state.question, center: paired ? "0" : "" };
   if (paired && question.test === "quantile") question = { ...question, test: "sign" };
-  if (paired && question.center.trim() === "") question = { ...question, center: "0" };
-  return settleData({ ...state, paired, question });
+  return settleData({ ...state, paired, question, confirm: null });
 }
 
 /**
@@ -50,7 +60,46 @@ export function slotCleared(state: PaneState, index: number): PaneState {
 export function slotRead(state: PaneState, index: number, typed: string, analysis: Analysis): PaneState {
   if (!analysis.ok) return withSlot(state, index, { ...state.slots[index], text: typed, range: null, problem: analysis.message });
   const { range } = analysis;
-  return withSlot(state, index, { text: formatAddress(range.rect, range.sheet), range, useHeader: range.header !== null, problem: null });
+  if (state.paired && index === 0) {
+    const pair = pairColumns(range);
+    if (pair) return withSlot(withSlot(state, 0, freshSlot(pair[0], state.slots[0])), 1, freshSlot(pair[1], state.slots[1]));
+  }
+  return withSlot(state, index, freshSlot(range, state.slots[index]));
+}
+
+/** A slot for a range just read; the same range read again (Enter, then leaving the field) keeps the person's name-row choice. */
+function freshSlot(range: AnalyzedRange, before: RangeSlot): RangeSlot {
+  const useHeader = sameRange(range, before.range) && range.header !== null ? before.useHeader : range.header !== null;
+  return { text: formatAddress(range.rect, range.sheet), range, useHeader, problem: null };
+}
+
+function columnOf(range: AnalyzedRange, k: number): AnalyzedRange {
+  const values = range.values.map((row) => [row[k]]);
+  const rect = { ...range.rect, left: range.rect.left + k, right: range.rect.left + k };
+  return { sheet: range.sheet, rect, values, header: headerName(values), place: { kind: "none" } };
+}
+
+/**
+ * The two columns of a two-column range outside any table, as a first and a second range; null otherwise.
+ *
+ * @example
+ * pairColumns(rangeOfB1C25)?.map((r) => formatAddress(r.rect)); // ["B1:B25", "C1:C25"]
+ */
+export function pairColumns(range: AnalyzedRange): [AnalyzedRange, AnalyzedRange] | null {
+  if (range.rect.right - range.rect.left !== 1 || range.place.kind !== "none") return null;
+  return [columnOf(range, 0), columnOf(range, 1)];
+}
+
+/**
+ * A two-column range chosen as one set of values, taken as pairs instead: first and second column.
+ *
+ * @example
+ * splitIntoPairs(stateWithB1C25).slots[1].text; // "'Paint line'!C1:C25"
+ */
+export function splitIntoPairs(state: PaneState): PaneState {
+  const range = state.slots[0].range;
+  if (!range || !pairColumns(range)) return state;
+  return slotRead(setPaired(state, true), 0, state.slots[0].text, { ok: true, range });
 }
 
 /**
@@ -142,6 +191,10 @@ export interface SlotView {
   readonly summary: string;
   readonly canToggleHeader: boolean;
   readonly useHeader: boolean;
+  /** For one set of values read from several columns: that they are pooled, in words; else null. */
+  readonly pooled: string | null;
+  /** The pooled range can be taken as pairs instead (two columns outside a table). */
+  readonly canPair: boolean;
 }
 
 /** What the Data step shows. */
@@ -167,9 +220,20 @@ function slotSummary(slot: RangeSlot): string {
   return `${where}: ${body.tally.cells} cells — ${parts.join(", ")}. ${named}`;
 }
 
-function slotView(slot: RangeSlot, label: string): SlotView {
+function pooledWords(slot: RangeSlot, paired: boolean): string | null {
+  if (paired || !slot.range) return null;
+  const columns = slot.range.rect.right - slot.range.rect.left + 1;
+  if (columns < 2) return null;
+  const numbers = bodyOf({ range: slot.range, useHeader: slot.useHeader }).tally.numbers;
+  const pairs = columns === 2 && slot.range.place.kind === "none" ? " If each row holds a first and a second value of one item, use them as pairs." : " To compare two columns, choose Pairs of values and give each column on its own.";
+  return `This range has ${columns} columns: their ${numbers} numbers are pooled into one set of values, as if they were one column.${pairs}`;
+}
+
+function slotView(slot: RangeSlot, label: string, paired: boolean): SlotView {
   const canToggleHeader = slot.range !== null && slot.range.place.kind !== "column" && slot.range.header !== null;
-  return { label, problem: slot.problem, summary: slotSummary(slot), canToggleHeader, useHeader: slot.useHeader };
+  const pooled = pooledWords(slot, paired);
+  const canPair = pooled !== null && slot.range !== null && pairColumns(slot.range) !== null;
+  return { label, problem: slot.problem, summary: slotSummary(slot), canToggleHeader, useHeader: slot.useHeader, pooled, canPair };
 }
 
 /**
@@ -208,7 +272,10 @@ export function dataView(state: PaneState): DataView {
   const c = choices(state);
   return {
     paired: state.paired,
-    slots: [slotView(state.slots[0], state.paired ? "First values (for example, before)" : "Values"), slotView(state.slots[1], "Second values (for example, after)")],
+    slots: [
+      slotView(state.slots[0], state.paired ? "First values (for example, before)" : "Values", state.paired),
+      slotView(state.slots[1], "Second values (for example, after)", state.paired),
+    ],
     options: complete ? referenceOptions(c) : null,
     reference: state.reference,
     note: referenceSentence(state),

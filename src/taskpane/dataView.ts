@@ -17,6 +17,8 @@ export interface DataEvents {
   useSelection(index: number): void;
   header(index: number, useHeader: boolean): void;
   reference(choice: ReferenceChoice): void;
+  /** Take a two-column range chosen as one set of values as pairs instead. */
+  asPairs(): void;
   next(): void;
 }
 
@@ -60,8 +62,11 @@ export function dataPage(heading: HTMLElement, events: DataEvents): DataPage {
       }
     });
     headerBox.addEventListener("change", () => events.header(index, headerBox.checked));
-    const element = el("div", { class: "es-slot" }, f.element, summary, headerRow);
-    return { element, field: f, input, summary, headerBox, headerRow, shownText: "" };
+    const pooledText = el("p", { class: "es-pooled-text" });
+    const pairButton = button("Use them as pairs", "secondary", () => events.asPairs());
+    const pooled = el("div", { class: "es-pooled", attrs: { role: "group", "aria-label": "Several columns" } }, pooledText, pairButton);
+    const element = el("div", { class: "es-slot" }, f.element, summary, pooled, headerRow);
+    return { element, field: f, input, summary, headerBox, headerRow, pooled, pooledText, pairButton, shownText: "" };
   });
   const referenceGroup = radioGroup<ReferenceChoice>(
     "When rows are added later",
@@ -102,6 +107,9 @@ export function dataPage(heading: HTMLElement, events: DataEvents): DataPage {
       }
       setProblem(page.field, slot.problem);
       page.summary.textContent = slot.summary;
+      show(page.pooled, slot.pooled !== null);
+      page.pooledText.textContent = slot.pooled ?? "";
+      show(page.pairButton, slot.canPair);
       show(page.headerRow, slot.canToggleHeader);
       page.headerBox.checked = slot.useHeader;
     });

@@ -16,7 +16,7 @@
 import { resultBlockRows, type CatalogueCall } from "../report/resultBlock";
 import { formatAddress } from "./a1";
 import { button, newId } from "./controls";
-import { choices, dataReady, dataStepProblem, dataView, setPaired, setReference, setUseHeader, slotCleared, slotFailed, slotRead } from "./dataState";
+import { choices, dataReady, dataStepProblem, dataView, setPaired, setReference, setUseHeader, slotCleared, slotFailed, slotRead, splitIntoPairs } from "./dataState";
 import { dataPage } from "./dataView";
 import { el, replaceChildren, show } from "./dom";
 import type { Host } from "./host";
@@ -50,13 +50,20 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
   const { host, calculate } = options;
   let state: PaneState = initialState();
 
-  const status = el("p", { class: "es-status", attrs: { role: "status", "aria-live": "polite" } });
+  // Focusable, so that after a write the focus can rest on the confirmation instead of falling to the page.
+  const status = el("p", { class: "es-status", attrs: { role: "status", "aria-live": "polite", tabindex: "-1" } });
   const say = (message: string): void => {
     status.textContent = message;
   };
-  const update = (next: PaneState, showStepProblems = false): void => {
+  /**
+   * Every change the person makes drops the message at the bottom: it answered
+   * an earlier action and may no longer hold. A quiet update (the data read
+   * again in the background) keeps it.
+   */
+  const update = (next: PaneState, options: { showStepProblems?: boolean; quiet?: boolean } = {}): void => {
     state = settleResult(next);
-    render(showStepProblems);
+    if (!options.quiet) say("");
+    render(options.showStepProblems ?? false);
   };
 
   const stepButtons = STEPS.map((name, i) =>
@@ -73,6 +80,7 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
     useSelection: (index) => void useSelection(index),
     header: (index, useHeader) => update(setUseHeader(state, index, useHeader)),
     reference: (choice) => update(setReference(state, choice)),
+    asPairs: () => update(splitIntoPairs(state)),
     next: () => void goTo(1),
   });
   const question = questionPage(headings[1], {
@@ -101,7 +109,10 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
     },
     reread: () => void rereadData(),
     back: () => void goTo(2),
-    startOver: () => void goTo(0),
+    startOver: () => {
+      update(initialState());
+      headings[0].focus();
+    },
   });
 
   const steps = [data.element, question.element, settings.element, result.element];
@@ -117,20 +128,41 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
     ),
   );
 
-  async function analyzeSlot(index: number, text: string): Promise<void> {
-    update(setConfirm(state, null));
+  async function analyzeSlot(index: number, text: string, quiet = false): Promise<void> {
     if (text.trim() === "") {
-      update(slotCleared(state, index));
+      update(slotCleared(state, index), { quiet });
       return;
     }
     try {
       // Read first: the state may change while the workbook answers.
       const analysis = await analyzeRange(host, text);
-      update(slotRead(state, index, text, analysis));
+      update(slotRead(state, index, text, analysis), { quiet });
     } catch (thrown) {
-      update(slotFailed(state, index, text, errorMessage(thrown)));
+      update(slotFailed(state, index, text, errorMessage(thrown)), { quiet });
     }
   }
+
+  /**
+   * The data may have changed while the focus was in the sheet: read the
+   * ranges again when the focus comes back into the pane, so the preview
+   * follows the cells (the worksheet's change events need ExcelApi 1.7 and
+   * a handler to remove again; a read on return covers every host).
+   */
+  let rereading = false;
+  async function followData(): Promise<void> {
+    if (rereading || state.busy) return;
+    rereading = true;
+    try {
+      const used = state.paired ? [0, 1] : [0];
+      for (const i of used) if (state.slots[i].range) await analyzeSlot(i, state.slots[i].text, true);
+    } finally {
+      rereading = false;
+    }
+  }
+  root.addEventListener("focusin", (event) => {
+    const from = event.relatedTarget;
+    if (!(from instanceof Node) || !root.contains(from)) void followData();
+  });
 
   async function useSelection(index: number): Promise<void> {
     try {
@@ -180,7 +212,7 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
     for (let s = 0; s < step; s++) {
       const problem = stepProblem(s);
       if (problem) {
-        update(atStep(state, s), true);
+        update(atStep(state, s), { showStepProblems: true });
         say(problem);
         focusFirstProblem(s);
         return;
@@ -245,13 +277,14 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
     const made = outcome.created.length > 0 ? ` The data became table ${outcome.created.map((t) => t.name).join(" and ")}.` : "";
     const cleared = outcome.replaced.length > 0 ? ` The earlier block at ${outcome.replaced.map((b) => formatAddress(b.rect)).join(" and ")} was cleared first.` : "";
     const written = `The block was written to ${outcome.address} as formulas; it recalculates when the data change.${cleared}${made}${chart}`;
-    say(written);
     if (outcome.created.length > 0) {
       state = setReference(state, "exact");
       await rereadData();
-      say(written);
     }
     update(state);
+    say(written);
+    // The Write button was disabled while writing, which drops the focus: it goes to the confirmation, scrolled into view.
+    status.focus();
   }
 
   function render(showStepProblems: boolean): void {

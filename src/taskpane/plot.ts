@@ -126,3 +126,17 @@ export function nullBars(n: number, p: number, observed: number): NullBar[] {
   for (let k = 0; k <= n; k++) bars.push({ count: k, probability: binomialPmf(k, n, p), observed: k === observed });
   return bars;
 }
+
+/**
+ * Where a label of about `width` drawing units goes so that it stays between
+ * `left` and `right`: centred on `x`, or held against the nearer end.
+ *
+ * @example
+ * labelPlace(284, 60, 14, 286); // { x: 286, anchor: "end" }
+ * labelPlace(150, 60, 14, 286); // { x: 150, anchor: "middle" }
+ */
+export function labelPlace(x: number, width: number, left: number, right: number): { x: number; anchor: "start" | "middle" | "end" } {
+  if (x - width / 2 < left) return { x: left, anchor: "start" };
+  if (x + width / 2 > right) return { x: right, anchor: "end" };
+  return { x, anchor: "middle" };
+}

@@ -11,11 +11,13 @@
  * Cost: O(n) elements.
  */
 import { svg } from "./dom";
-import { lineScale, stackDots, type NullBar } from "./plot";
+import { labelPlace, lineScale, stackDots, type NullBar } from "./plot";
 
 const WIDTH = 300;
 const MARGIN = 14;
 const DOT = 7;
+/** Width of one character of a mark label, in drawing units: generous for the 10px sans-serif the stylesheet sets. */
+const LABEL_CHAR = 6.2;
 
 function label(x: number, y: number, text: string, anchor: "start" | "middle" | "end", cls: string): SVGElement {
   return svg("text", { class: cls, attrs: { x: x.toFixed(1), y: y.toFixed(1), "text-anchor": anchor } }, text);
@@ -85,17 +87,20 @@ export function numberLinePlot(input: NumberLineInput): SVGElement {
  * nullDistributionPlot(nullBars(20, 0.5, 15), "count above 50"); // <svg role="img" ...>
  */
 export function nullDistributionPlot(bars: readonly NullBar[], what: string): SVGElement {
-  const height = 90;
+  const height = 96;
   const base = height - 18;
+  // The observed count's label sits on a line of its own above the bars, clear of the axis and its ticks.
+  const labelLine = 11;
+  const barTop = labelLine + 6;
   const n = bars.length - 1;
   const highest = bars.reduce((m, b) => Math.max(m, b.probability), 0) || 1;
   const step = (WIDTH - 2 * MARGIN) / bars.length;
   const observed = bars.find((b) => b.observed);
-  const summary = `Probability of each ${what} from 0 to ${n} if H₀ holds; observed ${observed ? observed.count : "none"}.`;
+  const summary = `Probability of each ${what} from 0 to ${n} if H0 holds; observed ${observed ? observed.count : "none"}.`;
   const plot = svg("svg", { class: "es-plot", attrs: { viewBox: `0 0 ${WIDTH} ${height}`, role: "img", "aria-label": summary } });
   plot.appendChild(svg("title", undefined, summary));
   bars.forEach((b, i) => {
-    const h = (b.probability / highest) * (base - 8);
+    const h = (b.probability / highest) * (base - barTop);
     plot.appendChild(
       svg("rect", {
         class: b.observed ? "es-bar es-bar-observed" : "es-bar",
@@ -106,6 +111,10 @@ export function nullDistributionPlot(bars: readonly NullBar[], what: string): SV
   plot.appendChild(svg("line", { class: "es-axis", attrs: { x1: String(MARGIN), x2: String(WIDTH - MARGIN), y1: String(base), y2: String(base) } }));
   plot.appendChild(label(MARGIN, base + 14, "0", "start", "es-tick"));
   plot.appendChild(label(WIDTH - MARGIN, base + 14, String(n), "end", "es-tick"));
-  if (observed) plot.appendChild(label(MARGIN + (observed.count + 0.5) * step, base + 14, `observed ${observed.count}`, "middle", "es-mark"));
+  if (observed) {
+    const text = `observed ${observed.count}`;
+    const place = labelPlace(MARGIN + (observed.count + 0.5) * step, text.length * LABEL_CHAR, MARGIN, WIDTH - MARGIN);
+    plot.appendChild(label(place.x, labelLine, text, place.anchor, "es-mark"));
+  }
   return plot;
 }

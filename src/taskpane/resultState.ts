@@ -137,6 +137,7 @@ export interface ResultView {
   /** The bars to draw, empty when not asked for or too many. */
   readonly bars: readonly NullBar[];
   readonly barsWhat: string;
+  readonly barsCaption: string;
   readonly tooManyBars: boolean;
   readonly target: string;
   readonly targetHint: string;
@@ -156,6 +157,7 @@ const EMPTY: Omit<ResultView, "busy" | "confirm" | "target" | "chart"> = {
   countTest: false,
   bars: [],
   barsWhat: "",
+  barsCaption: "",
   tooManyBars: false,
   targetHint: "",
   targetProblem: null,
@@ -183,8 +185,12 @@ export function resultView(state: PaneState, calculate: CatalogueCall): ResultVi
   const values = plotValues(c);
   const what = state.paired ? "differences" : "values";
   const plot = { values, center: request.center, lower: numberOrNull(value("lower")), upper: numberOrNull(value("upper")), what };
-  const level = `${Math.round(request.confidence * 1000) / 10}%`;
-  const caption = `Dots: the ${values.length} ${what}. Dashed line: the hypothesised value ${request.center}. Shaded: the ${level} bounds${request.test === "signed-rank" ? " (Hodges–Lehmann)" : ""}.`;
+  const level = `${Number((request.confidence * 100).toPrecision(12))}%`;
+  const bounded = plot.lower !== null || plot.upper !== null;
+  const band = bounded
+    ? `Shaded: the ${level} bounds${request.test === "signed-rank" ? " (Hodges–Lehmann)" : ""}.`
+    : `There are no bounds to shade: these data cannot reach ${level} confidence.`;
+  const caption = `Dots: the ${values.length} ${what}. Dashed line: the hypothesised value ${request.center}. ${band}`;
   const countTest = request.test !== "signed-rank";
   const used = numberOrNull(value("used"));
   const observed = request.test === "quantile" ? numberOrNull(value("below")) : numberOrNull(value("statistic"));
@@ -204,6 +210,10 @@ export function resultView(state: PaneState, calculate: CatalogueCall): ResultVi
     countTest,
     bars,
     barsWhat: request.test === "quantile" ? "count below" : "sign statistic",
+    barsCaption:
+      bars.length > 0
+        ? `Bars: how likely each ${request.test === "quantile" ? "count below the hypothesised value" : "count above the hypothesised value"} is if H0 holds, for the ${used} values used; the observed count is marked.`
+        : "",
     tooManyBars: state.showNull && countTest && bars.length === 0,
     targetHint,
     targetProblem,

@@ -52,6 +52,8 @@ export function resultPage(heading: HTMLElement, events: ResultEvents): ResultPa
   const plotBox = el("div", { class: "es-plot-box" });
   const plotCaption = el("figcaption", { class: "es-hint" });
   const nullBox = el("div", { class: "es-plot-box" });
+  const nullCaption = el("figcaption", { class: "es-hint" });
+  const nullFigure = el("figure", { class: "es-figure" }, nullBox, nullCaption);
   const nullId = newId("null");
   const nullCheck = el("input", { id: nullId, attrs: { type: "checkbox" } });
   nullCheck.addEventListener("change", () => events.showNull(nullCheck.checked));
@@ -82,8 +84,9 @@ export function resultPage(heading: HTMLElement, events: ResultEvents): ResultPa
     { class: "es-step", attrs: { "aria-labelledby": heading.id } },
     heading,
     previewTable,
-    el("figure", { class: "es-figure" }, plotBox, nullBox, plotCaption),
+    el("figure", { class: "es-figure" }, plotBox, plotCaption),
     nullRow,
+    nullFigure,
     formulas,
     targetField.element,
     referenceRecap,
@@ -114,6 +117,8 @@ export function resultPage(heading: HTMLElement, events: ResultEvents): ResultPa
     show(nullRow, view.countTest);
     replaceChildren(nullBox, view.bars.length > 0 ? nullDistributionPlot(view.bars, view.barsWhat) : null);
     if (view.tooManyBars) nullBox.appendChild(el("p", { class: "es-hint" }, "Too many values to draw the distribution."));
+    nullCaption.textContent = view.barsCaption;
+    show(nullFigure, view.bars.length > 0 || view.tooManyBars);
     if (view.rows.length > 0) {
       if (targetField.control.value !== view.target) targetField.control.value = view.target;
       targetField.hint.textContent = view.targetHint;

@@ -65,8 +65,8 @@ describe.skipIf(!browserAvailable())("writing safely on the demo page", () => {
     await eventually(() => status(page)).toContain("The block was written to 'Paint line'!E1:F");
     const longer = Number(/E1:F(\d+)/.exec(await status(page))?.[1]);
 
-    await page.getByRole("button", { name: "Start over" }).click();
-    await page.getByRole("button", { name: "Next: the question" }).click();
+    // Back to the question by the step list: Start over would forget the data.
+    await page.getByRole("button", { name: "2. Question" }).click();
     await page.getByLabel("Sign test").check();
     await page.getByRole("button", { name: "Next: settings" }).click();
     await page.getByRole("button", { name: "Next: the result" }).click();

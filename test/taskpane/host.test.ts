@@ -199,7 +199,7 @@ describe("one write, one batch", () => {
       /getRange\("E1:F2"\)\.formulas = \[\["Evensplit result"/,
       /getRange\("E1:F2"\)\.numberFormat = /,
       /getColumn\(0\)\.format\.font\.bold = true$/,
-      /getRow\(1\)\.format\.font\.color = "#595959"$/,
+      /getRow\(1\)\.format\.font\.italic = true$/,
       /charts\.add\("ColumnClustered",<object>,"Columns"\)$/,
       /\.name = "Evensplit chart 1"$/,
       /setPosition\("H1","N15"\)$/,

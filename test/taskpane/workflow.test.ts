@@ -126,7 +126,7 @@ describe("the place for the block", () => {
 });
 
 describe("writing the block", () => {
-  it("writes formulas that the sheet calculates, labels bold, cautions muted", async () => {
+  it("writes formulas that the sheet calculates, labels bold, cautions in italics", async () => {
     const { workbook, host } = demo();
     const range = await analyzed(host, "B1:B25");
     const outcome = await writeResult(host, plan([{ range, useHeader: true }]));
@@ -143,7 +143,8 @@ describe("writing the block", () => {
     expect(workbook.format(DEMO_SHEET, p, 5).numberFormat).toBe(NUMBER_FORMATS.pvalue);
     expect(workbook.format(DEMO_SHEET, p, 4).bold).toBe(true);
     const caution = outcome.rows.findIndex((r) => r.style === "caution");
-    expect(workbook.format(DEMO_SHEET, caution, 5)).toMatchObject({ italic: true, color: "#595959" });
+    // Italic, in the automatic colour that follows the theme (a fixed grey failed the dark theme: paneDefects.test.ts).
+    expect(workbook.format(DEMO_SHEET, caution, 5)).toMatchObject({ italic: true, color: null });
   });
 
   it("asks before replacing filled cells and writes nothing until confirmed", async () => {
