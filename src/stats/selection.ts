@@ -255,10 +255,31 @@ function bracketed(values: ArrayLike<number>, ranks: readonly number[]): number[
     // A stretch short enough that `inside` cannot fill up within it, so the loop needs no check.
     const end = Math.min(n, i + room - count);
     if (end === i) return null; // far more inside than the sample promised: give up on the bracket
+    // Branch-free: every value is written at the end of `inside`, which only advances past values between
+    // the two; the side of a value is unpredictable, a branch on it would cost more than the write. Four
+    // values a step spare loop overhead; x - x is 0 for a finite x and NaN otherwise.
+    for (; i + 4 <= end; i += 4) {
+      const x0 = values[i];
+      const x1 = values[i + 1];
+      const x2 = values[i + 2];
+      const x3 = values[i + 3];
+      const b0 = +(x0 < low);
+      const b1 = +(x1 < low);
+      const b2 = +(x2 < low);
+      const b3 = +(x3 < low);
+      below = (below + (b0 + b1) + (b2 + b3)) | 0;
+      inside[count] = x0;
+      count += 1 - (b0 | +(x0 > high));
+      inside[count] = x1;
+      count += 1 - (b1 | +(x1 > high));
+      inside[count] = x2;
+      count += 1 - (b2 | +(x2 > high));
+      inside[count] = x3;
+      count += 1 - (b3 | +(x3 > high));
+      nonFinite |= +(x0 - x0 + (x1 - x1) + (x2 - x2) + (x3 - x3) !== 0);
+    }
     for (; i < end; i++) {
       const x = values[i];
-      // Branch-free: every value is written at the end of `inside`, which only advances past values between
-      // the two; the side of a value is unpredictable, a branch on it would cost more than the write.
       const isBelow = +(x < low);
       below += isBelow;
       inside[count] = x;
