@@ -1,6 +1,7 @@
 // Types of scripts/ensure-deps.mjs for the TypeScript tests (the script itself stays plain JavaScript).
 export interface Machine {
   readonly hasPackages: boolean;
+  readonly lacking?: readonly string[];
   readonly wantBrowser: boolean;
   readonly hasChromium: boolean;
   readonly chromium: string;
@@ -14,3 +15,4 @@ export interface InstallStep {
 }
 
 export function planInstall(machine: Machine): { steps: InstallStep[]; notes: string[] };
+export function lackingPackages(lockText: string, installedText: string): string[];
