@@ -58,6 +58,7 @@ export function adjustPValues(pValues: ArrayLike<number>, method: AdjustMethod =
     for (let k = 0; k < m; k++) out[places[k]] = Math.min(1, m * keys[k]);
     return out;
   }
+  if (method === "holm" && holmFromSmallest(keys.subarray(0, m), places.subarray(0, m), out)) return out;
   const sorted = sortAscending(keys.subarray(0, m), places.subarray(0, m));
   const p = sorted.keys;
   const order = sorted.places;
@@ -82,6 +83,39 @@ export function adjustPValues(pValues: ArrayLike<number>, method: AdjustMethod =
     out[order[r]] = Math.min(1, running);
   }
   return out;
+}
+
+/** How many of the smallest p-values Holm's shortcut may sort; beyond, the whole set is sorted. */
+const HOLM_FEW = 4096;
+
+/**
+ * Holm without sorting everything, when it can: once the running maximum of (m - r) p_(r) reaches 1,
+ * every later rank adjusts to 1. The p-values below 8/m are the smallest ranks; if the maximum reaches 1
+ * among them (typical: m p_(1) is about 1 already for uniform p-values), they alone are sorted and every
+ * other p-value adjusts to exactly 1. Writes `out` at the places given and returns true; false (out
+ * untouched) otherwise.
+ */
+function holmFromSmallest(keys: Float64Array, places: Uint32Array, out: Float64Array): boolean {
+  const m = keys.length;
+  const cut = 8 / m;
+  const few: number[] = [];
+  for (let k = 0; k < m; k++) {
+    if (keys[k] < cut) {
+      if (few.length === HOLM_FEW) return false;
+      few.push(k);
+    }
+  }
+  few.sort((a, b) => keys[a] - keys[b]);
+  let running = 0;
+  for (let r = 0; r < few.length; r++) running = Math.max(running, (m - r) * keys[few[r]]);
+  if (!(running >= 1)) return false;
+  for (let k = 0; k < m; k++) out[places[k]] = 1;
+  running = 0;
+  for (let r = 0; r < few.length; r++) {
+    running = Math.max(running, (m - r) * keys[few[r]]);
+    out[places[few[r]]] = Math.min(1, running);
+  }
+  return true;
 }
 
 /** Keys in ascending order with the places they came from. */
