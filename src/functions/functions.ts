@@ -124,10 +124,10 @@ function signedRankOf(differences: ArrayLike<number>, alternative: unknown, meth
   return result;
 }
 
-/** Bounds for the median (or another quantile) as one row: lower, upper, achieved confidence; "" for an end not asked for. */
+/** Bounds for the median (or another quantile) as one row: lower, upper, exact coverage; "" for an end not asked for. */
 function boundsRow(values: ArrayLike<number>, quantile: number, confidence: number, side: BoundSide, method: BoundMethod): RowCell[] | CellError {
   if (method === "interpolated" && side !== "two-sided" && !(confidence > 0.5)) {
-    throw new BadArgument(`A one-sided interpolated bound needs a confidence above 0.5; got ${confidence}.`);
+    throw new BadArgument(`A one-sided Hettmansperger–Sheather bound needs a confidence above 0.5; got ${confidence}.`);
   }
   const oversized = oversizedDifference(values);
   if (oversized !== null) return unavailableError(oversized);
@@ -137,7 +137,7 @@ function boundsRow(values: ArrayLike<number>, quantile: number, confidence: numb
 }
 
 /**
- * Estimate, lower, upper, achieved confidence. Too few values for the bounds
+ * Estimate, lower, upper, exact coverage. Too few values for the bounds
  * still give the estimate (it needs one value): only the bound cells say why
  * they are empty, so what can be given is not lost with what cannot.
  */
@@ -270,13 +270,13 @@ export function pairedcounts(first: unknown[][], second: unknown[][], shift?: un
 // Bounds and the quantile test
 
 /**
- * Distribution-free confidence bounds for the median from the sorted data. Returns one row: lower, upper, achieved confidence (at least the one asked for with the exact method).
+ * Distribution-free confidence bounds for the median from the sorted data. Returns one row: lower, upper, exact coverage of these bounds (at least the confidence asked for with the exact method).
  * @customfunction BOUNDS
  * @param data Range with the measurements.
  * @param [confidence] Confidence, such as 0.95 (default).
  * @param [side] "two-sided" (default), "lower" (a lower bound only) or "upper".
- * @param [method] "exact" (default: bounds are data values) or "interpolated" (between neighbouring values, closer to the confidence asked).
- * @returns One row: lower, upper, achieved confidence.
+ * @param [method] "exact" (default: bounds are data values) or "hettmansperger-sheather" (between neighbouring values, coverage closer to the confidence asked; Hettmansperger and Sheather, 1986).
+ * @returns One row: lower, upper, exact coverage.
  */
 export function bounds(data: unknown[][], confidence?: unknown, side?: unknown, method?: unknown): unknown[][] {
   return oneRow(3, () =>
@@ -291,14 +291,14 @@ export function bounds(data: unknown[][], confidence?: unknown, side?: unknown, 
 }
 
 /**
- * Distribution-free confidence bounds for the median of the paired differences second − first. Returns one row: lower, upper, achieved confidence.
+ * Distribution-free confidence bounds for the median of the paired differences second − first. Returns one row: lower, upper, exact coverage.
  * @customfunction PAIREDBOUNDS
  * @param first Range with the first measurement of each pair.
  * @param second Range with the second measurement, same shape as first.
  * @param [confidence] Confidence, such as 0.95 (default).
  * @param [side] "two-sided" (default), "lower" or "upper".
- * @param [method] "exact" (default) or "interpolated".
- * @returns One row: lower, upper, achieved confidence.
+ * @param [method] "exact" (default) or "hettmansperger-sheather".
+ * @returns One row: lower, upper, exact coverage.
  */
 export function pairedbounds(first: unknown[][], second: unknown[][], confidence?: unknown, side?: unknown, method?: unknown): unknown[][] {
   return oneRow(3, () => {
@@ -328,13 +328,13 @@ export function quantilepvalue(data: unknown[][], value: unknown, quantile: unkn
 }
 
 /**
- * Distribution-free confidence bounds for a quantile of the population. Returns one row: lower, upper, achieved confidence.
+ * Distribution-free confidence bounds for a quantile of the population. Returns one row: lower, upper, exact coverage.
  * @customfunction QUANTILEBOUNDS
  * @param data Range with the measurements.
  * @param quantile Which quantile, between 0 and 1, such as 0.9.
  * @param [confidence] Confidence, such as 0.95 (default).
  * @param [side] "two-sided" (default), "lower" or "upper".
- * @returns One row: lower, upper, achieved confidence.
+ * @returns One row: lower, upper, exact coverage.
  */
 export function quantilebounds(data: unknown[][], quantile: unknown, confidence?: unknown, side?: unknown): unknown[][] {
   return oneRow(3, () => {
@@ -425,12 +425,12 @@ export function pairedsignrankstatistic(first: unknown[][], second: unknown[][],
 }
 
 /**
- * Hodges–Lehmann estimate of the centre (the median of all pairwise averages) with distribution-free bounds. Returns one row: estimate, lower, upper, achieved confidence; with side "lower" or "upper" the other end is left empty.
+ * Hodges–Lehmann estimate of the centre (the median of all pairwise averages) with distribution-free bounds. Returns one row: estimate, lower, upper, exact coverage; with side "lower" or "upper" the other end is left empty.
  * @customfunction HODGESLEHMANN
  * @param data Range with the measurements.
  * @param [confidence] Confidence of the bounds, such as 0.95 (default).
  * @param [side] "two-sided" (default), "lower" (a lower bound only) or "upper".
- * @returns One row: estimate, lower, upper, achieved confidence.
+ * @returns One row: estimate, lower, upper, exact coverage.
  */
 export function hodgeslehmann(data: unknown[][], confidence?: unknown, side?: unknown): unknown[][] {
   return oneRow(4, () => {
@@ -440,13 +440,13 @@ export function hodgeslehmann(data: unknown[][], confidence?: unknown, side?: un
 }
 
 /**
- * Hodges–Lehmann estimate and bounds for the centre of the paired differences second − first. Returns one row: estimate, lower, upper, achieved confidence.
+ * Hodges–Lehmann estimate and bounds for the centre of the paired differences second − first. Returns one row: estimate, lower, upper, exact coverage.
  * @customfunction PAIREDHODGESLEHMANN
  * @param first Range with the first measurement of each pair.
  * @param second Range with the second measurement, same shape as first.
  * @param [confidence] Confidence of the bounds, such as 0.95 (default).
  * @param [side] "two-sided" (default), "lower" or "upper".
- * @returns One row: estimate, lower, upper, achieved confidence.
+ * @returns One row: estimate, lower, upper, exact coverage.
  */
 export function pairedhodgeslehmann(first: unknown[][], second: unknown[][], confidence?: unknown, side?: unknown): unknown[][] {
   return oneRow(4, () => {
@@ -929,13 +929,13 @@ export function countpvalue(above: unknown, below: unknown, alternative?: unknow
 }
 
 /**
- * Which order statistics bound the median (or another quantile) of n values, and their exact coverage: fetch the bounds as SMALL(range, lower rank) and SMALL(range, upper rank), or with a window function in a database. Returns one row: lower rank, upper rank, achieved confidence; "" for an end not asked for.
+ * Which order statistics bound the median (or another quantile) of n values, and their exact coverage: fetch the bounds as SMALL(range, lower rank) and SMALL(range, upper rank), or with a window function in a database. Returns one row: lower rank, upper rank, exact coverage; "" for an end not asked for.
  * @customfunction ORDERRANKS
  * @param n Number of values, such as 40.
  * @param [confidence] Confidence, such as 0.95 (default).
  * @param [quantile] Which quantile, between 0 and 1: 0.5 (default) is the median, 0.9 the value 90% fall below.
  * @param [side] "two-sided" (default), "lower" (a lower bound only) or "upper".
- * @returns One row: lower rank, upper rank, achieved confidence.
+ * @returns One row: lower rank, upper rank, exact coverage.
  */
 export function orderranks(n: unknown, confidence?: unknown, quantile?: unknown, side?: unknown): unknown[][] {
   return oneRow(3, () => {

@@ -66,7 +66,18 @@ export const ZEROS: Vocabulary<ZeroRule> = { argument: "zeros", choices: only("d
 
 export const SIDE: Vocabulary<BoundSide> = { argument: "side", choices: only("two-sided", "lower", "upper"), fallback: "two-sided" };
 
-export const BOUND_METHOD: Vocabulary<BoundMethod> = { argument: "method", choices: only("exact", "interpolated"), fallback: "exact" };
+/**
+ * Bounds at data values, or between neighbouring values by the method of
+ * Hettmansperger and Sheather (1986), named after its authors.
+ */
+export const BOUND_METHOD: Vocabulary<BoundMethod> = {
+  argument: "method",
+  choices: [
+    { value: "exact", words: ["exact"] },
+    { value: "interpolated", words: ["hettmansperger-sheather", "hettmansperger sheather"] },
+  ],
+  fallback: "exact",
+};
 
 export const ADJUST_METHOD: Vocabulary<AdjustMethod> = {
   argument: "method",
@@ -77,10 +88,10 @@ export const ADJUST_METHOD: Vocabulary<AdjustMethod> = {
 /** "two-sided (the default; also two, both, <>), greater (also above, right, >) or less (also below, left, <)". */
 export function acceptedWords<T extends string>(vocabulary: Vocabulary<T>): string {
   const parts = vocabulary.choices.map((choice) => {
+    const [canonical, ...synonyms] = choice.words;
     const notes = choice.value === vocabulary.fallback ? ["the default"] : [];
-    const synonyms = choice.words.slice(1);
     if (synonyms.length > 0) notes.push(`also ${synonyms.join(", ")}`);
-    return notes.length > 0 ? `${choice.value} (${notes.join("; ")})` : choice.value;
+    return notes.length > 0 ? `${canonical} (${notes.join("; ")})` : canonical;
   });
   return parts.length === 1 ? parts[0] : `${parts.slice(0, -1).join(", ")} or ${parts[parts.length - 1]}`;
 }

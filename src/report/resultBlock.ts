@@ -387,7 +387,7 @@ function boundRows(
   return [
     row("lower", label("lower"), bound(1), "number"),
     row("upper", label("upper"), bound(2), "number"),
-    row("achieved", "Achieved confidence", bound(3), "percent"),
+    row("coverage", "Exact coverage of these bounds", bound(3), "percent"),
   ];
 }
 

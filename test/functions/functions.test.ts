@@ -105,10 +105,10 @@ describe("bounds", () => {
     expect(achieved as number).toBeGreaterThanOrEqual(0.95);
   });
 
-  it("refuse a one-sided interpolated bound at confidence 0.5 or less, in every cell", () => {
-    const row = bounds(col(1, 2, 3, 4, 5, 6, 7, 8, 9, 10), 0.5, "upper", "interpolated")[0];
+  it("refuse a one-sided Hettmansperger–Sheather bound at confidence 0.5 or less, in every cell", () => {
+    const row = bounds(col(1, 2, 3, 4, 5, 6, 7, 8, 9, 10), 0.5, "upper", "hettmansperger-sheather")[0];
     expect(row).toHaveLength(3);
-    for (const cell of row) expectError(cell, "#VALUE!", /^A one-sided interpolated bound needs a confidence above 0\.5/);
+    for (const cell of row) expectError(cell, "#VALUE!", /^A one-sided Hettmansperger–Sheather bound needs a confidence above 0\.5/);
   });
 });
 

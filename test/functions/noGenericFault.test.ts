@@ -25,7 +25,7 @@ const number = fc.oneof(
 
 const word = fc.constantFrom(
   "two-sided", "greater", "less", "above", "below", "<>", ">", "<", "drop", "split", "conservative", "exact", "midp", "mid-p",
-  "normal", "auto", "pratt", "lower", "upper", "interpolated", "holm", "bonferroni", "hochberg", "bh", "by", "", " ", "GREATER ", "x", "50",
+  "normal", "auto", "pratt", "lower", "upper", "hettmansperger-sheather", "interpolated", "holm", "bonferroni", "hochberg", "bh", "by", "", " ", "GREATER ", "x", "50",
 );
 
 const cell = fc.oneof(

@@ -36,7 +36,7 @@ const CATALOGUE: [Vocabulary<string>, string, Record<string, string>][] = [
   [SIGNED_RANK_METHOD, "auto", { auto: "auto", exact: "exact", normal: "normal", "normal approximation": "normal" }],
   [ZEROS, "drop", { drop: "drop", pratt: "pratt" }],
   [SIDE, "two-sided", { "two-sided": "two-sided", lower: "lower", upper: "upper" }],
-  [BOUND_METHOD, "exact", { exact: "exact", interpolated: "interpolated" }],
+  [BOUND_METHOD, "exact", { exact: "exact", "hettmansperger-sheather": "interpolated", "hettmansperger sheather": "interpolated" }],
   [ADJUST_METHOD, "holm", { holm: "holm", bonferroni: "bonferroni", hochberg: "hochberg", bh: "bh", by: "by" }],
 ];
 
@@ -71,6 +71,10 @@ describe("chooseWord", () => {
         for (const word of Object.keys(words)) expect(message).toContain(word);
       }
     }
+  });
+
+  it("words the list with each choice's first word, the one a person types, not the value inside", () => {
+    expect(acceptedWords(BOUND_METHOD)).toBe("exact (the default) or hettmansperger-sheather (also hettmansperger sheather)");
   });
 
   it("words the list as a person would read it", () => {

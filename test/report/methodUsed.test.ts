@@ -75,6 +75,6 @@ describe("signed-rank bounds follow the question's side", () => {
     const at = (key: string) => blockValue(rows.find((r) => r.key === key)!.value, { data: column(10) }, callFunction);
     expect(typeof at("lower")).toBe("number");
     expect(at("upper")).toBe("");
-    expect(at("achieved") as number).toBeGreaterThanOrEqual(0.95);
+    expect(at("coverage") as number).toBeGreaterThanOrEqual(0.95);
   });
 });

@@ -41,7 +41,7 @@ describe("resultBlockRows", () => {
     const rows = resultBlockRows(request);
     const keys = rows.map((r) => r.key);
     expect(new Set(keys).size).toBe(keys.length);
-    for (const key of ["title", "h0", "h1", "used", "tied", "statistic", "pvalue", "method", "decision", "lower", "upper", "achieved"]) {
+    for (const key of ["title", "h0", "h1", "used", "tied", "statistic", "pvalue", "method", "decision", "lower", "upper", "coverage"]) {
       expect(keys).toContain(key);
     }
     const cautions = rows.filter((r) => r.style === "caution").map((r) => (r.value.kind === "text" ? r.value.text : ""));
