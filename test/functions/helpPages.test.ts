@@ -13,7 +13,7 @@ import { tmpdir } from "node:os";
 import { dirname, join } from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { generateCustomFunctionsMetadata } from "custom-functions-metadata";
-import { helpFiles, helpStyleSheet, helpUrlFor, jsDocExtras, vocabularyFor, type FunctionMetadata } from "../../scripts/helpPages";
+import { helpFiles, helpPage, helpStyleSheet, helpUrlFor, jsDocExtras, vocabularyFor, type FunctionMetadata } from "../../scripts/helpPages";
 import { staticHandler } from "../../scripts/staticFiles";
 import { ALTERNATIVE, SIGNED_RANK_METHOD, SIGN_METHOD, TIES } from "../../src/functions/vocabulary";
 
@@ -132,5 +132,11 @@ describe("the help pages", () => {
       examples: ["=EVENSPLIT.ADDUP(Panels[Thickness]) adds the invented thicknesses."],
       references: ["W. J. Dixon and A. M. Mood (1946), The statistical sign test."],
     });
+    const page = helpPage({ id: "ADDUP", name: "ADDUP", description: "Adds.", parameters: [] }, jsDocExtras(source).get("ADDUP")!);
+    expect(page).toContain("<h2>Result</h2><p>The sum, on two lines.</p>");
+    expect(page).toMatch(/<h2>Example<\/h2><p class="es-help-note">Invented data: coating thickness of painted panels/);
+    expect(page).toContain("<p>=EVENSPLIT.ADDUP(Panels[Thickness]) adds the invented thicknesses.</p>");
+    expect(page).toContain("<h2>Method</h2><ul><li>W. J. Dixon and A. M. Mood (1946), The statistical sign test.</li></ul>");
+    expect(helpPage({ id: "X", name: "X", description: "<b>", parameters: [] }, { examples: [], references: [] })).toContain("<p>&lt;b&gt;</p>");
   });
 });
