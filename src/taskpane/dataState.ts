@@ -123,13 +123,13 @@ export function setUseHeader(state: PaneState, index: number, useHeader: boolean
 }
 
 /**
- * How the block refers to the data.
+ * How the block refers to the data, as the person picked it.
  *
  * @example
- * setReference(state, "table").reference; // "table" (when a table can be made)
+ * setReference(state, "exact").reference; // "exact"
  */
 export function setReference(state: PaneState, reference: ReferenceChoice): PaneState {
-  return settleData({ ...state, reference, confirm: null });
+  return settleData({ ...state, reference, referenceChosen: true, confirm: null });
 }
 
 /**
@@ -159,16 +159,21 @@ export function dataReady(state: PaneState): boolean {
 }
 
 /**
- * The state with a reference form that the data allow: a table or an open
- * end that is no longer available falls back to exactly these cells.
+ * The state with a reference form that the data allow. Until the person
+ * picks one, new rows should count: the range becomes a table when the block
+ * is written, where a table can be made (the Write button then says so, and
+ * pressing it is the consent). A table or an open end that is no longer
+ * available falls back to exactly these cells.
  *
  * @example
- * settleData({ ...state, reference: "table" }).reference; // "exact" when the range is part of a table
+ * settleData(stateWithB1B25).reference; // "table" until the person picks another form
  */
 export function settleData(state: PaneState): PaneState {
-  if (!dataComplete(state) || state.reference === "exact") return state;
+  if (!dataComplete(state)) return state;
   const options = referenceOptions(choices(state));
   if (options.allTableColumns) return state;
+  if (!state.referenceChosen) return { ...state, reference: options.table.available ? "table" : "exact" };
+  if (state.reference === "exact") return state;
   const available = state.reference === "table" ? options.table.available : options.open.available;
   return available ? state : { ...state, reference: "exact" };
 }
@@ -252,7 +257,8 @@ export function referenceSentence(state: PaneState): string {
   if (options.allTableColumns) return `The block will refer to ${list}, so rows added to the table count automatically.`;
   if (state.reference === "table") {
     const rects = tablesToCreate(c).map((t) => formatAddress(t.rect));
-    return `With your agreement, ${rects.join(" and ")} will become a table when the block is written, and the block will follow its columns, so rows added to the table count automatically.`;
+    const how = state.referenceChosen ? "" : " This is the default, so that new rows count; to leave the cells as they are, choose “Use exactly these cells”.";
+    return `With your agreement, ${rects.join(" and ")} will become a table when the block is written, and the block will follow its columns, so rows added to the table count automatically.${how}`;
   }
   if (state.reference === "open") {
     const open = c.map((choice) => absoluteReference(openEnded(bodyOf(choice).rect), sheet, sheet)).join(" and ");

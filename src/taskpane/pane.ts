@@ -121,7 +121,7 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
     el(
       "div",
       { class: "es-pane" },
-      el("header", { class: "es-header" }, el("h1", undefined, "Evensplit"), el("p", undefined, "Median tests without assumptions about the distribution")),
+      el("header", { class: "es-header" }, el("h1", undefined, "Evensplit"), el("p", undefined, "Tests and bounds for a median or a quantile that count and rank the values; the sign test asks the least of the data")),
       nav,
       el("main", undefined, ...steps),
       status,

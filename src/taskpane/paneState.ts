@@ -33,6 +33,8 @@ export interface PaneState {
   readonly paired: boolean;
   readonly slots: readonly [RangeSlot, RangeSlot];
   readonly reference: ReferenceChoice;
+  /** True once the person picked the reference form; until then it follows the default (a table where one can be made). */
+  readonly referenceChosen: boolean;
   readonly question: QuestionForm;
   readonly settings: SettingsForm;
   /** The block's top-left cell as typed or suggested. */
@@ -69,6 +71,7 @@ export function initialState(): PaneState {
     paired: false,
     slots: [emptySlot(), emptySlot()],
     reference: "exact",
+    referenceChosen: false,
     question: { test: "sign", alternative: "two-sided", center: "", quantile: "0.9" },
     settings: { alpha: "0.05", confidence: "0.95", ties: "drop", signMethod: "exact", rankMethod: "auto", zeros: "drop" },
     target: "",

@@ -76,7 +76,7 @@ export function numberLinePlot(input: NumberLineInput): SVGElement {
   }
   const cx = scale.x(input.center).toFixed(1);
   plot.appendChild(svg("line", { class: "es-center", attrs: { x1: cx, x2: cx, y1: String(top - 6), y2: String(axis) } }));
-  plot.appendChild(label(Number(cx), top - 8, `H₀ ${short(input.center)}`, "middle", "es-mark"));
+  plot.appendChild(label(Number(cx), top - 8, `H0 ${short(input.center)}`, "middle", "es-mark"));
   return plot;
 }
 

@@ -114,14 +114,17 @@ export interface QuestionView {
  * an attempt to move on).
  *
  * @example
- * questionView(setCenter(state, "50"), false).h0; // "H₀: median = 50"
+ * questionView(setCenter(state, "50"), false).h0; // "H0: median = 50"
  */
 export function questionView(state: PaneState, showStepProblems: boolean): QuestionView {
   const test = effectiveTest(state);
   const names = choices(state).map((choice) => bodyOf(choice).name);
   const { question } = state;
+  const second = names[1] === undefined ? "the second value" : `“${names[1]}”`;
+  const first = names[0] === undefined ? "the first value" : `“${names[0]}”`;
+  const pairNames = state.paired && (names[0] !== undefined || names[1] !== undefined) ? ` (${second} minus ${first})` : "";
   const subjectLabel = state.paired
-    ? `The median of the differences (${names[1] ?? "second"} − ${names[0] ?? "first"}) is`
+    ? `The median of the differences (for each row, ${second} minus ${first}) is`
     : test === "quantile"
       ? `The ${question.quantile.trim() || "chosen"} quantile of ${names[0] ? `“${names[0]}”` : "the values"} is`
       : `The median of ${names[0] ? `“${names[0]}”` : "the values"} is`;
@@ -141,8 +144,8 @@ export function questionView(state: PaneState, showStepProblems: boolean): Quest
     question,
     centerProblem: showCenterProblem ? (problems.find((p) => p.field === "center")?.message ?? null) : null,
     quantileProblem: problems.find((p) => p.field === "quantile")?.message ?? null,
-    h0: n ? n.h0 : "H₀: …",
-    h1: n ? n.h1 : "H₁: …",
-    symbol: n ? n.symbol : "Type the hypothesised value to see the hypotheses.",
+    h0: n ? n.h0 : "H0: …",
+    h1: n ? n.h1 : "H1: …",
+    symbol: n ? `${n.symbol}${pairNames}` : "Type the hypothesised value to see the hypotheses.",
   };
 }

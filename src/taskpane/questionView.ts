@@ -13,7 +13,7 @@ import type { QuestionView } from "./questionState";
 
 const TEST_CHOICES: readonly Choice<BlockTest>[] = [
   { value: "sign", label: "Sign test", hint: "Fewest assumptions: it only counts values above and below. The default." },
-  { value: "signed-rank", label: "Signed-rank test (Wilcoxon)", hint: "More power, if the differences are roughly symmetric about their centre." },
+  { value: "signed-rank", label: "Signed-rank test (Wilcoxon)", hint: "More power, if the values (for pairs: second minus first) lie roughly symmetric about their centre." },
   { value: "quantile", label: "A quantile other than the median", hint: "For example the 0.9 quantile: is 90% of the output below a limit?" },
 ];
 

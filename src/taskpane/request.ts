@@ -131,11 +131,12 @@ export interface Notation {
 }
 
 /**
- * H0 and H1 in notation for the Question step.
+ * H0 and H1 in notation for the Question step, with the labels the block uses
+ * (resultBlock.ts writes "H0" and "H1"), so the pane and the sheet use one notation.
  *
  * @example
  * notation({ test: "sign", paired: false, center: 50, alternative: "greater" });
- * // { h0: "H₀: median = 50", h1: "H₁: median > 50", symbol: "median: the median of the values" }
+ * // { h0: "H0: median = 50", h1: "H1: median > 50", symbol: "median: the median of the values" }
  */
 export function notation(request: Pick<BlockRequest, "test" | "paired" | "center" | "alternative" | "quantile">): Notation {
   const value = String(request.center);
@@ -144,7 +145,7 @@ export function notation(request: Pick<BlockRequest, "test" | "paired" | "center
     request.test === "quantile"
       ? `Q(${request.quantile ?? 0.5}): the ${request.quantile ?? 0.5} quantile of the values`
       : request.paired
-        ? "D: the difference second − first of each pair"
+        ? "D: for each pair, the second value minus the first"
         : "median: the median of the values";
-  return { h0: `H₀: ${name} = ${value}`, h1: `H₁: ${name} ${RELATION[request.alternative]} ${value}`, symbol };
+  return { h0: `H0: ${name} = ${value}`, h1: `H1: ${name} ${RELATION[request.alternative]} ${value}`, symbol };
 }

@@ -20,7 +20,7 @@ import { nullBars, type NullBar } from "./plot";
 import type { NumberLineInput } from "./plotView";
 import { blockPreview, type PreviewRow } from "./preview";
 import { currentRequest } from "./questionState";
-import { blockInputs, blockRefs, bodyOf, chartSource, placeFromText, type DataChoice } from "./workflow";
+import { blockInputs, blockRefs, bodyOf, chartSource, placeFromText, referenceOptions, tablesToCreate, type DataChoice } from "./workflow";
 import { onSheet, wordingRequest } from "./writePlan";
 
 export const PAST_EDGE = "The block does not fit on the sheet there (1,048,576 rows, columns A to XFD): pick a top-left cell further up or to the left.";
@@ -144,6 +144,8 @@ export interface ResultView {
   readonly targetProblem: string | null;
   readonly recap: string;
   readonly chartAvailable: boolean;
+  /** Writing will make a table of the data first: the Write button says so. */
+  readonly makesTable: boolean;
   readonly chartHint: string;
   readonly chart: boolean;
   readonly busy: boolean;
@@ -164,6 +166,7 @@ const EMPTY: Omit<ResultView, "busy" | "confirm" | "target" | "chart"> = {
   recap: "",
   chartAvailable: false,
   chartHint: "",
+  makesTable: false,
 };
 
 /**
@@ -219,6 +222,7 @@ export function resultView(state: PaneState, calculate: CatalogueCall): ResultVi
     targetProblem,
     recap: referenceSentence(state),
     chartAvailable: source !== null,
+    makesTable: state.reference === "table" && !referenceOptions(c).allTableColumns && tablesToCreate(c).length > 0,
     chartHint:
       source === null
         ? "Not available: the two columns are not side by side."

@@ -11,6 +11,14 @@ import { el, replaceChildren, show } from "./dom";
 import { nullDistributionPlot, numberLinePlot } from "./plotView";
 import type { ResultView } from "./resultState";
 
+/**
+ * A formula with line-break chances after its commas and opening brackets, so
+ * a long formula wraps between its parts, never inside a name or a number.
+ */
+function formulaParts(formula: string): Node[] {
+  return formula.split(/(?<=[,(])/).flatMap((part, i) => (i === 0 ? [document.createTextNode(part)] : [el("wbr"), document.createTextNode(part)]));
+}
+
 export interface ResultEvents {
   target(text: string): void;
   targetFromSelection(): void;
@@ -46,7 +54,7 @@ export function resultPage(heading: HTMLElement, events: ResultEvents): ResultPa
     "table",
     { class: "es-preview" },
     el("caption", undefined, "Preview, computed now from the data"),
-    el("thead", undefined, el("tr", undefined, el("th", { attrs: { scope: "col" } }, "Row"), el("th", { attrs: { scope: "col" } }, "Value"))),
+    el("thead", undefined, el("tr", undefined, el("th", { attrs: { scope: "col" } }, "Line of the block"), el("th", { attrs: { scope: "col" } }, "Its value with the data as they are now"))),
     previewBody,
   );
   const plotBox = el("div", { class: "es-plot-box" });
@@ -57,7 +65,7 @@ export function resultPage(heading: HTMLElement, events: ResultEvents): ResultPa
   const nullId = newId("null");
   const nullCheck = el("input", { id: nullId, attrs: { type: "checkbox" } });
   nullCheck.addEventListener("change", () => events.showNull(nullCheck.checked));
-  const nullRow = el("div", { class: "es-check" }, nullCheck, el("label", { attrs: { for: nullId } }, "Also show the count’s distribution if H₀ holds"));
+  const nullRow = el("div", { class: "es-check" }, nullCheck, el("label", { attrs: { for: nullId } }, "Also show the count’s distribution if H0 holds"));
   const formulaList = el("ol", { class: "es-formulas" });
   const formulas = el("details", { class: "es-details" }, el("summary", undefined, "Formulas the block will hold"), formulaList);
   const targetField = field("Top-left cell of the block", textInput("", { autocomplete: "off" }), "", button("Use the selection", "secondary", () => events.targetFromSelection()));
@@ -110,7 +118,7 @@ export function resultPage(heading: HTMLElement, events: ResultEvents): ResultPa
       ),
     );
     if (view.rows.length > 0) {
-      replaceChildren(formulaList, ...view.rows.map((row) => el("li", undefined, el("span", { class: "es-formula-label" }, row.label), el("code", undefined, row.formula))));
+      replaceChildren(formulaList, ...view.rows.map((row) => el("li", undefined, el("span", { class: "es-formula-label" }, row.label), el("code", undefined, ...formulaParts(row.formula)))));
     }
     replaceChildren(plotBox, view.plot ? numberLinePlot(view.plot) : null);
     if (view.plot) plotCaption.textContent = view.caption;
@@ -128,6 +136,7 @@ export function resultPage(heading: HTMLElement, events: ResultEvents): ResultPa
       chartHint.textContent = view.chartHint;
     }
     chartCheck.checked = view.chart;
+    writeButton.textContent = view.makesTable ? "Make the table and write the block" : "Write the block";
     writeButton.disabled = view.busy;
     writeButton.setAttribute("aria-busy", view.busy ? "true" : "false");
     show(confirmBox, view.confirm !== null);

@@ -39,6 +39,8 @@ export interface SettingsView {
   /** Zeros and the signed-rank method: signed-rank test only. */
   readonly signedRank: boolean;
   readonly quantileTest: boolean;
+  /** What the signed-rank test sets aside, in words for one set of values or for pairs. */
+  readonly zerosLabel: string;
 }
 
 /**
@@ -57,5 +59,6 @@ export function settingsView(state: PaneState): SettingsView {
     signTest: test === "sign",
     signedRank: test === "signed-rank",
     quantileTest: test === "quantile",
+    zerosLabel: state.paired ? "Pairs whose difference equals the shift under test" : "Values that equal the median under test",
   };
 }

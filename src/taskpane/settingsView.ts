@@ -28,19 +28,19 @@ const RANK_METHOD_CHOICES: readonly Choice<SignedRankMethod>[] = [
   {
     value: "auto",
     label: "Exact when feasible (default)",
-    hint: `Exact distribution up to ${EXACT_AUTO_LIMIT.toLocaleString("en-US")} non-zero differences, normal approximation beyond; the block states which ran.`,
+    hint: `Exact distribution up to ${EXACT_AUTO_LIMIT.toLocaleString("en-US")} values away from the hypothesised value, normal approximation beyond; the block states which ran.`,
   },
   {
     value: "exact",
     label: "Exact",
-    hint: `Exact distribution given the ties, for up to ${EXACT_LIMIT.toLocaleString("en-US")} non-zero differences (slower as they grow); beyond that the cells answer #N/A and say so.`,
+    hint: `Exact distribution given the ties, for up to ${EXACT_LIMIT.toLocaleString("en-US")} values away from the hypothesised value (slower as they grow); beyond that the cells answer #N/A and say so.`,
   },
   { value: "normal", label: "Normal approximation", hint: "With continuity and tie corrections." },
 ];
 
 const ZERO_CHOICES: readonly Choice<ZeroRule>[] = [
-  { value: "drop", label: "Leave zero differences out (default)", hint: "Values equal to the hypothesised value are set aside before ranking." },
-  { value: "pratt", label: "Rank them, then leave them out of V (Pratt)", hint: "Zeros take part in the ranking, which shifts the other ranks up." },
+  { value: "drop", label: "Leave them out (default)", hint: "Values equal to the hypothesised value are set aside before ranking." },
+  { value: "pratt", label: "Rank them, then leave them out of V (Pratt)", hint: "They take part in the ranking, which shifts the other ranks up." },
 ];
 
 export interface SettingsEvents {
@@ -61,7 +61,7 @@ export interface SettingsPage {
  * const page = settingsPage(heading, events); page.render(settingsView(state));
  */
 export function settingsPage(heading: HTMLElement, events: SettingsEvents): SettingsPage {
-  const alphaField = field("Alpha (significance level)", textInput("0.05", { inputmode: "decimal" }), "The risk you accept of rejecting H₀ when it is true. A common choice is 0.05.");
+  const alphaField = field("Alpha (significance level)", textInput("0.05", { inputmode: "decimal" }), "The risk you accept of rejecting H0 when it is true. A common choice is 0.05.");
   alphaField.control.addEventListener("input", () => events.setting("alpha", alphaField.control.value));
   const confidenceField = field(
     "Confidence level of the bounds",
@@ -75,7 +75,7 @@ export function settingsPage(heading: HTMLElement, events: SettingsEvents): Sett
   signMethodField.control.addEventListener("change", () => events.setting("signMethod", signMethodField.control.value as SignTestMethod));
   const rankMethodField = field("How the p-value is computed", selectControl(RANK_METHOD_CHOICES, "auto"), hintFor(RANK_METHOD_CHOICES, "auto"));
   rankMethodField.control.addEventListener("change", () => events.setting("rankMethod", rankMethodField.control.value as SignedRankMethod));
-  const zerosField = field("Differences of zero", selectControl(ZERO_CHOICES, "drop"), hintFor(ZERO_CHOICES, "drop"));
+  const zerosField = field("Values that equal the median under test", selectControl(ZERO_CHOICES, "drop"), hintFor(ZERO_CHOICES, "drop"));
   zerosField.control.addEventListener("change", () => events.setting("zeros", zerosField.control.value as ZeroRule));
   const quantileNote = el("p", { class: "es-note" }, "The quantile test is exact and leaves out values equal to the hypothesised value.");
   const element = el(
@@ -110,6 +110,7 @@ export function settingsPage(heading: HTMLElement, events: SettingsEvents): Sett
     show(rankMethodField.element, view.signedRank);
     show(zerosField.element, view.signedRank);
     show(quantileNote, view.quantileTest);
+    zerosField.label.textContent = view.zerosLabel;
     tiesField.hint.textContent = hintFor(TIE_CHOICES, settings.ties);
     signMethodField.hint.textContent = hintFor(SIGN_METHOD_CHOICES, settings.signMethod);
     rankMethodField.hint.textContent = hintFor(RANK_METHOD_CHOICES, settings.rankMethod);

@@ -144,7 +144,7 @@ describe.skipIf(!browserAvailable())("the pane's defects, on the demo page", () 
   it("draws the null distribution with its label inside the plot and a caption of its own", async () => {
     const page = await openDemo(session, { width: 360, height: 900 });
     await toResult(page);
-    await page.getByLabel("Also show the count’s distribution if H₀ holds").check();
+    await page.getByLabel("Also show the count’s distribution if H0 holds").check();
     const plot = page.locator(".es-plot").nth(1);
     await plot.waitFor();
     const geometry = await plot.evaluate((svg) => {

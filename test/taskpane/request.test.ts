@@ -58,9 +58,9 @@ describe("buildRequest", () => {
 
 describe("notation", () => {
   it("states H0 and H1 with the right relation", () => {
-    expect(notation({ test: "sign", paired: false, center: 50, alternative: "greater" })).toMatchObject({ h0: "H₀: median = 50", h1: "H₁: median > 50" });
-    expect(notation({ test: "sign", paired: true, center: 0, alternative: "two-sided" })).toMatchObject({ h0: "H₀: median(D) = 0", h1: "H₁: median(D) ≠ 0" });
-    expect(notation({ test: "quantile", paired: false, center: 53, alternative: "less", quantile: 0.9 })).toMatchObject({ h1: "H₁: Q(0.9) < 53" });
+    expect(notation({ test: "sign", paired: false, center: 50, alternative: "greater" })).toMatchObject({ h0: "H0: median = 50", h1: "H1: median > 50" });
+    expect(notation({ test: "sign", paired: true, center: 0, alternative: "two-sided" })).toMatchObject({ h0: "H0: median(D) = 0", h1: "H1: median(D) ≠ 0" });
+    expect(notation({ test: "quantile", paired: false, center: 53, alternative: "less", quantile: 0.9 })).toMatchObject({ h1: "H1: Q(0.9) < 53" });
   });
 });
 
