@@ -20,7 +20,7 @@ import { formatAddress, parseAddress, rectSize, type CellRect } from "../taskpan
 import type { CellFont, ClearWhat, HostChart, HostContext, HostFont, HostNamedItem, HostRange, HostTable, HostTableColumn, HostWorksheet, RunBatch } from "../taskpane/host";
 import { isError, type Scalar } from "./formula/values";
 import { formatCell } from "../taskpane/numberFormat";
-import type { ChartModel, TableModel, Workbook } from "./workbook";
+import type { ChartModel, DefinedName, TableModel, Workbook } from "./workbook";
 import { areaRefusal, RefusedEntry } from "./limits";
 
 /**
@@ -392,13 +392,9 @@ class FakeRange implements HostRange {
   }
 }
 
-/** Defined names of each demo workbook (Microsoft, "Excel.NamedItemCollection class"): lower-cased name to the name and its cells. */
-const definedNames = new WeakMap<Workbook, Map<string, { name: string; sheet: string; rect: CellRect }>>();
-
-function namesOf(workbook: Workbook): Map<string, { name: string; sheet: string; rect: CellRect }> {
-  let names = definedNames.get(workbook);
-  if (!names) definedNames.set(workbook, (names = new Map()));
-  return names;
+/** Defined names of a demo workbook (Microsoft, "Excel.NamedItemCollection class"): lower-cased name to the name and its cells. */
+function namesOf(workbook: Workbook): Map<string, DefinedName> {
+  return workbook.names;
 }
 
 /**

@@ -80,13 +80,14 @@ function chartView(workbook: Workbook, chart: ChartModel): HTMLElement {
 }
 
 /**
- * Shows the workbook's first sheet in `container` and keeps it up to date.
+ * Shows the workbook's sheets in `container`, one at a time (the one holding
+ * the selection; the tabs below switch), and keeps it up to date.
  *
  * @example
  * mountGrid(document.getElementById("sheet")!, workbook);
  */
 export function mountGrid(container: HTMLElement, workbook: Workbook): void {
-  const sheet = workbook.sheetNames[0];
+  let sheet = workbook.selection.sheet;
   let active: Cursor = { row: 0, column: 0 };
   let anchor: Cursor = { row: 0, column: 0 };
   let dragging = false;
@@ -95,7 +96,8 @@ export function mountGrid(container: HTMLElement, workbook: Workbook): void {
   const contents = el("input", { class: "demo-contents", attrs: { type: "text", "aria-label": "Contents of the active cell (Enter saves, Escape cancels)", spellcheck: "false" } });
   const head = el("thead");
   const body = el("tbody");
-  const grid = el("table", { class: "demo-grid", attrs: { role: "grid", tabindex: "0", "aria-label": `Sheet ${sheet}`, "aria-multiselectable": "true" } }, head, body);
+  const grid = el("table", { class: "demo-grid", attrs: { role: "grid", tabindex: "0", "aria-multiselectable": "true" } }, head, body);
+  const tabs = el("p", { class: "demo-tab", attrs: { role: "group", "aria-label": "Sheets" } });
   const charts = el("section", { class: "demo-charts", attrs: { "aria-label": "Charts in the sheet" } });
   const refusal = el("p", { class: "demo-problem", attrs: { role: "alert" } });
   replaceChildren(
@@ -103,7 +105,7 @@ export function mountGrid(container: HTMLElement, workbook: Workbook): void {
     el("div", { class: "demo-bar" }, nameBox, el("span", { class: "demo-fx", attrs: { "aria-hidden": "true" } }, "fx"), contents),
     refusal,
     el("div", { class: "demo-grid-wrap" }, grid),
-    el("p", { class: "demo-tab" }, el("span", undefined, sheet)),
+    tabs,
     charts,
   );
 
@@ -117,7 +119,28 @@ export function mountGrid(container: HTMLElement, workbook: Workbook): void {
 
   const select = (): void => workbook.select({ sheet, rect: rect() });
 
+  function renderTabs(): void {
+    replaceChildren(
+      tabs,
+      ...workbook.sheetNames.map((name) => {
+        const tab = el("button", { class: "demo-tab-button", attrs: { type: "button", "aria-pressed": String(name === sheet) } }, name);
+        tab.addEventListener("click", () => {
+          if (name === sheet) return;
+          anchor = active = { row: 0, column: 0 };
+          workbook.select({ sheet: name, rect: { top: 0, left: 0, bottom: 0, right: 0 } });
+        });
+        return tab;
+      }),
+    );
+  }
+
   function render(): void {
+    const shownSheet = workbook.selection.sheet;
+    if (shownSheet !== sheet) {
+      sheet = shownSheet;
+      renderTabs();
+    }
+    grid.setAttribute("aria-label", `Sheet ${sheet}`);
     const used = workbook.usedRect(sheet);
     const selection = workbook.selection.rect;
     const mine = rect();
@@ -283,5 +306,6 @@ export function mountGrid(container: HTMLElement, workbook: Workbook): void {
   grid.addEventListener("dblclick", () => contents.focus());
 
   workbook.onChange(render);
+  renderTabs();
   render();
 }

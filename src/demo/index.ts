@@ -4,7 +4,7 @@
  *
  * Start-up: install the custom-functions stand-in, load the real cell
  * function bundle (functions.js) and its metadata (functions.json, same
- * origin), fill the workbook with the invented data, then show the sheet and
+ * origin), fill the workbook with the invented data (demoWorkbook.ts), then show the sheet and
  * mount the pane on a host built from the demo's Excel stand-in. Nothing is
  * sent anywhere: the page only reads its own files.
  *
@@ -17,7 +17,8 @@ import { mountPane } from "../taskpane/pane";
 import { applyTheme, type Theme } from "../taskpane/theme";
 import { fakeRun } from "./fakeExcel";
 import { mountGrid } from "./grid";
-import { DEMO_SHEET, demoRows, extraPanel } from "./inventedData";
+import { demoWorkbook } from "./demoWorkbook";
+import { DEMO_SHEET, extraPanel } from "./inventedData";
 import { addHostErrors, installStandIn, loadScript, shapesFrom, withShapes } from "./standIn";
 import { Workbook } from "./workbook";
 
@@ -57,11 +58,7 @@ async function start(): Promise<void> {
     return;
   }
 
-  const workbook = new Workbook([DEMO_SHEET]);
-  workbook.writeEntries(DEMO_SHEET, 0, 0, demoRows());
-  workbook.setFormat(DEMO_SHEET, { top: 0, left: 0, bottom: 0, right: 2 }, { bold: true });
-  [64, 150, 210].forEach((width, column) => workbook.setColumnWidth(DEMO_SHEET, column, width));
-  workbook.setFunctions(withShapes(registered, shapesFrom(metadata)));
+  const workbook = demoWorkbook(withShapes(registered, shapesFrom(metadata)));
   window.evensplitDemo = { workbook };
 
   mountGrid(sheetHost, workbook);

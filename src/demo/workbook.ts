@@ -60,6 +60,13 @@ export interface ChartModel {
   to: string;
 }
 
+/** A defined name and the cells it refers to (Microsoft, "Define and use names in formulas"). */
+export interface DefinedName {
+  readonly name: string;
+  readonly sheet: string;
+  readonly rect: CellRect;
+}
+
 export interface Selection {
   readonly sheet: string;
   readonly rect: CellRect;
@@ -152,6 +159,8 @@ export class Workbook {
   private readonly sheets: SheetModel[];
   readonly tables: TableModel[] = [];
   readonly charts: ChartModel[] = [];
+  /** Defined names by lower-cased name (names ignore case, as Excel's do). */
+  readonly names = new Map<string, DefinedName>();
   private selected: Selection;
   private readonly computed = new Map<string, Map<string, Value>>();
   private spills = new Map<string, Map<string, CellRect>>();
@@ -369,11 +378,12 @@ export class Workbook {
     return rows;
   }
 
-  addTable(sheetName: string, rect: CellRect): TableModel {
+  /** Makes a table of `rect` (header row first), named `tableName` or the next free TableN. */
+  addTable(sheetName: string, rect: CellRect, tableName = nextTableName(this.tables)): TableModel {
     const name = this.sheet(sheetName).name;
     if (rect.top === rect.bottom) throw new RangeError("A table needs a header row and at least one row of data.");
     if (this.tables.some((t) => t.sheet === name && rectsOverlap(t.rect, rect))) throw new RangeError("Tables cannot overlap.");
-    const table: TableModel = { name: nextTableName(this.tables), sheet: name, rect };
+    const table: TableModel = { name: tableName, sheet: name, rect };
     const headers = tableHeaders(this.values(name, { ...rect, bottom: rect.top })[0]);
     // The header row becomes text, as Excel makes it: a leading apostrophe keeps "2024" or "=1+1" a text.
     this.batch(() => this.writeEntries(name, rect.top, rect.left, [headers.map((h) => `'${h}`)]));
@@ -459,6 +469,10 @@ export class Workbook {
         return { kind: "reference", sheet: table.sheet, rect: { top: table.rect.top + 1, bottom: table.rect.bottom, left: c, right: c } };
       },
       customFunction: (id: string) => this.functions.get(id.toUpperCase()),
+      definedName: (name: string) => {
+        const found = this.names.get(name.toLowerCase());
+        return found ? { kind: "reference", sheet: found.sheet, rect: found.rect } : undefined;
+      },
     };
   }
 

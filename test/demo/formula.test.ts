@@ -38,6 +38,8 @@ function context(functions: Record<string, CustomFunction> = {}): EvaluationCont
     tableColumn: (table, column) =>
       table === "T" && column === "Value" ? { kind: "reference", sheet: "S", rect: { top: 0, left: 0, bottom: 4, right: 0 } } : errorValue("#REF!", "no such column"),
     customFunction: (id) => functions[id],
+    // One defined name, "firstTwo", for A1:A2.
+    definedName: (name) => (name.toLowerCase() === "firsttwo" ? { kind: "reference", sheet: "S", rect: { top: 0, left: 0, bottom: 1, right: 0 } } : undefined),
   };
 }
 
@@ -142,6 +144,11 @@ describe("evaluate: built-in functions", () => {
     expect((calc("NOSUCH(1)") as { code: string }).code).toBe("#NAME?");
     // Excel takes a formula with a name it does not know and shows #NAME?; only malformed text is refused.
     expect((calc("nosuch+1") as { code: string }).code).toBe("#NAME?");
+  });
+
+  it("a defined name stands for its cells, in any case (Microsoft, \"Define and use names in formulas\")", () => {
+    expect(calc("COUNT(FirstTwo)")).toBe(2);
+    expect(calc("INDEX(firsttwo,2,1)*3")).toBe(6);
     expect(() => parseFormula("A1+")).toThrow(FormulaSyntaxError);
   });
 });

@@ -45,6 +45,8 @@ export interface EvaluationContext {
   tableColumn(table: string, column: string): ReferenceValue | ErrorValue;
   /** A function of the add-in's namespace by id ("PVALUE"), or undefined. */
   customFunction(id: string): CustomFunction | undefined;
+  /** The cells a defined name refers to (any case), or undefined when the workbook has no such name. */
+  definedName(name: string): ReferenceValue | undefined;
 }
 
 const NAMESPACE = "EVENSPLIT.";
@@ -344,7 +346,8 @@ export function evaluate(expression: Expression, context: EvaluationContext): Va
     case "missing":
       return null;
     case "unknownName":
-      return errorValue("#NAME?", `The name "${expression.text}" is not known.`);
+      // A defined name stands for its cells; any other name is #NAME? (Microsoft, "Define and use names in formulas").
+      return context.definedName(expression.text) ?? errorValue("#NAME?", `The name "${expression.text}" is not known.`);
     case "ref":
       return reference(expression.text, context);
     case "table":
