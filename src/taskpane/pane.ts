@@ -28,7 +28,8 @@ import { resultPage } from "./resultView";
 import { setSetting, settingsStepProblem, settingsView } from "./settingsState";
 import { settingsPage } from "./settingsView";
 import { analyzeRange, defaultPlace, writeResult, type WriteOutcome } from "./workflow";
-import { onSheet } from "./writePlan";
+import { reportCopy } from "./reportText";
+import { onSheet, wordingRequest } from "./writePlan";
 
 export interface PaneOptions {
   readonly host: Host;
@@ -109,6 +110,7 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
     },
     reread: () => void rereadData(),
     back: () => void goTo(2),
+    copy: () => copyResult(),
     startOver: () => {
       update(initialState());
       headings[0].focus();
@@ -285,6 +287,31 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
     say(written);
     // The Write button was disabled while writing, which drops the focus: it goes to the confirmation, scrolled into view.
     status.focus();
+  }
+
+  /**
+   * Copies the result as text and HTML through the page's copy event, which
+   * works inside a click without asking for the clipboard permission (the
+   * asynchronous Clipboard API needs it, and Office's webviews may not grant it).
+   */
+  function copyResult(): void {
+    const built = currentRequest(state);
+    const rows = resultView(state, calculate).rows;
+    if (!built.ok || rows.length === 0) return;
+    const copy = reportCopy(wordingRequest(built.request), rows);
+    const fill = (event: ClipboardEvent): void => {
+      event.clipboardData?.setData("text/plain", copy.text);
+      event.clipboardData?.setData("text/html", copy.html);
+      event.preventDefault();
+    };
+    document.addEventListener("copy", fill);
+    let copied = false;
+    try {
+      copied = document.execCommand("copy");
+    } finally {
+      document.removeEventListener("copy", fill);
+    }
+    say(copied ? "The result was copied: one sentence for a report, then the block’s rows (as text and as a table)." : "This browser did not allow copying; select the preview table and copy it instead.");
   }
 
   function render(showStepProblems: boolean): void {

@@ -29,6 +29,8 @@ export interface ResultEvents {
   reread(): void;
   back(): void;
   startOver(): void;
+  /** Put the result on the clipboard as a sentence and the rows. */
+  copy(): void;
 }
 
 export interface ResultPage {
@@ -92,6 +94,7 @@ export function resultPage(heading: HTMLElement, events: ResultEvents): ResultPa
     { class: "es-step", attrs: { "aria-labelledby": heading.id } },
     heading,
     previewTable,
+    el("div", { class: "es-actions" }, button("Copy as text", "secondary", () => events.copy())),
     el("figure", { class: "es-figure" }, plotBox, plotCaption),
     nullRow,
     nullFigure,
