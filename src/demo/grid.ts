@@ -8,7 +8,9 @@
  * change (cell text as text nodes only). Keyboard: arrows move, Shift+arrows
  * extend the selection, typing starts an entry in the contents bar, Enter
  * there commits and moves down, Escape cancels, F2 edits, Delete clears the
- * selection; Tab leaves the grid for the pane. Typing below a table
+ * selection; Tab leaves the grid for the pane. Pasting text (Ctrl+V) fills
+ * cells from the active one, one line per row and one tab-separated field
+ * per cell (clipboard.ts), and selects them. Typing or pasting below a table
  * lengthens it, as in the spreadsheet. An entry Excel would not take (see
  * limits.ts) is refused with the reason, and the contents bar keeps it for
  * correcting, as Excel keeps a formula it cannot accept in edit mode.
@@ -18,6 +20,7 @@
 import { columnLetters, formatAddress, parseAddress, type CellRect } from "../taskpane/a1";
 import { el, replaceChildren, svg } from "../taskpane/dom";
 import { formatCell } from "../taskpane/numberFormat";
+import { clipboardCells } from "./clipboard";
 import { isError } from "./formula/values";
 import { RefusedEntry } from "./limits";
 import type { ChartModel, Workbook } from "./workbook";
@@ -304,6 +307,27 @@ export function mountGrid(container: HTMLElement, workbook: Workbook): void {
     dragging = false;
   });
   grid.addEventListener("dblclick", () => contents.focus());
+
+  // Excel pastes plain text from the active cell on, one line per row and one tab-separated field per cell.
+  grid.addEventListener("paste", (event) => {
+    const text = event.clipboardData?.getData("text/plain") ?? "";
+    const cells = clipboardCells(text);
+    if (cells.length === 0) return;
+    event.preventDefault();
+    const width = Math.max(...cells.map((row) => row.length));
+    // A short row leaves the cells to its right as they are (null), as a ragged paste has nothing for them.
+    const entries = cells.map((row) => (row.length < width ? [...row, ...Array<null>(width - row.length).fill(null)] : row));
+    try {
+      workbook.writeEntries(sheet, active.row, active.column, entries, true);
+    } catch (thrown) {
+      if (!(thrown instanceof RefusedEntry)) throw thrown;
+      refusal.textContent = `Nothing was pasted. ${thrown.message}`;
+      return;
+    }
+    refusal.textContent = "";
+    anchor = { row: active.row + entries.length - 1, column: active.column + width - 1 };
+    select();
+  });
 
   workbook.onChange(render);
   renderTabs();

@@ -254,13 +254,20 @@ export class Workbook {
     this.recalculate();
   }
 
-  /** A person typing below a table lengthens it (only non-blank entries do). */
+  /**
+   * Typing or pasting right below a table lengthens it down to the last row
+   * that holds an entry (Microsoft, "Overview of Excel tables": a table
+   * expands to include rows typed or pasted directly below it).
+   */
   private growTables(sheetName: string, top: number, left: number, entries: readonly (readonly unknown[])[]): void {
-    const filled = entries.some((row) => row.some((e) => e !== "" && e !== null && e !== undefined));
-    if (!filled) return;
+    let last = -1;
+    entries.forEach((row, r) => {
+      if (row.some((e) => e !== "" && e !== null && e !== undefined)) last = r;
+    });
+    if (last < 0) return;
     for (const table of this.tables) {
       if (table.sheet !== sheetName || top !== table.rect.bottom + 1) continue;
-      if (left >= table.rect.left && left <= table.rect.right) table.rect = { ...table.rect, bottom: table.rect.bottom + 1 };
+      if (left >= table.rect.left && left <= table.rect.right) table.rect = { ...table.rect, bottom: top + last };
     }
   }
 

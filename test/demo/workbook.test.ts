@@ -88,6 +88,13 @@ describe("tables", () => {
     expect(w.tables[0].rect.bottom).toBe(3);
   });
 
+  it("grows by every row of a paste just below it, down to the last row with an entry (Microsoft, \"Overview of Excel tables\")", () => {
+    const w = sheetWith([["Value"], [1], [2]]);
+    w.addTable(S, { top: 0, left: 0, bottom: 2, right: 0 });
+    w.writeEntries(S, 3, 0, [["4"], ["5"], ["6"], [""]], true);
+    expect(w.tables[0].rect.bottom).toBe(5);
+  });
+
   it("keeps a chart made on a table's columns linked to the table as it grows", () => {
     const w = sheetWith([["Value"], [1], [2]]);
     w.addTable(S, { top: 0, left: 0, bottom: 2, right: 0 });

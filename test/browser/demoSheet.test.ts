@@ -1,0 +1,63 @@
+/**
+ * The demo sheet as a first experience: a column of numbers pasted from the
+ * clipboard (Ctrl+V) fills one cell per value, tab-separated columns fill
+ * neighbouring cells, and the second sheet holds the README's tables so an
+ * example formula typed there answers. Expected values are the pasted text
+ * itself and the README's own example.
+ */
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { browserAvailable, cellText, openDemo, selectCells, snap, startSession, type Session } from "./browser";
+import type { Page } from "playwright-core";
+
+const run = browserAvailable();
+let session: Session;
+
+beforeAll(async () => {
+  if (run) session = await startSession();
+}, 60_000);
+afterAll(async () => {
+  if (run) await session.close();
+});
+
+/** Puts text on the clipboard and presses Ctrl+V in the sheet, as a person pasting would. */
+async function paste(page: Page, address: string, text: string): Promise<void> {
+  await session.context.grantPermissions(["clipboard-read", "clipboard-write"], { origin: session.origin });
+  await page.evaluate((t) => navigator.clipboard.writeText(t), text);
+  await selectCells(page, address);
+  await page.keyboard.press("Control+V");
+}
+
+describe.runIf(run)("the demo sheet", () => {
+  it("fills one cell per value when a column of numbers is pasted", async () => {
+    const page = await openDemo(session);
+    await paste(page, "H2", "51.2\n49.8\n50.6\n");
+    await expect.poll(() => cellText(page, 1, 7)).toBe("51.2");
+    expect([await cellText(page, 2, 7), await cellText(page, 3, 7), await cellText(page, 4, 7)]).toEqual(["49.8", "50.6", ""]);
+    expect(await page.getByLabel("Selected cells (type an address and press Enter)").inputValue()).toBe("H2:H4");
+    await page.close();
+  });
+
+  it("fills neighbouring cells from tab-separated columns", async () => {
+    const page = await openDemo(session);
+    await paste(page, "H2", "P-201\t52.1\r\nP-202\t48.9\r\n");
+    await expect.poll(() => cellText(page, 2, 8)).toBe("48.9");
+    expect([await cellText(page, 1, 7), await cellText(page, 1, 8), await cellText(page, 2, 7)]).toEqual(["P-201", "52.1", "P-202"]);
+    await page.close();
+  });
+
+  it("shows the README's tables on a second sheet, where the README's examples answer", async () => {
+    const page = await openDemo(session);
+    await page.getByRole("button", { name: "README examples" }).click();
+    await expect.poll(() => cellText(page, 9, 0)).toBe("Thickness");
+    expect(await cellText(page, 0, 0)).toContain("Invented data");
+    await selectCells(page, "O2");
+    await page.keyboard.type("=EVENSPLIT.COUNTPVALUE(18, 7, \"greater\")");
+    await page.keyboard.press("Enter");
+    // The README gives 0.0216 for this example.
+    await expect.poll(async () => Number(await cellText(page, 1, 14)).toFixed(4)).toBe("0.0216");
+    await snap(page, "20-demo-readme-sheet");
+    await page.getByRole("button", { name: "Paint line" }).click();
+    await expect.poll(() => cellText(page, 0, 1)).toBe("Thickness (µm)");
+    await page.close();
+  });
+});
