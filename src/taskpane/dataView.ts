@@ -19,6 +19,8 @@ export interface DataEvents {
   reference(choice: ReferenceChoice): void;
   /** Take a two-column range chosen as one set of values as pairs instead. */
   asPairs(): void;
+  /** Load the block that holds the selected cell, to change it and write it again. */
+  editBlock(): void;
   next(): void;
 }
 
@@ -85,6 +87,12 @@ export function dataPage(heading: HTMLElement, events: DataEvents): DataPage {
     { class: "es-step", attrs: { "aria-labelledby": heading.id } },
     heading,
     el("p", { class: "es-intro" }, "Choose the cells with your measurements. Blank cells, text and TRUE/FALSE are skipped and counted."),
+    el(
+      "div",
+      { class: "es-edit" },
+      el("p", { class: "es-hint" }, "To change a block written earlier, select one of its cells:"),
+      button("Edit the block at the selection", "secondary", () => events.editBlock()),
+    ),
     kindGroup.element,
     slotViews[0].element,
     slotViews[1].element,

@@ -14,7 +14,7 @@
  * Cost: O(cells of the data) per render of the Result step's preview.
  */
 import { resultBlockRows, type CatalogueCall } from "../report/resultBlock";
-import { formatAddress } from "./a1";
+import { formatAddress, parseAddress } from "./a1";
 import { button, newId } from "./controls";
 import { choices, dataReady, dataStepProblem, dataView, setPaired, setReference, setUseHeader, slotCleared, slotFailed, slotRead, splitIntoPairs } from "./dataState";
 import { dataPage } from "./dataView";
@@ -27,15 +27,21 @@ import { NO_ADDRESS, PAST_EDGE, resultView, setChart, setConfirm, setShowNull, s
 import { resultPage } from "./resultView";
 import { setSetting, settingsStepProblem, settingsView } from "./settingsState";
 import { settingsPage } from "./settingsView";
-import { analyzeRange, defaultPlace, writeResult, type WriteOutcome } from "./workflow";
+import { analyzeRange, blockInputs, blockRefs, defaultPlace, writeResult, type WriteOutcome } from "./workflow";
+import { blockAt, readBlock, type BlockReading } from "./blockEdit";
+import { blockPreview, blockWrite } from "./preview";
+import { structuredReference } from "./references";
 import { reportCopy } from "./reportText";
-import { onSheet, wordingRequest } from "./writePlan";
+import { onSheet, wordingRequest, type BlockMark } from "./writePlan";
 
 export interface PaneOptions {
   readonly host: Host;
   /** Runs a catalogue function by id: the preview's calculator (functions.ts callFunction). */
   readonly calculate: CatalogueCall;
 }
+
+/** The block's audit line (resultBlock.ts): it holds the time of writing. */
+const AUDIT_KEY = "audit";
 
 function errorMessage(thrown: unknown): string {
   return thrown instanceof Error && thrown.message ? thrown.message : "The workbook did not answer.";
@@ -82,6 +88,7 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
     header: (index, useHeader) => update(setUseHeader(state, index, useHeader)),
     reference: (choice) => update(setReference(state, choice)),
     asPairs: () => update(splitIntoPairs(state)),
+    editBlock: () => void editSelectedBlock(true),
     next: () => void goTo(1),
   });
   const question = questionPage(headings[1], {
@@ -314,6 +321,88 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
     say(copied ? "The result was copied: one sentence for a report, then the block’s rows (as text and as a table)." : "This browser did not allow copying; select the preview table and copy it instead.");
   }
 
+  /** The text to read for a reference of a block's formula: a table column with its header, or the cells with the name row above them when there is one. */
+  async function referenceAddress(reference: string, sheet: string): Promise<string | null> {
+    if (reference.includes("[")) {
+      for (const table of await host.tables(sheet)) {
+        const index = table.columns.findIndex((column) => structuredReference(table.name, column).toLowerCase() === reference.toLowerCase());
+        if (index >= 0) return formatAddress({ ...table.rect, left: table.rect.left + index, right: table.rect.left + index }, table.sheet);
+      }
+      return null;
+    }
+    const parsed = parseAddress(reference.replace(/\$/g, ""));
+    if (!parsed) return null;
+    const where = parsed.sheet ?? sheet;
+    let top = parsed.top;
+    if (top > 0) {
+      const above = await host.read(formatAddress({ ...parsed, top: top - 1, bottom: top - 1 }, where));
+      if (above && above.values[0].some((v) => typeof v === "string" && v.trim() !== "")) top -= 1;
+    }
+    return formatAddress({ ...parsed, top }, where);
+  }
+
+  /**
+   * Loads the block that holds the selected cell: its data, question and
+   * settings as its formulas give them (blockEdit.ts), accepted only when
+   * writing them again would give exactly those formulas; the place stays the
+   * block's own, so writing replaces it there.
+   */
+  async function editSelectedBlock(announce: boolean): Promise<void> {
+    try {
+      const selected = parseAddress(await host.selection());
+      const blocks = await host.blocks();
+      const sheet = selected?.sheet ?? (blocks[0]?.sheet ?? "");
+      const block = selected ? blockAt(blocks, sheet, selected) : null;
+      if (!block) {
+        if (announce) say("The selected cell is not part of a block Evensplit wrote. Select a cell of the block, then press the button again.");
+        return;
+      }
+      const cells = await host.read(formatAddress(block.rect, block.sheet));
+      const reading = cells ? readBlock(cells.formulas) : null;
+      const loaded = reading && cells ? await stateFromBlock(reading, block, cells.formulas) : null;
+      if (!loaded) {
+        say(`The block at ${formatAddress(block.rect, block.sheet)} does not read back as this version of the pane writes it (it may come from another version, or have been edited by hand). Choose its data again to write a new one.`);
+        return;
+      }
+      update(loaded);
+      headings[3].focus();
+      say(`The block at ${formatAddress(block.rect, block.sheet)} is loaded: change what you need, then write it; it is replaced where it is.`);
+    } catch (thrown) {
+      if (announce) say(`The block could not be read: ${errorMessage(thrown)}`);
+    }
+  }
+
+  async function stateFromBlock(reading: BlockReading, block: BlockMark, formulas: readonly (readonly unknown[])[]): Promise<PaneState | null> {
+    let base = setPaired(initialState(), reading.paired);
+    for (let i = 0; i < reading.references.length; i++) {
+      const address = await referenceAddress(reading.references[i], block.sheet);
+      if (!address) return null;
+      base = slotRead(base, i, address, await analyzeRange(host, address));
+    }
+    const open = reading.references.some((r) => /\$?1048576$/.test(r));
+    base = setReference(base, open ? "open" : "exact");
+    base = setAlternative(setCenter(setTest(base, reading.test), String(reading.center)), reading.alternative);
+    if (reading.quantile !== null) base = setQuantile(base, String(reading.quantile));
+    base = setSetting(base, "alpha", String(reading.alpha));
+    if (reading.ties) base = setSetting(base, "ties", reading.ties);
+    if (reading.signMethod) base = setSetting(base, "signMethod", reading.signMethod);
+    if (reading.rankMethod) base = setSetting(base, "rankMethod", reading.rankMethod);
+    if (reading.zeros) base = setSetting(base, "zeros", reading.zeros);
+    base = setTarget(atStep(base, 3), formatAddress({ ...block.rect, bottom: block.rect.top, right: block.rect.left }, block.sheet));
+    for (const confidence of reading.confidences) {
+      const candidate = setSetting(base, "confidence", String(confidence));
+      const built = currentRequest(candidate);
+      if (!built.ok || !dataReady(candidate)) continue;
+      const c = choices(candidate);
+      const rows = blockPreview(wordingRequest(built.request), blockInputs(c), blockRefs(c, candidate.reference, [], block.sheet), calculate);
+      const again = blockWrite(rows, block.sheet, block.rect).formulas;
+      // The audit line carries the time of writing, which a second writing cannot repeat.
+      const same = again.length === formulas.length && again.every((row, r) => rows[r].key === AUDIT_KEY || row.every((cell, c) => cell === String(formulas[r][c] ?? "")));
+      if (same) return candidate;
+    }
+    return null;
+  }
+
   function render(showStepProblems: boolean): void {
     steps.forEach((s, i) => show(s, i === state.step));
     stepButtons.forEach((b, i) => {
@@ -327,4 +416,6 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
   }
 
   render(false);
+  // Opened with a cell of a block selected: that block is loaded to be changed.
+  void editSelectedBlock(false);
 }
