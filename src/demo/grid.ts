@@ -4,8 +4,13 @@
  * under each cell's number format; and the charts the workbook recorded,
  * drawn below the grid.
  *
- * Method: the grid is an HTML table rebuilt from the workbook after every
- * change (cell text as text nodes only). Keyboard: arrows move, Shift+arrows
+ * Method: the grid is an HTML table drawn from the workbook after every
+ * change, but only the rows in view and a margin around them (virtual
+ * scrolling): spacer rows stand for the rest, so the scroll bar spans the
+ * whole sheet while 100,000 rows cost no more to draw than 100. Each drawn
+ * cell keeps its id (demo-cell-ROW-COLUMN) and the grid's aria-activedescendant
+ * names the active one; moving the active cell (arrows, the name box, the
+ * pane's selection) scrolls it into view first. Cell text as text nodes only. Keyboard: arrows move, Shift+arrows
  * extend the selection, typing starts an entry in the contents bar, Enter
  * there commits and moves down, Escape cancels, F2 edits, Delete clears the
  * selection; Tab leaves the grid for the pane. Pasting text (Ctrl+V) fills
@@ -15,7 +20,7 @@
  * limits.ts) is refused with the reason, and the contents bar keeps it for
  * correcting, as Excel keeps a formula it cannot accept in edit mode.
  *
- * Cost: O(visible cells) per change.
+ * Cost: O(drawn cells) per change and per scroll past the drawn rows.
  */
 import { columnLetters, formatAddress, parseAddress, type CellRect } from "../taskpane/a1";
 import { el, replaceChildren, svg } from "../taskpane/dom";
@@ -29,6 +34,12 @@ const MIN_ROWS = 32;
 const MIN_COLUMNS = 12;
 const DEFAULT_WIDTH = 84;
 const ROW_HEADER_WIDTH = 40;
+/** A first guess of a row's height in pixels (demo.css); the grid measures the real one once drawn. */
+const DEFAULT_ROW_HEIGHT = 22;
+/** Rows drawn beyond those in view on either side, so that scrolling a little needs no drawing. */
+const OVERSCAN = 20;
+/** At least this many rows are drawn, so that a short sheet area still shows whole. */
+const MIN_WINDOW = 100;
 
 interface Cursor {
   row: number;
@@ -101,13 +112,14 @@ export function mountGrid(container: HTMLElement, workbook: Workbook): void {
   const body = el("tbody");
   const grid = el("table", { class: "demo-grid", attrs: { role: "grid", tabindex: "0", "aria-multiselectable": "true" } }, head, body);
   const tabs = el("p", { class: "demo-tab", attrs: { role: "group", "aria-label": "Sheets" } });
+  const wrap = el("div", { class: "demo-grid-wrap" }, grid);
   const charts = el("section", { class: "demo-charts", attrs: { "aria-label": "Charts in the sheet" } });
   const refusal = el("p", { class: "demo-problem", attrs: { role: "alert" } });
   replaceChildren(
     container,
     el("div", { class: "demo-bar" }, nameBox, el("span", { class: "demo-fx", attrs: { "aria-hidden": "true" } }, "fx"), contents),
     refusal,
-    el("div", { class: "demo-grid-wrap" }, grid),
+    wrap,
     tabs,
     charts,
   );
@@ -137,6 +149,75 @@ export function mountGrid(container: HTMLElement, workbook: Workbook): void {
     );
   }
 
+  /** What the last render showed: the body is drawn from it again as the sheet scrolls. */
+  let view = { rows: MIN_ROWS, columns: MIN_COLUMNS, selection: workbook.selection.rect };
+  let drawn = { first: -1, last: -1 };
+  let rowHeight = DEFAULT_ROW_HEIGHT;
+  let shownActive = "";
+
+  /** The rows to draw for the current scroll position: those in view and OVERSCAN more on either side. */
+  function rowWindow(): { first: number; last: number } {
+    const count = Math.max(MIN_WINDOW, Math.ceil(wrap.clientHeight / rowHeight) + 2 * OVERSCAN);
+    const last = Math.min(view.rows - 1, Math.max(0, Math.floor(wrap.scrollTop / rowHeight) - OVERSCAN) + count - 1);
+    return { first: Math.max(0, last - count + 1), last };
+  }
+
+  /** Scrolls the sheet (not the page) so that `row` is in view below the sticky header. */
+  function keepRowInView(row: number): void {
+    const header = head.offsetHeight;
+    const top = header + row * rowHeight;
+    if (top < wrap.scrollTop + header) wrap.scrollTop = top - header;
+    else if (top + rowHeight > wrap.scrollTop + wrap.clientHeight) wrap.scrollTop = top + rowHeight - wrap.clientHeight;
+  }
+
+  function spacer(height: number): HTMLElement {
+    const td = el("td", { class: "demo-spacer", attrs: { colspan: String(view.columns + 1) } });
+    td.style.height = `${height}px`;
+    return el("tr", { attrs: { "aria-hidden": "true" } }, td);
+  }
+
+  function cellView(r: number, c: number, tables: readonly { rect: CellRect }[]): HTMLElement {
+    const { selection } = view;
+    const shown = shownText(workbook, sheet, r, c);
+    const format = workbook.format(sheet, r, c);
+    const inSelection = r >= selection.top && r <= selection.bottom && c >= selection.left && c <= selection.right;
+    const classes = ["demo-cell"];
+    if (shown.numeric) classes.push("demo-num");
+    if (format.bold) classes.push("demo-bold");
+    if (format.italic) classes.push("demo-italic");
+    if (inSelection) classes.push("demo-selected");
+    if (r === active.row && c === active.column) classes.push("demo-active");
+    const table = tables.find((t) => r >= t.rect.top && r <= t.rect.bottom && c >= t.rect.left && c <= t.rect.right);
+    if (table) classes.push(r === table.rect.top ? "demo-table-header" : "demo-table-body");
+    if (shown.error) classes.push("demo-error");
+    // Text runs on over empty neighbours to its right, as in the spreadsheet.
+    if (!shown.numeric && shown.text !== "" && workbook.value(sheet, r, c + 1) === null) classes.push("demo-overflow");
+    const td = el("td", { class: classes.join(" "), id: cellId(r, c), attrs: { role: "gridcell", "aria-selected": inSelection ? "true" : "false", "data-row": String(r), "data-column": String(c) } }, shown.text);
+    if (shown.error) td.setAttribute("title", shown.error);
+    if (format.color) td.style.color = format.color;
+    return td;
+  }
+
+  /** Draws the rows in view (with spacers standing for the rows above and below), never the whole sheet. */
+  function drawBody(): void {
+    const { first, last } = (drawn = rowWindow());
+    const tables = workbook.tables.filter((t) => t.sheet === sheet);
+    const rowsOut: HTMLElement[] = [spacer(first * rowHeight)];
+    for (let r = first; r <= last; r++) {
+      const tr = el("tr", { attrs: { "aria-rowindex": String(r + 2) } }, el("th", { attrs: { scope: "row" } }, String(r + 1)));
+      for (let c = 0; c < view.columns; c++) tr.appendChild(cellView(r, c, tables));
+      rowsOut.push(tr);
+    }
+    rowsOut.push(spacer((view.rows - 1 - last) * rowHeight));
+    replaceChildren(body, ...rowsOut);
+    // Rows are as high as the style makes them; measure once drawn, and draw again if the guess was off.
+    const measured = (rowsOut[1] as HTMLElement | undefined)?.getBoundingClientRect().height ?? 0;
+    if (measured > 0 && Math.abs(measured - rowHeight) > 0.5) {
+      rowHeight = measured;
+      drawBody();
+    }
+  }
+
   function render(): void {
     const shownSheet = workbook.selection.sheet;
     if (shownSheet !== sheet) {
@@ -154,10 +235,11 @@ export function mountGrid(container: HTMLElement, workbook: Workbook): void {
     }
     const rows = Math.max(MIN_ROWS, (used?.bottom ?? 0) + 6, selection.bottom + 2);
     const columns = Math.max(MIN_COLUMNS, (used?.right ?? 0) + 3, selection.right + 2);
+    view = { rows, columns, selection };
     const widths = Array.from({ length: columns }, (_, c) => workbook.columnWidth(sheet, c) ?? DEFAULT_WIDTH);
     replaceChildren(
       head,
-      el("tr", undefined, el("th", { class: "demo-corner", attrs: { scope: "col" } }), ...widths.map((width, c) => {
+      el("tr", { attrs: { "aria-rowindex": "1" } }, el("th", { class: "demo-corner", attrs: { scope: "col" } }), ...widths.map((width, c) => {
         const th = el("th", { attrs: { scope: "col" } }, columnLetters(c));
         th.style.width = `${width}px`;
         return th;
@@ -165,42 +247,26 @@ export function mountGrid(container: HTMLElement, workbook: Workbook): void {
     );
     // A fixed layout needs a definite width: then the columns keep their widths, as a sheet's do.
     grid.style.width = `${ROW_HEADER_WIDTH + widths.reduce((sum, w) => sum + w, 0)}px`;
-    const tableCells = new Map<string, "header" | "body">();
-    for (const t of workbook.tables.filter((x) => x.sheet === sheet)) {
-      for (let r = t.rect.top; r <= t.rect.bottom; r++) for (let c = t.rect.left; c <= t.rect.right; c++) tableCells.set(`${r},${c}`, r === t.rect.top ? "header" : "body");
-    }
-    const rowsOut: HTMLElement[] = [];
-    for (let r = 0; r < rows; r++) {
-      const tr = el("tr", undefined, el("th", { attrs: { scope: "row" } }, String(r + 1)));
-      for (let c = 0; c < columns; c++) {
-        const shown = shownText(workbook, sheet, r, c);
-        const format = workbook.format(sheet, r, c);
-        const inSelection = r >= selection.top && r <= selection.bottom && c >= selection.left && c <= selection.right;
-        const classes = ["demo-cell"];
-        if (shown.numeric) classes.push("demo-num");
-        if (format.bold) classes.push("demo-bold");
-        if (format.italic) classes.push("demo-italic");
-        if (inSelection) classes.push("demo-selected");
-        if (r === active.row && c === active.column) classes.push("demo-active");
-        const table = tableCells.get(`${r},${c}`);
-        if (table) classes.push(table === "header" ? "demo-table-header" : "demo-table-body");
-        if (shown.error) classes.push("demo-error");
-        // Text runs on over empty neighbours to its right, as in the spreadsheet.
-        if (!shown.numeric && shown.text !== "" && workbook.value(sheet, r, c + 1) === null) classes.push("demo-overflow");
-        const td = el("td", { class: classes.join(" "), id: cellId(r, c), attrs: { role: "gridcell", "aria-selected": inSelection ? "true" : "false", "data-row": String(r), "data-column": String(c) } }, shown.text);
-        if (shown.error) td.setAttribute("title", shown.error);
-        if (format.color) td.style.color = format.color;
-        tr.appendChild(td);
-      }
-      rowsOut.push(tr);
-    }
-    replaceChildren(body, ...rowsOut);
+    grid.setAttribute("aria-rowcount", String(rows + 1));
+    grid.setAttribute("aria-colcount", String(columns + 1));
+    const activeKey = `${sheet}!${active.row},${active.column}`;
+    const moved = activeKey !== shownActive;
+    shownActive = activeKey;
+    if (moved) keepRowInView(active.row);
+    drawBody();
     grid.setAttribute("aria-activedescendant", cellId(active.row, active.column));
     nameBox.value = formatAddress(selection);
     if (document.activeElement !== contents) contents.value = String(workbook.entry(sheet, active.row, active.column));
     replaceChildren(charts, ...workbook.charts.filter((c) => c.sheet === sheet).map((c) => chartView(workbook, c)));
-    document.getElementById(cellId(active.row, active.column))?.scrollIntoView({ block: "nearest", inline: "nearest" });
+    if (moved) document.getElementById(cellId(active.row, active.column))?.scrollIntoView({ block: "nearest", inline: "nearest" });
   }
+
+  wrap.addEventListener("scroll", () => {
+    // Draw again only once the rows in view reach past the drawn ones.
+    const top = Math.floor(wrap.scrollTop / rowHeight);
+    const bottom = Math.ceil((wrap.scrollTop + wrap.clientHeight) / rowHeight);
+    if (top < drawn.first || (bottom > drawn.last && drawn.last < view.rows - 1)) drawBody();
+  });
 
   function moveTo(row: number, column: number, extend: boolean): void {
     active = { row: Math.max(0, row), column: Math.max(0, column) };

@@ -79,6 +79,7 @@ interface SheetModel {
 }
 
 const DEFAULT_FORMAT: CellFormat = { numberFormat: "General", bold: false, italic: false, color: null };
+const FORMAT_PROPERTIES = Object.keys(DEFAULT_FORMAT) as (keyof CellFormat)[];
 const MAX_PASSES = 4;
 
 function key(row: number, column: number): string {
@@ -86,8 +87,18 @@ function key(row: number, column: number): string {
 }
 
 function fromKey(k: string): { row: number; column: number } {
-  const [row, column] = k.split(",").map(Number);
-  return { row, column };
+  const comma = k.indexOf(",");
+  return { row: Number(k.slice(0, comma)), column: Number(k.slice(comma + 1)) };
+}
+
+/** Cells of a sheet that changed, or whose answers may have: what a recalculation starts from. */
+interface Region {
+  readonly sheet: string;
+  readonly rect: CellRect;
+}
+
+function single(row: number, column: number): CellRect {
+  return { top: row, left: column, bottom: row, right: column };
 }
 
 /** A typed or API-written entry: formula, text (leading apostrophe forces text), number, logical or blank. */
@@ -171,10 +182,25 @@ export class Workbook {
   private held = 0;
   private blanksAsZeros = false;
   private pending = { recalculate: false, notify: false };
+  /** Sheets by lower-cased name: every cell read looks its sheet up. */
+  private readonly byName = new Map<string, SheetModel>();
+  /** Keys of the formula cells of each sheet, so a recalculation never walks the constants. */
+  private readonly formulaKeys = new Map<string, Set<string>>();
+  /** Per formula cell ("sheet!row,column"), the ranges it read when last calculated. */
+  private readonly reads = new Map<string, Region[]>();
+  /** Cells written since the last recalculation; a full recalculation when `full`. */
+  private changed: Region[] = [];
+  private full = true;
+  /** Used rectangles by sheet (values only, and with formats), until the next change. */
+  private readonly usedCache = new Map<string, CellRect | null>();
 
   constructor(sheetNames: readonly string[]) {
     if (sheetNames.length === 0) throw new RangeError("a workbook needs a sheet");
     this.sheets = sheetNames.map((name) => ({ name, cells: new Map(), columnWidths: new Map() }));
+    for (const sheet of this.sheets) {
+      this.byName.set(sheet.name.toLowerCase(), sheet);
+      this.formulaKeys.set(sheet.name, new Set());
+    }
     this.selected = { sheet: sheetNames[0], rect: { top: 0, left: 0, bottom: 0, right: 0 } };
   }
 
@@ -207,11 +233,11 @@ export class Workbook {
   }
 
   hasSheet(name: string): boolean {
-    return this.sheets.some((s) => s.name.toLowerCase() === name.toLowerCase());
+    return this.byName.has(name.toLowerCase());
   }
 
   private sheet(name: string): SheetModel {
-    const found = this.sheets.find((s) => s.name.toLowerCase() === name.toLowerCase());
+    const found = this.byName.get(name.toLowerCase());
     if (!found) throw new RangeError(`There is no sheet named ${name}.`);
     return found;
   }
@@ -239,6 +265,7 @@ export class Workbook {
     if (outside) throw new RefusedEntry(outside);
     // Every entry is checked before any is written: a refused write changes nothing.
     const checked = entries.map((row) => row.map((entry) => (entry === null ? null : checkedEntry(entry))));
+    const formulas = this.formulaKeys.get(sheet.name) as Set<string>;
     checked.forEach((row, r) =>
       row.forEach((entry, c) => {
         if (entry === null) return;
@@ -248,10 +275,18 @@ export class Workbook {
         if (constant === null && formula === null && existing === undefined) return;
         const format = existing?.format ?? { ...DEFAULT_FORMAT };
         sheet.cells.set(k, { constant, formula, parsed, format });
+        if (parsed === null) formulas.delete(k);
+        else formulas.add(k);
       }),
     );
-    if (typed) this.growTables(sheet.name, top, left, entries);
-    this.recalculate();
+    this.usedCache.clear();
+    const rect = { top, left, bottom: top + entries.length - 1, right: left + width - 1 };
+    const grew = typed && this.growTables(sheet.name, top, left, entries);
+    // A table's header names its columns: a write there, or a table growing, changes what structured references mean.
+    const header = this.tables.some((t) => t.sheet === sheet.name && rectsOverlap({ ...t.rect, bottom: t.rect.top }, rect));
+    if (grew || header) this.full = true;
+    if (entries.length > 0 && width > 0) this.changed.push({ sheet: sheet.name, rect });
+    this.calculate();
   }
 
   /**
@@ -259,16 +294,21 @@ export class Workbook {
    * that holds an entry (Microsoft, "Overview of Excel tables": a table
    * expands to include rows typed or pasted directly below it).
    */
-  private growTables(sheetName: string, top: number, left: number, entries: readonly (readonly unknown[])[]): void {
+  private growTables(sheetName: string, top: number, left: number, entries: readonly (readonly unknown[])[]): boolean {
     let last = -1;
     entries.forEach((row, r) => {
       if (row.some((e) => e !== "" && e !== null && e !== undefined)) last = r;
     });
-    if (last < 0) return;
+    if (last < 0) return false;
+    let grew = false;
     for (const table of this.tables) {
       if (table.sheet !== sheetName || top !== table.rect.bottom + 1) continue;
-      if (left >= table.rect.left && left <= table.rect.right) table.rect = { ...table.rect, bottom: top + last };
+      if (left >= table.rect.left && left <= table.rect.right) {
+        table.rect = { ...table.rect, bottom: top + last };
+        grew = true;
+      }
     }
+    return grew;
   }
 
   setFormat(sheetName: string, rect: CellRect, patch: Partial<CellFormat>): void {
@@ -281,6 +321,7 @@ export class Workbook {
         sheet.cells.set(k, cell);
       }
     }
+    this.usedCache.clear();
     this.notify();
   }
 
@@ -355,14 +396,27 @@ export class Workbook {
    */
   usedRect(sheetName: string, withFormats = false): CellRect | null {
     const name = this.sheet(sheetName).name;
-    let rect: CellRect | null = null;
+    const cacheKey = `${withFormats ? "f" : "v"}${name}`;
+    const cached = this.usedCache.get(cacheKey);
+    if (cached !== undefined) return cached;
+    const found = this.findUsedRect(name, withFormats);
+    this.usedCache.set(cacheKey, found);
+    return found;
+  }
+
+  private findUsedRect(name: string, withFormats: boolean): CellRect | null {
+    let top = Infinity;
+    let left = Infinity;
+    let bottom = -Infinity;
+    let right = -Infinity;
     const grow = (row: number, column: number): void => {
-      rect = rect === null
-        ? { top: row, left: column, bottom: row, right: column }
-        : { top: Math.min(rect.top, row), left: Math.min(rect.left, column), bottom: Math.max(rect.bottom, row), right: Math.max(rect.right, column) };
+      top = Math.min(top, row);
+      left = Math.min(left, column);
+      bottom = Math.max(bottom, row);
+      right = Math.max(right, column);
     };
     for (const [k, cell] of this.sheet(name).cells) {
-      const formatted = withFormats && (Object.keys(DEFAULT_FORMAT) as (keyof CellFormat)[]).some((p) => cell.format[p] !== DEFAULT_FORMAT[p]);
+      const formatted = withFormats && FORMAT_PROPERTIES.some((p) => cell.format[p] !== DEFAULT_FORMAT[p]);
       if (cell.constant === null && cell.formula === null && !formatted) continue;
       const { row, column } = fromKey(k);
       grow(row, column);
@@ -371,7 +425,7 @@ export class Workbook {
       grow(rectOfSpill.top, rectOfSpill.left);
       grow(rectOfSpill.bottom, rectOfSpill.right);
     }
-    return rect;
+    return top === Infinity ? null : { top, left, bottom, right };
   }
 
   /** Values of a rectangle, row by row (null for blank). */
@@ -435,7 +489,7 @@ export class Workbook {
       if (this.held === 0) {
         const { recalculate, notify } = this.pending;
         this.pending = { recalculate: false, notify: false };
-        if (recalculate) this.recalculate();
+        if (recalculate) this.calculate();
         else if (notify) this.notify();
       }
     }
@@ -449,12 +503,15 @@ export class Workbook {
     for (const listener of this.listeners) listener();
   }
 
-  private context(sheetName: string, evaluateCell: (sheet: string, row: number, column: number) => Scalar): EvaluationContext {
+  /** The evaluator's view of the workbook for one formula cell; every range it reads is added to `read`. */
+  private context(sheetName: string, evaluateCell: (sheet: string, row: number, column: number) => Scalar, read: Region[]): EvaluationContext {
     return {
       sheet: sheetName,
       blanksAsZeros: this.blanksAsZeros,
       hasSheet: (name: string) => this.hasSheet(name),
       read: (reference: ReferenceValue) => {
+        // The whole range counts as read, down to row 1,048,576 for A:A, so a value typed below the used rows reaches it.
+        read.push({ sheet: this.sheetName(reference.sheet), rect: reference.rect });
         const used = this.usedRect(reference.sheet);
         const bottom = reference.rect.bottom === LAST_ROW || rectSize(reference.rect).rows > 10_000
           ? Math.max(reference.rect.top, Math.min(reference.rect.bottom, used?.bottom ?? reference.rect.top))
@@ -485,12 +542,55 @@ export class Workbook {
 
   private formulaCells(): { sheet: string; k: string; cell: Cell }[] {
     const found: { sheet: string; k: string; cell: Cell }[] = [];
-    for (const sheet of this.sheets) for (const [k, cell] of sheet.cells) if (cell.parsed !== null) found.push({ sheet: sheet.name, k, cell });
+    for (const sheet of this.sheets) {
+      for (const k of this.formulaKeys.get(sheet.name) ?? []) {
+        const cell = sheet.cells.get(k);
+        if (cell?.parsed) found.push({ sheet: sheet.name, k, cell });
+      }
+    }
     return found;
   }
 
+  /**
+   * Formula cells whose answers may differ after `changed`: those inside it,
+   * those that read any of it, and, over and over, those that read a cell (or
+   * the spilled area) of a formula already found — the cells that depend on
+   * the change, directly or through other formulas.
+   */
+  private dependents(changed: readonly Region[]): Set<string> {
+    const regions = [...changed];
+    const dirty = new Set<string>();
+    const formulas = this.formulaCells();
+    const touches = (sheet: string, rect: CellRect): boolean => regions.some((g) => g.sheet === sheet && rectsOverlap(g.rect, rect));
+    // An anchor written over (a formula replaced, say) takes its spilled values with it.
+    for (const [sheet, areas] of this.spills) {
+      for (const [k, rect] of areas) {
+        const { row, column } = fromKey(k);
+        if (changed.some((g) => g.sheet === sheet && rectContains(g.rect, single(row, column)))) regions.push({ sheet, rect });
+      }
+    }
+    for (let grown = true; grown; ) {
+      grown = false;
+      for (const { sheet, k } of formulas) {
+        const id = `${sheet}!${k}`;
+        if (dirty.has(id)) continue;
+        const { row, column } = fromKey(k);
+        if (!touches(sheet, single(row, column)) && !(this.reads.get(id) ?? []).some((r) => touches(r.sheet, r.rect))) continue;
+        dirty.add(id);
+        grown = true;
+        regions.push({ sheet, rect: single(row, column) });
+        const spill = this.spills.get(sheet)?.get(k);
+        if (spill) regions.push({ sheet, rect: spill });
+      }
+    }
+    return dirty;
+  }
+
+  /**
+   * Calculates every formula cell not yet calculated (memoised, each at most
+   * once), recording what each reads.
+   */
   private calculatePass(): void {
-    this.computed.clear();
     const inProgress = new Set<string>();
     const results = (sheet: string): Map<string, Value> => {
       let map = this.computed.get(sheet);
@@ -503,13 +603,15 @@ export class Workbook {
       const id = `${sheet}!${k}`;
       if (inProgress.has(id)) return errorValue("#REF!", "This formula depends on itself (a circular reference).");
       inProgress.add(id);
-      const context = this.context(sheet, readCell);
+      const read: Region[] = [];
+      const context = this.context(sheet, readCell, read);
       let value = evaluate(cell.parsed as Expression, context);
       if (isReference(value)) {
         const cells = context.read(value);
         value = cells.length === 1 && cells[0].length === 1 ? (cells[0][0] ?? 0) : { kind: "matrix", rows: cells.map((r) => r.map((x) => x ?? 0)) };
       }
       inProgress.delete(id);
+      this.reads.set(id, read);
       results(sheet).set(k, value);
       return value;
     };
@@ -520,9 +622,10 @@ export class Workbook {
       if (cell && cell.parsed !== null) return this.cellValue(calculate(sheet.name, k, cell), sheet.name, row, column);
       if (cell && cell.constant !== null) return cell.constant;
       for (const [anchor, rect] of this.spills.get(sheet.name) ?? []) {
-        if (!rectContains(rect, { top: row, left: column, bottom: row, right: column })) continue;
+        if (!rectContains(rect, single(row, column))) continue;
         const anchorCell = sheet.cells.get(anchor);
-        if (!anchorCell) continue;
+        // The anchor may have been written over since the spill was found: then it spills nothing.
+        if (!anchorCell || anchorCell.parsed === null) continue;
         const value = calculate(sheet.name, anchor, anchorCell);
         if (isMatrix(value)) return value.rows[row - rect.top]?.[column - rect.left] ?? null;
       }
@@ -562,16 +665,55 @@ export class Workbook {
 
   /** Recalculates every formula, lets matrices spill, then tells the listeners. */
   recalculate(): void {
+    this.full = true;
+    this.calculate();
+  }
+
+  /**
+   * Brings the answers up to date: after cell writes only the formulas that
+   * depend on the written cells (see dependents); after anything else (new
+   * functions, tables, blank handling) every formula. Spilled areas are then
+   * found again; if they moved, the passes repeat over every formula until they
+   * stop moving (at most four), since a spill changes what other cells read.
+   */
+  private calculate(): void {
     if (this.held > 0) {
       this.pending.recalculate = true;
       return;
+    }
+    const full = this.full;
+    const changed = this.changed;
+    this.full = false;
+    this.changed = [];
+    if (full) {
+      this.computed.clear();
+      this.reads.clear();
+    } else {
+      for (const id of this.dependents(changed)) {
+        const bang = id.lastIndexOf("!");
+        this.computed.get(id.slice(0, bang))?.delete(id.slice(bang + 1));
+        this.reads.delete(id);
+      }
+      // A formula overwritten by a constant leaves no answer behind.
+      for (const [sheet, answers] of this.computed) {
+        const formulas = this.formulaKeys.get(sheet);
+        for (const k of answers.keys()) {
+          if (!formulas?.has(k)) {
+            answers.delete(k);
+            this.reads.delete(`${sheet}!${k}`);
+          }
+        }
+      }
     }
     for (let pass = 0; pass < MAX_PASSES; pass++) {
       this.calculatePass();
       const areas = this.spillAreas();
       const same = JSON.stringify([...areas].map(([s, m]) => [s, [...m]])) === JSON.stringify([...this.spills].map(([s, m]) => [s, [...m]]));
       this.spills = areas;
+      this.usedCache.clear();
       if (same) break;
+      this.computed.clear();
+      this.reads.clear();
     }
     this.recalculations++;
     this.notify();

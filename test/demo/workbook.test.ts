@@ -159,3 +159,56 @@ describe("the Excel stand-in", () => {
     expect(await createHost(fakeRun(new Workbook([S]))).usedRect(S)).toBeNull();
   });
 });
+
+describe("recalculating only what depends on a change", () => {
+  /** A custom function that counts its calls: the sum of its numbers. */
+  function counted(): { calls: () => number; fn: CustomFunction } {
+    let calls = 0;
+    return {
+      calls: () => calls,
+      fn: {
+        fn: (data: unknown) => {
+          calls++;
+          return (data as unknown[][]).flat().reduce((sum: number, v) => sum + (typeof v === "number" ? v : 0), 0);
+        },
+        shapes: ["matrix"],
+        result: "scalar",
+      },
+    };
+  }
+
+  it("calls again only the functions whose ranges hold the changed cell, and gets the same answers as a full recalculation", () => {
+    const sum = counted();
+    const w = sheetWith([[1, 10, "=EVENSPLIT.SUM(A1:A3)", "=EVENSPLIT.SUM(B1:B3)"], [2, 20], [3, 30]]);
+    w.setFunctions(new Map([["SUM", sum.fn]]));
+    const before = sum.calls();
+    w.writeEntries(S, 1, 0, [[5]], true);
+    // Exact arithmetic: 1 + 5 + 3 = 9; column B untouched (60), and its formula not called again.
+    expect([w.value(S, 0, 2), w.value(S, 0, 3)]).toEqual([9, 60]);
+    expect(sum.calls() - before).toBe(1);
+    w.recalculate();
+    expect([w.value(S, 0, 2), w.value(S, 0, 3)]).toEqual([9, 60]);
+  });
+
+  it("follows chains of formulas, spilled answers and whole columns", () => {
+    const w = sheetWith([[2, "=A1*10", "=B1+1", "=COUNT(A:A)"]]);
+    w.setFunctions(new Map([["COUNTS", counts]]));
+    w.writeEntries(S, 3, 4, [["=EVENSPLIT.COUNTS(A1:A3, 2)", null, null, null, "=INDEX(E4:H4,1,3)+100"]]);
+    expect([w.value(S, 0, 2), w.value(S, 0, 3), w.value(S, 3, 8)]).toEqual([21, 1, 100]);
+    w.writeEntries(S, 0, 0, [[3]], true);
+    expect(w.value(S, 0, 2)).toBe(31);
+    // Above 2 now: the spilled row's third cell, read by I4, changes with it.
+    expect(w.value(S, 3, 8)).toBe(101);
+    w.writeEntries(S, 999, 0, [[7]], true);
+    expect(w.value(S, 0, 3)).toBe(2);
+  });
+
+  it("frees the cells a spilled answer covered when its formula is written over", () => {
+    const w = sheetWith([[1], [2], [3]]);
+    w.setFunctions(new Map([["COUNTS", counts]]));
+    w.writeEntries(S, 5, 0, [["=EVENSPLIT.COUNTS(A1:A3, 2)", null, null, null, "=B6+C6"]]);
+    expect(w.value(S, 5, 4)).toBe(2);
+    w.writeEntries(S, 5, 0, [["done"]], true);
+    expect([w.value(S, 5, 1), w.value(S, 5, 4)]).toEqual([null, 0]);
+  });
+});
