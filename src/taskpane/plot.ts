@@ -140,3 +140,41 @@ export function labelPlace(x: number, width: number, left: number, right: number
   if (x + width / 2 > right) return { x: right, anchor: "end" };
   return { x, anchor: "middle" };
 }
+
+/** The most dots stacked in one column before the plot counts values in bins instead. */
+export const MAX_DOT_LEVELS = 14;
+
+/** A bin of the binned dot plot: its centre, how many values fell in it, and its height in dot levels. */
+export interface DotBin {
+  readonly x: number;
+  readonly width: number;
+  readonly count: number;
+  readonly height: number;
+}
+
+export type DotLayout =
+  | { readonly kind: "dots"; readonly dots: readonly PlacedDot[]; readonly levels: number }
+  | { readonly kind: "bins"; readonly bins: readonly DotBin[]; readonly levels: number; readonly largest: number };
+
+/**
+ * How the values are drawn: stacked dots while no stack passes
+ * MAX_DOT_LEVELS, otherwise bins one dot wide whose bars are scaled so the
+ * fullest reaches MAX_DOT_LEVELS.
+ *
+ * @example
+ * dotLayout([48, 50, 51], lineScale([48, 51], [50], 14, 286), 7).kind; // "dots"
+ */
+export function dotLayout(values: ArrayLike<number>, scale: LineScale, diameter: number): DotLayout {
+  const dots = stackDots(values, scale, diameter);
+  const levels = dots.reduce((m, d) => Math.max(m, d.level), 0) + 1;
+  if (levels <= MAX_DOT_LEVELS) return { kind: "dots", dots, levels };
+  const left = scale.x(scale.min);
+  const counts = new Map<number, number>();
+  for (const d of dots) {
+    const bin = Math.floor((d.x - left) / diameter);
+    counts.set(bin, (counts.get(bin) ?? 0) + 1);
+  }
+  const largest = Math.max(...counts.values());
+  const bins = [...counts].sort((a, b) => a[0] - b[0]).map(([bin, count]) => ({ x: left + (bin + 0.5) * diameter, width: diameter, count, height: (count / largest) * MAX_DOT_LEVELS }));
+  return { kind: "bins", bins, levels: MAX_DOT_LEVELS, largest };
+}

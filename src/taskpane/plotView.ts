@@ -11,7 +11,7 @@
  * Cost: O(n) elements.
  */
 import { svg } from "./dom";
-import { labelPlace, lineScale, stackDots, type NullBar } from "./plot";
+import { dotLayout, labelPlace, lineScale, type DotLayout, type LineScale, type NullBar } from "./plot";
 
 const WIDTH = 300;
 const MARGIN = 14;
@@ -37,6 +37,21 @@ export interface NumberLineInput {
   readonly what: string;
 }
 
+function numberLineScale(input: NumberLineInput): LineScale {
+  const marks = [input.center, ...(input.lower === null ? [] : [input.lower]), ...(input.upper === null ? [] : [input.upper])];
+  return lineScale(input.values, marks, MARGIN, WIDTH - MARGIN);
+}
+
+/**
+ * How the number-line plot draws the values: dots, or bins when there are too many to stack.
+ *
+ * @example
+ * numberLineLayout({ values: [48, 51, 53], center: 50, lower: 48, upper: 53, what: "values" }).kind; // "dots"
+ */
+export function numberLineLayout(input: NumberLineInput): DotLayout {
+  return dotLayout(input.values, numberLineScale(input), DOT);
+}
+
 /**
  * The number-line plot.
  *
@@ -44,17 +59,18 @@ export interface NumberLineInput {
  * numberLinePlot({ values: [48, 51, 53], center: 50, lower: 48, upper: 53, what: "values" }); // <svg role="img" ...>
  */
 export function numberLinePlot(input: NumberLineInput): SVGElement {
-  const marks = [input.center, ...(input.lower === null ? [] : [input.lower]), ...(input.upper === null ? [] : [input.upper])];
-  const scale = lineScale(input.values, marks, MARGIN, WIDTH - MARGIN);
-  const dots = stackDots(input.values, scale, DOT);
-  const levels = dots.reduce((m, d) => Math.max(m, d.level), 0) + 1;
+  const scale = numberLineScale(input);
+  // Many values are counted in bins (plot.ts), so the plot's height stays bounded.
+  const layout = dotLayout(input.values, scale, DOT);
+  const levels = layout.levels;
   const top = 18;
   const axis = top + levels * DOT + 6;
   const height = axis + 22;
   const bounds = input.lower === null && input.upper === null
     ? "no bounds"
     : `bounds ${input.lower === null ? "none" : short(input.lower)} to ${input.upper === null ? "none" : short(input.upper)}`;
-  const summary = `${input.values.length} ${input.what} on a number line from ${short(scale.min)} to ${short(scale.max)}; hypothesised value ${short(input.center)}; ${bounds}.`;
+  const binned = layout.kind === "bins" ? `, counted in bins one dot wide (the fullest holds ${layout.largest})` : "";
+  const summary = `${input.values.length} ${input.what}${binned} on a number line from ${short(scale.min)} to ${short(scale.max)}; hypothesised value ${short(input.center)}; ${bounds}.`;
   const plot = svg("svg", {
     class: "es-plot",
     attrs: { viewBox: `0 0 ${WIDTH} ${height}`, role: "img", "aria-label": summary, preserveAspectRatio: "xMidYMid meet" },
@@ -71,8 +87,15 @@ export function numberLinePlot(input: NumberLineInput): SVGElement {
     plot.appendChild(svg("line", { class: "es-axis", attrs: { x1: x, x2: x, y1: String(axis), y2: String(axis + 4) } }));
     plot.appendChild(label(Number(x), axis + 15, short(t), "middle", "es-tick"));
   }
-  for (const d of dots) {
-    plot.appendChild(svg("circle", { class: "es-dot", attrs: { cx: d.x.toFixed(1), cy: (axis - DOT / 2 - 1 - d.level * DOT).toFixed(1), r: String(DOT / 2 - 0.4) } }));
+  if (layout.kind === "dots") {
+    for (const d of layout.dots) {
+      plot.appendChild(svg("circle", { class: "es-dot", attrs: { cx: d.x.toFixed(1), cy: (axis - DOT / 2 - 1 - d.level * DOT).toFixed(1), r: String(DOT / 2 - 0.4) } }));
+    }
+  } else {
+    for (const b of layout.bins) {
+      const h = Math.max(1, b.height * DOT);
+      plot.appendChild(svg("rect", { class: "es-dot", attrs: { x: (b.x - b.width / 2 + 0.4).toFixed(1), y: (axis - 1 - h).toFixed(1), width: (b.width - 0.8).toFixed(1), height: h.toFixed(1) } }));
+    }
   }
   const cx = scale.x(input.center).toFixed(1);
   plot.appendChild(svg("line", { class: "es-center", attrs: { x1: cx, x2: cx, y1: String(top - 6), y2: String(axis) } }));

@@ -17,7 +17,7 @@ import { formatAddress, type CellRect } from "./a1";
 import { choices, dataReady, referenceSentence } from "./dataState";
 import type { Confirmation, PaneState } from "./paneState";
 import { nullBars, type NullBar } from "./plot";
-import type { NumberLineInput } from "./plotView";
+import { numberLineLayout, type NumberLineInput } from "./plotView";
 import { blockPreview, type PreviewRow } from "./preview";
 import { currentRequest } from "./questionState";
 import { blockInputs, blockRefs, bodyOf, chartSource, placeFromText, referenceOptions, tablesToCreate, type DataChoice } from "./workflow";
@@ -193,7 +193,9 @@ export function resultView(state: PaneState, calculate: CatalogueCall): ResultVi
   const band = bounded
     ? `Shaded: the ${level} bounds${request.test === "signed-rank" ? " (Hodges–Lehmann)" : ""}.`
     : `There are no bounds to shade: these data cannot reach ${level} confidence.`;
-  const caption = `Dots: the ${values.length} ${what}. Dashed line: the hypothesised value ${request.center}. ${band}`;
+  const count = values.length.toLocaleString("en-US");
+  const drawn = numberLineLayout(plot).kind === "bins" ? `Bars: the ${count} ${what}, counted in bins too full to stack as dots` : `Dots: the ${count} ${what}`;
+  const caption = `${drawn}. Dashed line: the hypothesised value ${request.center}. ${band}`;
   const countTest = request.test !== "signed-rank";
   const used = numberOrNull(value("used"));
   const observed = request.test === "quantile" ? numberOrNull(value("below")) : numberOrNull(value("statistic"));
