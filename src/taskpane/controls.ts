@@ -10,24 +10,37 @@ import { el } from "./dom";
 
 let idCounter = 0;
 
-/** A page-unique id for labels and descriptions. */
+/**
+ * A page-unique id for labels and descriptions.
+ *
+ * @example
+ * newId("field"); // "es-field-7"
+ */
 export function newId(stem: string): string {
   idCounter++;
   return `es-${stem}-${idCounter}`;
 }
 
+/** One option of a radio group or a select: its value, its label, and an optional hint. */
 export interface Choice<T extends string> {
   readonly value: T;
   readonly label: string;
   readonly hint?: string;
 }
 
+/** A labelled group of radio buttons, set and enabled from the state. */
 export interface RadioGroup<T extends string> {
   readonly element: HTMLFieldSetElement;
   set(value: T): void;
   enable(value: T, available: boolean, reason?: string): void;
 }
 
+/**
+ * A fieldset of radio buttons with a legend; each option has its hint and, when disabled, the reason.
+ *
+ * @example
+ * radioGroup("Which test?", [{ value: "sign", label: "Sign test" }], "sign", (v) => events.test(v));
+ */
 export function radioGroup<T extends string>(legend: string, choices: readonly Choice<T>[], initial: T, onChange: (value: T) => void): RadioGroup<T> {
   const name = newId("radio");
   const inputs = new Map<T, { input: HTMLInputElement; reason: HTMLElement }>();
@@ -66,6 +79,7 @@ export function radioGroup<T extends string>(legend: string, choices: readonly C
   };
 }
 
+/** A labelled control with its hint and problem lines. */
 export interface Field<E extends HTMLElement> {
   readonly element: HTMLElement;
   readonly control: E;
@@ -74,6 +88,12 @@ export interface Field<E extends HTMLElement> {
   readonly problem: HTMLElement;
 }
 
+/**
+ * A control with its label, a hint and a problem line, both describing it (aria-describedby).
+ *
+ * @example
+ * field("Hypothesised median", textInput(""), "The value the claim is compared with.");
+ */
 export function field<E extends HTMLInputElement | HTMLSelectElement>(labelText: string, control: E, hintText: string, extra?: Node): Field<E> {
   const id = newId("field");
   const hintId = newId("hint");
@@ -87,12 +107,24 @@ export function field<E extends HTMLInputElement | HTMLSelectElement>(labelText:
   return { element: el("div", { class: "es-field" }, label, row, hint, problem), control, label, hint, problem };
 }
 
+/**
+ * A text input that neither checks spelling nor fills itself in.
+ *
+ * @example
+ * textInput("0.05", { inputmode: "decimal" });
+ */
 export function textInput(value: string, options: { inputmode?: string; autocomplete?: string } = {}): HTMLInputElement {
   const input = el("input", { attrs: { type: "text", spellcheck: "false", autocomplete: options.autocomplete ?? "off", ...(options.inputmode ? { inputmode: options.inputmode } : {}) } });
   input.value = value;
   return input;
 }
 
+/**
+ * A select with one option per choice, the initial one selected.
+ *
+ * @example
+ * selectControl([{ value: "drop", label: "Leave them out" }], "drop");
+ */
 export function selectControl<T extends string>(choices: readonly Choice<T>[], initial: T): HTMLSelectElement {
   const select = el("select");
   for (const choice of choices) {
@@ -103,12 +135,24 @@ export function selectControl<T extends string>(choices: readonly Choice<T>[], i
   return select;
 }
 
+/**
+ * Shows a field's problem (or none), marking the control aria-invalid while there is one.
+ *
+ * @example
+ * setProblem(centerField, "The hypothesised median is empty: type a number.");
+ */
 export function setProblem(f: Field<HTMLElement>, message: string | null): void {
   f.problem.textContent = message ?? "";
   if (message) f.control.setAttribute("aria-invalid", "true");
   else f.control.removeAttribute("aria-invalid");
 }
 
+/**
+ * A button of a kind (primary, secondary, quiet) that calls `onClick`.
+ *
+ * @example
+ * button("Next: the question", "primary", () => events.next());
+ */
 export function button(text: string, kind: "primary" | "secondary" | "quiet", onClick: () => void): HTMLButtonElement {
   const b = el("button", { class: `es-button es-${kind}`, attrs: { type: "button" } }, text);
   b.addEventListener("click", onClick);
