@@ -286,6 +286,8 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
     const made = outcome.created.length > 0 ? ` The data became table ${outcome.created.map((t) => t.name).join(" and ")}.` : "";
     const cleared = outcome.replaced.length > 0 ? ` The earlier block at ${outcome.replaced.map((b) => formatAddress(b.rect)).join(" and ")} was cleared first.` : "";
     const written = `The block was written to ${outcome.address} as formulas; it recalculates when the data change.${cleared}${made}${chart}`;
+    // The place stays the block's own: writing again replaces it there rather than adding another block.
+    state = setTarget(state, formatAddress({ ...target.rect, bottom: target.rect.top, right: target.rect.left }, target.sheet));
     if (outcome.created.length > 0) {
       state = setReference(state, "exact");
       await rereadData();

@@ -84,6 +84,8 @@ describe.skipIf(!browserAvailable())("the pane's wording, on the demo page", () 
     await write.click();
     await eventually(() => page.locator(".es-status").innerText()).toContain("The data became table Table1");
     await snap(page, "34-written-light", true);
+    // The place stays the block's own, so writing again replaces it instead of adding a second block.
+    expect(await page.getByLabel("Top-left cell of the block").inputValue()).toBe("'Paint line'!E1");
     const nLine = await rowOfLabel(page, 4, "Numbers in range (n total)");
     await typeIntoCell(page, "B26", "53");
     await eventually(() => cellText(page, nLine, 5)).toBe("23");
