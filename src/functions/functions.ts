@@ -161,6 +161,9 @@ function hodgesLehmannRow(values: ArrayLike<number>, confidence: number, side: B
  * @param hypothesized_median The median under test, such as 50.
  * @param [ties] The tie rule for the last column: "drop" (default: ties left out), "split" or "conservative" (ties kept).
  * @returns One row: below, tied, above, used.
+ * @helpurl https://localhost:3000/help/counts.html
+ * @example =EVENSPLIT.COUNTS(Panels[Thickness], 50) counts the panels thinner than, exactly at and thicker than 50 µm.
+ * @see W. J. Dixon and A. M. Mood (1946), "The statistical sign test", Journal of the American Statistical Association 41, 557-566.
  */
 export function counts(data: unknown[][], hypothesized_median: unknown, ties?: unknown): unknown[][] {
   return oneRow(4, () => {
@@ -179,6 +182,9 @@ export function counts(data: unknown[][], hypothesized_median: unknown, ties?: u
  * @param [ties] Values equal to the hypothesised median: "drop" (default), "split" or "conservative".
  * @param [method] "exact" (default, binomial), "midp" or "normal" (approximation).
  * @returns The p-value.
+ * @helpurl https://localhost:3000/help/pvalue.html
+ * @example =EVENSPLIT.PVALUE(Panels[Thickness], 50, "greater") asks whether the median thickness is above 50 µm.
+ * @see W. J. Dixon and A. M. Mood (1946), "The statistical sign test", Journal of the American Statistical Association 41, 557-566.
  */
 export function pvalue(data: unknown[][], hypothesized_median: unknown, alternative?: unknown, ties?: unknown, method?: unknown): number | CellError {
   return scalar(() => {
@@ -196,6 +202,9 @@ export function pvalue(data: unknown[][], hypothesized_median: unknown, alternat
  * @param [alternative] "two-sided" (default), "greater" or "less".
  * @param [ties] "drop" (default), "split" or "conservative".
  * @returns The statistic.
+ * @helpurl https://localhost:3000/help/statistic.html
+ * @example =EVENSPLIT.STATISTIC(Panels[Thickness], 50, "greater") gives the count of panels above 50 µm that PVALUE uses.
+ * @see W. J. Dixon and A. M. Mood (1946), "The statistical sign test", Journal of the American Statistical Association 41, 557-566.
  */
 export function statistic(data: unknown[][], hypothesized_median: unknown, alternative?: unknown, ties?: unknown): number | CellError {
   return scalar(() => {
@@ -215,6 +224,9 @@ export function statistic(data: unknown[][], hypothesized_median: unknown, alter
  * @param [ties] Zero differences: "drop" (default), "split" or "conservative".
  * @param [method] "exact" (default), "midp" or "normal".
  * @returns The p-value.
+ * @helpurl https://localhost:3000/help/paired.html
+ * @example =EVENSPLIT.PAIRED(Nozzle[Before], Nozzle[After], 0, "less") asks whether the nozzle change made panels thinner.
+ * @see W. J. Dixon and A. M. Mood (1946), "The statistical sign test", Journal of the American Statistical Association 41, 557-566.
  */
 export function paired(
   first: unknown[][],
@@ -240,6 +252,9 @@ export function paired(
  * @param [alternative] "two-sided" (default), "greater" or "less".
  * @param [ties] "drop" (default), "split" or "conservative".
  * @returns The statistic.
+ * @helpurl https://localhost:3000/help/pairedstatistic.html
+ * @example =EVENSPLIT.PAIREDSTATISTIC(Nozzle[Before], Nozzle[After], 0, "less") gives the sign statistic of After - Before.
+ * @see W. J. Dixon and A. M. Mood (1946), "The statistical sign test", Journal of the American Statistical Association 41, 557-566.
  */
 export function pairedstatistic(first: unknown[][], second: unknown[][], shift?: unknown, alternative?: unknown, ties?: unknown): number | CellError {
   return scalar(() => {
@@ -257,6 +272,9 @@ export function pairedstatistic(first: unknown[][], second: unknown[][], shift?:
  * @param [shift] The median difference under test; default 0.
  * @param [ties] The tie rule for the used column: "drop" (default), "split" or "conservative".
  * @returns One row: below, tied, above, used, pairs skipped.
+ * @helpurl https://localhost:3000/help/pairedcounts.html
+ * @example =EVENSPLIT.PAIREDCOUNTS(Nozzle[Before], Nozzle[After]) counts the panels that got thinner, stayed the same and got thicker.
+ * @see W. J. Dixon and A. M. Mood (1946), "The statistical sign test", Journal of the American Statistical Association 41, 557-566.
  */
 export function pairedcounts(first: unknown[][], second: unknown[][], shift?: unknown, ties?: unknown): unknown[][] {
   return oneRow(5, () => {
@@ -277,6 +295,9 @@ export function pairedcounts(first: unknown[][], second: unknown[][], shift?: un
  * @param [side] "two-sided" (default), "lower" (a lower bound only) or "upper".
  * @param [method] "exact" (default: bounds are data values) or "hettmansperger-sheather" (between neighbouring values, coverage closer to the confidence asked; Hettmansperger and Sheather, 1986).
  * @returns One row: lower, upper, exact coverage.
+ * @helpurl https://localhost:3000/help/bounds.html
+ * @example =EVENSPLIT.BOUNDS(Panels[Thickness], 0.95) gives the range of median thicknesses these panels are consistent with.
+ * @see W. R. Thompson (1936), "On confidence ranges for the median and other expectation distributions for populations of unknown distribution form", Annals of Mathematical Statistics 7, 122-128.
  */
 export function bounds(data: unknown[][], confidence?: unknown, side?: unknown, method?: unknown): unknown[][] {
   return oneRow(3, () =>
@@ -299,6 +320,9 @@ export function bounds(data: unknown[][], confidence?: unknown, side?: unknown, 
  * @param [side] "two-sided" (default), "lower" or "upper".
  * @param [method] "exact" (default) or "hettmansperger-sheather".
  * @returns One row: lower, upper, exact coverage.
+ * @helpurl https://localhost:3000/help/pairedbounds.html
+ * @example =EVENSPLIT.PAIREDBOUNDS(Nozzle[Before], Nozzle[After], 0.95) bounds the median change After - Before.
+ * @see W. R. Thompson (1936), "On confidence ranges for the median and other expectation distributions for populations of unknown distribution form", Annals of Mathematical Statistics 7, 122-128.
  */
 export function pairedbounds(first: unknown[][], second: unknown[][], confidence?: unknown, side?: unknown, method?: unknown): unknown[][] {
   return oneRow(3, () => {
@@ -317,6 +341,9 @@ export function pairedbounds(first: unknown[][], second: unknown[][], confidence
  * @param quantile Which quantile, between 0 and 1 (0.5 is the median, 0.9 the value 90% fall below).
  * @param [alternative] "two-sided" (default: twice the smaller one-sided p-value, at most 1), "greater" (the quantile is above value) or "less".
  * @returns The p-value.
+ * @helpurl https://localhost:3000/help/quantilepvalue.html
+ * @example =EVENSPLIT.QUANTILEPVALUE(Panels[Thickness], 58, 0.9, "less") asks whether nine panels in ten stay under 58 µm.
+ * @see W. J. Conover (1999), "Practical Nonparametric Statistics", 3rd ed., Wiley, chapter 3 (from memory).
  */
 export function quantilepvalue(data: unknown[][], value: unknown, quantile: unknown, alternative?: unknown): number | CellError {
   return scalar(() => {
@@ -335,6 +362,9 @@ export function quantilepvalue(data: unknown[][], value: unknown, quantile: unkn
  * @param [confidence] Confidence, such as 0.95 (default).
  * @param [side] "two-sided" (default), "lower" or "upper".
  * @returns One row: lower, upper, exact coverage.
+ * @helpurl https://localhost:3000/help/quantilebounds.html
+ * @example =EVENSPLIT.QUANTILEBOUNDS(Panels[Thickness], 0.9, 0.95, "upper") gives a thickness the 0.9 quantile stays below with 95% confidence.
+ * @see W. R. Thompson (1936), "On confidence ranges for the median and other expectation distributions for populations of unknown distribution form", Annals of Mathematical Statistics 7, 122-128.
  */
 export function quantilebounds(data: unknown[][], quantile: unknown, confidence?: unknown, side?: unknown): unknown[][] {
   return oneRow(3, () => {
@@ -355,6 +385,9 @@ export function quantilebounds(data: unknown[][], quantile: unknown, confidence?
  * @param [method] "auto" (default: exact for small samples), "exact" or "normal" (with continuity and tie corrections).
  * @param [zeros] Values equal to the centre: "drop" (default) or "pratt" (ranked, then left out).
  * @returns The p-value.
+ * @helpurl https://localhost:3000/help/signrank.html
+ * @example =EVENSPLIT.SIGNRANK(Panels[Thickness], 50, "greater") asks whether the centre of the thicknesses is above 50 µm.
+ * @see F. Wilcoxon (1945), "Individual comparisons by ranking methods", Biometrics Bulletin 1, 80-83.
  */
 export function signrank(data: unknown[][], hypothesized_median: unknown, alternative?: unknown, method?: unknown, zeros?: unknown): number | CellError {
   return scalar(() => {
@@ -374,6 +407,9 @@ export function signrank(data: unknown[][], hypothesized_median: unknown, altern
  * @param [method] "auto" (default), "exact" or "normal".
  * @param [zeros] Zero differences: "drop" (default) or "pratt".
  * @returns The p-value.
+ * @helpurl https://localhost:3000/help/pairedsignrank.html
+ * @example =EVENSPLIT.PAIREDSIGNRANK(Nozzle[Before], Nozzle[After], 0, "less") asks whether the nozzle change made panels thinner.
+ * @see F. Wilcoxon (1945), "Individual comparisons by ranking methods", Biometrics Bulletin 1, 80-83.
  */
 export function pairedsignrank(
   first: unknown[][],
@@ -397,6 +433,9 @@ export function pairedsignrank(
  * @param hypothesized_median The centre under test, such as 50.
  * @param [zeros] "drop" (default) or "pratt".
  * @returns V.
+ * @helpurl https://localhost:3000/help/signrankstatistic.html
+ * @example =EVENSPLIT.SIGNRANKSTATISTIC(Panels[Thickness], 50) gives V, the sum of the ranks of the panels above 50 µm.
+ * @see F. Wilcoxon (1945), "Individual comparisons by ranking methods", Biometrics Bulletin 1, 80-83.
  */
 export function signrankstatistic(data: unknown[][], hypothesized_median: unknown, zeros?: unknown): number | CellError {
   return scalar(() => {
@@ -415,6 +454,9 @@ export function signrankstatistic(data: unknown[][], hypothesized_median: unknow
  * @param [shift] The centre of the differences under test; default 0.
  * @param [zeros] "drop" (default) or "pratt".
  * @returns V.
+ * @helpurl https://localhost:3000/help/pairedsignrankstatistic.html
+ * @example =EVENSPLIT.PAIREDSIGNRANKSTATISTIC(Nozzle[Before], Nozzle[After]) gives V on the changes After - Before.
+ * @see F. Wilcoxon (1945), "Individual comparisons by ranking methods", Biometrics Bulletin 1, 80-83.
  */
 export function pairedsignrankstatistic(first: unknown[][], second: unknown[][], shift?: unknown, zeros?: unknown): number | CellError {
   return scalar(() => {
@@ -431,6 +473,9 @@ export function pairedsignrankstatistic(first: unknown[][], second: unknown[][],
  * @param [confidence] Confidence of the bounds, such as 0.95 (default).
  * @param [side] "two-sided" (default), "lower" (a lower bound only) or "upper".
  * @returns One row: estimate, lower, upper, exact coverage.
+ * @helpurl https://localhost:3000/help/hodgeslehmann.html
+ * @example =EVENSPLIT.HODGESLEHMANN(Panels[Thickness], 0.95) estimates the centre of the thicknesses with its bounds.
+ * @see J. L. Hodges and E. L. Lehmann (1963), "Estimates of location based on rank tests", Annals of Mathematical Statistics 34, 598-611.
  */
 export function hodgeslehmann(data: unknown[][], confidence?: unknown, side?: unknown): unknown[][] {
   return oneRow(4, () => {
@@ -447,6 +492,9 @@ export function hodgeslehmann(data: unknown[][], confidence?: unknown, side?: un
  * @param [confidence] Confidence of the bounds, such as 0.95 (default).
  * @param [side] "two-sided" (default), "lower" or "upper".
  * @returns One row: estimate, lower, upper, exact coverage.
+ * @helpurl https://localhost:3000/help/pairedhodgeslehmann.html
+ * @example =EVENSPLIT.PAIREDHODGESLEHMANN(Nozzle[Before], Nozzle[After]) estimates the typical change After - Before with its bounds.
+ * @see J. L. Hodges and E. L. Lehmann (1963), "Estimates of location based on rank tests", Annals of Mathematical Statistics 34, 598-611.
  */
 export function pairedhodgeslehmann(first: unknown[][], second: unknown[][], confidence?: unknown, side?: unknown): unknown[][] {
   return oneRow(4, () => {
@@ -467,6 +515,9 @@ export function pairedhodgeslehmann(first: unknown[][], second: unknown[][], con
  * @param [alpha] Significance level, such as 0.05 (default).
  * @param [alternative] "two-sided" (default), "greater" or "less".
  * @returns The power.
+ * @helpurl https://localhost:3000/help/power.html
+ * @example =EVENSPLIT.POWER(30, 0.75, 0.05, "greater") gives the chance that 30 panels show the median is above 50 µm when three panels in four come out above it.
+ * @see W. J. Conover (1999), "Practical Nonparametric Statistics", 3rd ed., Wiley, chapter 3 (from memory).
  */
 export function power(n: unknown, p_above: unknown, alpha?: unknown, alternative?: unknown): number | CellError {
   return scalar(() => {
@@ -485,6 +536,9 @@ export function power(n: unknown, p_above: unknown, alpha?: unknown, alternative
  * @param [alpha] Significance level, such as 0.05 (default).
  * @param [alternative] "two-sided" (default), "greater" or "less".
  * @returns The sample size.
+ * @helpurl https://localhost:3000/help/samplesize.html
+ * @example =EVENSPLIT.SAMPLESIZE(0.75, 0.8, 0.05, "greater") gives the fewest panels for 80% power in that situation.
+ * @see W. J. Conover (1999), "Practical Nonparametric Statistics", 3rd ed., Wiley, chapter 3 (from memory).
  */
 export function samplesize(p_above: unknown, power?: unknown, alpha?: unknown, alternative?: unknown): number | CellError {
   return scalar(() => {
@@ -527,6 +581,9 @@ function pValueCell(cell: unknown, row: number, column: number): number {
  * @param pvalues Range with the p-values.
  * @param [method] "holm" (default), "bonferroni", "hochberg", "bh" (Benjamini–Hochberg) or "by" (Benjamini–Yekutieli).
  * @returns The adjusted p-values, same shape.
+ * @helpurl https://localhost:3000/help/adjust.html
+ * @example =EVENSPLIT.ADJUST(F2:F6, "holm") adjusts the p-values of five paint lines tested at once.
+ * @see S. Holm (1979), "A simple sequentially rejective multiple test procedure", Scandinavian Journal of Statistics 6, 65-70.
  */
 export function adjust(pvalues: unknown[][], method?: unknown): unknown[][] {
   let cells: Cells = [[null]];
@@ -557,6 +614,10 @@ export function adjust(pvalues: unknown[][], method?: unknown): unknown[][] {
  * @param [confidence] Confidence of the bounds, such as 0.95 (default).
  * @param [second] For a paired test: range with the second measurement, same shape as data.
  * @returns Two columns: label, value.
+ * @helpurl https://localhost:3000/help/report.html
+ * @example =EVENSPLIT.REPORT(Panels[Thickness], 50, "greater") writes the whole sign-test result for the panels as label and value.
+ * @see W. J. Dixon and A. M. Mood (1946), "The statistical sign test", Journal of the American Statistical Association 41, 557-566.
+ * @see W. R. Thompson (1936), "On confidence ranges for the median and other expectation distributions for populations of unknown distribution form", Annals of Mathematical Statistics 7, 122-128.
  */
 export function report(
   data: unknown[][],
@@ -614,6 +675,9 @@ function watchedEnd(value: number | null, rowsNeeded: number, rows: number, end:
  * @param [alternative] "two-sided" (default), "greater" (the median is above the hypothesised one) or "less".
  * @param [ties] Values equal to the hypothesised median: "drop" (default), "split" (taken in pairs, one below and one above) or "conservative".
  * @returns The p-value after the last row.
+ * @helpurl https://localhost:3000/help/watchpvalue.html
+ * @example =EVENSPLIT.WATCHPVALUE(Panels[Thickness], 50, "greater") may be checked after every new panel.
+ * @see S. R. Howard, A. Ramdas, J. McAuliffe and J. Sekhon (2021), "Time-uniform, nonparametric, nonasymptotic confidence sequences", Annals of Statistics 49, 1055-1080.
  */
 export function watchpvalue(data: unknown[][], hypothesized_median: unknown, alternative?: unknown, ties?: unknown): number | CellError {
   return scalar(() => {
@@ -631,6 +695,9 @@ export function watchpvalue(data: unknown[][], hypothesized_median: unknown, alt
  * @param [confidence] Confidence that the bounds hold at every row at once, such as 0.95 (default).
  * @param [quantile] The quantile to bound, such as 0.9; default 0.5 (the median).
  * @returns One row: lower, upper, rows used.
+ * @helpurl https://localhost:3000/help/watchbounds.html
+ * @example =EVENSPLIT.WATCHBOUNDS(Panels[Thickness], 0.95) gives bounds for the median thickness that may be checked after every new panel.
+ * @see S. R. Howard, A. Ramdas, J. McAuliffe and J. Sekhon (2021), "Time-uniform, nonparametric, nonasymptotic confidence sequences", Annals of Statistics 49, 1055-1080.
  */
 export function watchbounds(data: unknown[][], confidence?: unknown, quantile?: unknown): unknown[][] {
   return oneRow(3, () => {
@@ -655,6 +722,9 @@ export function watchbounds(data: unknown[][], confidence?: unknown, quantile?: 
  * @param [alpha] Chance of rejecting when the median is the hypothesised one, such as 0.05 (default).
  * @param [beta] Chance of accepting when values lie above with chance p_above, such as 0.2 (default).
  * @returns One row: decision, rows used (numbers read up to the decision), log likelihood ratio, accept limit, reject limit.
+ * @helpurl https://localhost:3000/help/sprt.html
+ * @example =EVENSPLIT.SPRT(Panels[Thickness], 50, 0.75) reads the panels in order until it can decide whether the median is 50 µm or values lie above it three times in four.
+ * @see A. Wald (1945), "Sequential tests of statistical hypotheses", Annals of Mathematical Statistics 16, 117-186.
  */
 export function sprt(data: unknown[][], hypothesized_median: unknown, p_above: unknown, alpha?: unknown, beta?: unknown): unknown[][] {
   try {
@@ -795,6 +865,10 @@ function groupsOf(values: unknown, labels: unknown): GroupedCells {
  * @param [method] "rank-sum" (default: Wilcoxon–Mann–Whitney, exact for small groups) or "median" (Mood's test, Fisher exact on above / not above the pooled median).
  * @param [at_median] Median method only, values equal to the pooled median: "join-lower" (default: counted as not above), "join-upper" (counted as above) or "leave-out".
  * @returns The p-value.
+ * @helpurl https://localhost:3000/help/twogroups.html
+ * @example =EVENSPLIT.TWOGROUPS(LineA[Thickness], LineB[Thickness]) compares panels from two paint lines (invented tables LineA and LineB).
+ * @see H. B. Mann and D. R. Whitney (1947), "On a test of whether one of two random variables is stochastically larger than the other", Annals of Mathematical Statistics 18, 50-60.
+ * @see A. M. Mood (1950), "Introduction to the Theory of Statistics", McGraw-Hill (the median test).
  */
 export function twogroups(first: unknown[][], second: unknown[][], shift?: unknown, alternative?: unknown, method?: unknown, at_median?: unknown): number | CellError {
   return scalar(() => {
@@ -820,6 +894,9 @@ export function twogroups(first: unknown[][], second: unknown[][], shift?: unkno
  * @param second Range with the second group's measurements; any size.
  * @param [confidence] Confidence of the bounds, such as 0.95 (default).
  * @returns One row: estimate, lower, upper, coverage.
+ * @helpurl https://localhost:3000/help/shift.html
+ * @example =EVENSPLIT.SHIFT(LineA[Thickness], LineB[Thickness], 0.95) estimates how much thicker line B paints than line A, with bounds.
+ * @see J. L. Hodges and E. L. Lehmann (1963), "Estimates of location based on rank tests", Annals of Mathematical Statistics 34, 598-611.
  */
 export function shift(first: unknown[][], second: unknown[][], confidence?: unknown): unknown[][] {
   return oneRow(4, () => {
@@ -843,6 +920,10 @@ export function shift(first: unknown[][], second: unknown[][], confidence?: unkn
  * @param [method] "median" (default: Mood's median test; chi-square, or a seeded simulation when counts are small) or "rank" (Kruskal–Wallis, tie-corrected).
  * @param [at_median] Median method only, values equal to the pooled median: "join-lower" (default), "join-upper" or "leave-out".
  * @returns The p-value.
+ * @helpurl https://localhost:3000/help/groups.html
+ * @example =EVENSPLIT.GROUPS(Panels[Thickness], Panels[Line]) asks whether every paint line shares one median thickness (Line: an invented column naming each panel's line).
+ * @see A. M. Mood (1950), "Introduction to the Theory of Statistics", McGraw-Hill (the median test).
+ * @see W. H. Kruskal and W. A. Wallis (1952), "Use of ranks in one-criterion variance analysis", Journal of the American Statistical Association 47, 583-621.
  */
 export function groups(values: unknown[][], labels: unknown[][], method?: unknown, at_median?: unknown): number | CellError {
   return scalar(() => {
@@ -874,6 +955,11 @@ function groupCell(value: number | null | Missing): number | string | CellError 
  * @param [confidence] Confidence of the bounds, such as 0.95 (default).
  * @param [adjust] Adjustment across groups: "holm" (default), "bonferroni", "hochberg", "bh" or "by".
  * @returns A table: header row, then one row per group.
+ * @helpurl https://localhost:3000/help/bygroup.html
+ * @example =EVENSPLIT.BYGROUP(Panels[Thickness], Panels[Line], 50) gives, for each paint line, its count, median, bounds and sign-test p-value against 50 µm.
+ * @see W. J. Dixon and A. M. Mood (1946), "The statistical sign test", Journal of the American Statistical Association 41, 557-566.
+ * @see W. R. Thompson (1936), "On confidence ranges for the median and other expectation distributions for populations of unknown distribution form", Annals of Mathematical Statistics 7, 122-128.
+ * @see S. Holm (1979), "A simple sequentially rejective multiple test procedure", Scandinavian Journal of Statistics 6, 65-70.
  */
 export function bygroup(values: unknown[][], labels: unknown[][], hypothesized_median: unknown, alternative?: unknown, confidence?: unknown, adjust?: unknown): unknown[][] {
   try {
@@ -916,6 +1002,9 @@ function countArgument(name: string, raw: unknown): number {
  * @param [alternative] "two-sided" (default), "greater" (the median is above the hypothesised one) or "less".
  * @param [method] "exact" (default, binomial), "midp" or "normal" (approximation).
  * @returns The p-value.
+ * @helpurl https://localhost:3000/help/countpvalue.html
+ * @example =EVENSPLIT.COUNTPVALUE(14, 4, "greater") gives the sign-test p-value when 14 panels came out above 50 µm and 4 below.
+ * @see W. J. Dixon and A. M. Mood (1946), "The statistical sign test", Journal of the American Statistical Association 41, 557-566.
  */
 export function countpvalue(above: unknown, below: unknown, alternative?: unknown, method?: unknown): number | CellError {
   return scalar(() => {
@@ -936,6 +1025,9 @@ export function countpvalue(above: unknown, below: unknown, alternative?: unknow
  * @param [quantile] Which quantile, between 0 and 1: 0.5 (default) is the median, 0.9 the value 90% fall below.
  * @param [side] "two-sided" (default), "lower" (a lower bound only) or "upper".
  * @returns One row: lower rank, upper rank, exact coverage.
+ * @helpurl https://localhost:3000/help/orderranks.html
+ * @example =EVENSPLIT.ORDERRANKS(30, 0.95) gives which sorted positions of 30 panels bound their median thickness, and the exact coverage.
+ * @see W. R. Thompson (1936), "On confidence ranges for the median and other expectation distributions for populations of unknown distribution form", Annals of Mathematical Statistics 7, 122-128.
  */
 export function orderranks(n: unknown, confidence?: unknown, quantile?: unknown, side?: unknown): unknown[][] {
   return oneRow(3, () => {
