@@ -44,6 +44,11 @@ describe("ticks and scale", () => {
       [51, 0],
     ]);
   });
+
+  it("puts a dot that would stack above the ceiling at the ceiling", () => {
+    const scale = lineScale([50, 51], [], 0, 100);
+    expect(stackDots([50, 50, 50, 50, 51], scale, 6, 2).map((d) => d.level)).toEqual([0, 1, 2, 2, 0]);
+  });
 });
 
 describe("null distribution bars", () => {
