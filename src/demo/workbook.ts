@@ -91,6 +91,12 @@ function fromKey(k: string): { row: number; column: number } {
   return { row: Number(k.slice(0, comma)), column: Number(k.slice(comma + 1)) };
 }
 
+/** Ranges read in one calculation pass, and how many circular references it met so far. */
+interface PassReads {
+  readonly ranges: Map<string, Scalar[][]>;
+  circular: number;
+}
+
 /** Cells of a sheet that changed, or whose answers may have: what a recalculation starts from. */
 interface Region {
   readonly sheet: string;
@@ -504,14 +510,20 @@ export class Workbook {
   }
 
   /** The evaluator's view of the workbook for one formula cell; every range it reads is added to `read`. */
-  private context(sheetName: string, evaluateCell: (sheet: string, row: number, column: number) => Scalar, read: Region[]): EvaluationContext {
+  private context(sheetName: string, evaluateCell: (sheet: string, row: number, column: number) => Scalar, read: Region[], seen: PassReads): EvaluationContext {
     return {
       sheet: sheetName,
       blanksAsZeros: this.blanksAsZeros,
       hasSheet: (name: string) => this.hasSheet(name),
       read: (reference: ReferenceValue) => {
         // The whole range counts as read, down to row 1,048,576 for A:A, so a value typed below the used rows reaches it.
-        read.push({ sheet: this.sheetName(reference.sheet), rect: reference.rect });
+        const sheet = this.sheetName(reference.sheet);
+        read.push({ sheet, rect: reference.rect });
+        // Within one pass a range reads the same every time: the block's formulas all read the data once between them.
+        const seenKey = `${sheet}!${reference.rect.top},${reference.rect.left},${reference.rect.bottom},${reference.rect.right}`;
+        const before = seen.ranges.get(seenKey);
+        if (before) return before;
+        const circular = seen.circular;
         const used = this.usedRect(reference.sheet);
         const bottom = reference.rect.bottom === LAST_ROW || rectSize(reference.rect).rows > 10_000
           ? Math.max(reference.rect.top, Math.min(reference.rect.bottom, used?.bottom ?? reference.rect.top))
@@ -519,9 +531,11 @@ export class Workbook {
         const rows: Scalar[][] = [];
         for (let r = reference.rect.top; r <= bottom; r++) {
           const row: Scalar[] = [];
-          for (let c = reference.rect.left; c <= reference.rect.right; c++) row.push(evaluateCell(reference.sheet, r, c));
+          for (let c = reference.rect.left; c <= reference.rect.right; c++) row.push(evaluateCell(sheet, r, c));
           rows.push(row);
         }
+        // A range that met a formula still being calculated (a circular reference) is read afresh next time.
+        if (seen.circular === circular) seen.ranges.set(seenKey, rows);
         return rows;
       },
       tableColumn: (tableName: string, column: string) => {
@@ -592,6 +606,7 @@ export class Workbook {
    */
   private calculatePass(): void {
     const inProgress = new Set<string>();
+    const seen: PassReads = { ranges: new Map(), circular: 0 };
     const results = (sheet: string): Map<string, Value> => {
       let map = this.computed.get(sheet);
       if (!map) this.computed.set(sheet, (map = new Map()));
@@ -601,10 +616,13 @@ export class Workbook {
       const done = results(sheet).get(k);
       if (done !== undefined) return done;
       const id = `${sheet}!${k}`;
-      if (inProgress.has(id)) return errorValue("#REF!", "This formula depends on itself (a circular reference).");
+      if (inProgress.has(id)) {
+        seen.circular++;
+        return errorValue("#REF!", "This formula depends on itself (a circular reference).");
+      }
       inProgress.add(id);
       const read: Region[] = [];
-      const context = this.context(sheet, readCell, read);
+      const context = this.context(sheet, readCell, read, seen);
       let value = evaluate(cell.parsed as Expression, context);
       if (isReference(value)) {
         const cells = context.read(value);
