@@ -93,7 +93,8 @@ const VOCABULARIES: readonly Vocabulary<string>[] = Object.values(vocabularies a
 /**
  * The vocabulary an argument takes, found from its name and the words its
  * help quotes: the one for that argument name whose canonical words are
- * exactly the quoted ones (several options share a name, such as method).
+ * exactly the quoted ones, a choice's canonical word being the first of its
+ * words (several options share a name, such as method).
  * Undefined for an argument that takes no words.
  *
  * @example
@@ -103,7 +104,8 @@ export function vocabularyFor(parameter: { name: string; description?: string })
   const quoted = new Set([...(parameter.description ?? "").matchAll(/"([^"]+)"/g)].map((m) => m[1].toLowerCase()));
   if (quoted.size === 0) return undefined;
   const sameName = VOCABULARIES.filter((v) => v.argument === parameter.name);
-  const canonical = (v: Vocabulary<string>) => v.choices.map((c) => c.value);
+  // The first word of each choice is the one a person types (vocabulary.ts).
+  const canonical = (v: Vocabulary<string>) => v.choices.map((c) => c.words[0]);
   return sameName.find((v) => canonical(v).length === quoted.size && canonical(v).every((w) => quoted.has(w)));
 }
 
@@ -111,10 +113,10 @@ function escapeHtml(text: string): string {
   return text.replace(/[&<>"']/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" })[c]!);
 }
 
-/** Every accepted word of a vocabulary, the default marked, synonyms after their canonical word. */
+/** Every accepted word of a vocabulary, the default marked, synonyms after the word each choice is typed as. */
 function wordsHtml(vocabulary: Vocabulary<string>): string {
   const items = vocabulary.choices.map((choice) => {
-    const main = `<code>${escapeHtml(choice.value)}</code>${choice.value === vocabulary.fallback ? " (the default)" : ""}`;
+    const main = `<code>${escapeHtml(choice.words[0])}</code>${choice.value === vocabulary.fallback ? " (the default)" : ""}`;
     const also = choice.words.slice(1).map((w) => `<code>${escapeHtml(w)}</code>`);
     return `<li>${main}${also.length > 0 ? `; also ${also.join(", ")}` : ""}</li>`;
   });

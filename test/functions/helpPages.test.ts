@@ -113,6 +113,18 @@ describe("the help pages", () => {
     expect(() => helpStyleSheet(":root { --es-bg: #fff; }")).toThrow(/dark/);
   });
 
+  it("have, for every function, a @helpurl, an @example of it and a @see in its JSDoc (DEVELOPERS.md, adding a function)", () => {
+    const source = readFileSync(functionsFile, "utf8");
+    const extras = jsDocExtras(source);
+    for (const fn of functions) {
+      const found = extras.get(fn.id);
+      expect(found, fn.id).toBeDefined();
+      expect(found!.examples.some((e) => e.includes(`=EVENSPLIT.${fn.name}(`)), `${fn.id}: add an @example using =EVENSPLIT.${fn.name}(...)`).toBe(true);
+      expect(found!.references.length, `${fn.id}: add a @see with the method's reference`).toBeGreaterThan(0);
+      expect(source, `${fn.id}: add @helpurl ${helpUrlFor(fn.id)}`).toContain(`@helpurl ${helpUrlFor(fn.id)}`);
+    }
+  });
+
   it("take the result, examples and references from the JSDoc tags the metadata drops", () => {
     const source = [
       "/**",
