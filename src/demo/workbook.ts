@@ -365,12 +365,13 @@ export class Workbook {
 
   /** The calculated value of a cell, spilled values included; null when blank. */
   value(sheetName: string, row: number, column: number): Scalar {
-    const name = this.sheet(sheetName).name;
-    const own = this.computed.get(name)?.get(key(row, column));
-    if (own !== undefined) return this.cellValue(own, name, row, column);
-    const cell = this.sheet(name).cells.get(key(row, column));
+    const sheet = this.sheet(sheetName);
+    const k = key(row, column);
+    const cell = sheet.cells.get(k);
     if (cell && cell.formula === null) return cell.constant;
-    return this.spilledValue(name, row, column);
+    const own = cell ? this.computed.get(sheet.name)?.get(k) : undefined;
+    if (own !== undefined) return this.cellValue(own, sheet.name, row, column);
+    return this.spilledValue(sheet.name, row, column);
   }
 
   private spilledValue(sheetName: string, row: number, column: number): Scalar {
