@@ -407,7 +407,7 @@ function cautionRows(request: BlockRequest): BlockRow[] {
     ),
     row(
       "review",
-      "Decisions",
+      "Before acting on it",
       text("For clinical, safety or regulatory decisions, have the analysis reviewed by a qualified person and follow the rules that apply to you."),
       "text",
       "caution",
@@ -447,7 +447,7 @@ export function resultBlockRows(request: BlockRequest): BlockRow[] {
         pValue: parts.pValue,
         alpha: request.alpha,
         reject: `Reject H0: evidence that ${about} is ${CLAIM[request.alternative]} ${centerWords}`,
-        keep: "Do not reject H0 (not evidence for H0)",
+        keep: `Do not reject H0: these data do not show that ${about} is ${CLAIM[request.alternative]} ${centerWords}`,
       },
       "text",
     ),

@@ -51,6 +51,17 @@ describe("resultBlockRows", () => {
     for (const r of rows) expect(NUMBER_FORMATS[r.format]).toBeTypeOf("string");
   });
 
+  it("words a kept H0 as what the data do not show, and labels the review caution by when it applies", () => {
+    const rows = resultBlockRows(oneSample);
+    const decision = rows.find((r) => r.key === "decision")!.value;
+    expect(decision).toMatchObject({
+      kind: "decision",
+      keep: "Do not reject H0: these data do not show that the median of Thickness is above 50",
+      reject: "Reject H0: evidence that the median of Thickness is above 50",
+    });
+    expect(rows.find((r) => r.key === "review")!.label).toBe("Before acting on it");
+  });
+
   it("states the hypotheses in notation for each alternative", () => {
     const h1 = (alternative: BlockRequest["alternative"]) =>
       resultBlockRows({ ...oneSample, alternative }).find((r) => r.key === "h1")!.value;
