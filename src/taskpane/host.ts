@@ -198,12 +198,16 @@ function parseSheetAddress(address: string, fallbackSheet: string): SheetRect {
   return { sheet: parsed.sheet ?? fallbackSheet, rect: { top: parsed.top, left: parsed.left, bottom: parsed.bottom, right: parsed.right } };
 }
 
-async function loadTable(context: HostContext, table: HostTable, sheet: string): Promise<TableInfo> {
+/** Queues what a TableInfo needs (name, column names, address); read it with `tableInfo` after the next sync. */
+function queueTableLoad(table: HostTable): { table: HostTable; range: HostRange } {
   table.load("name");
   table.columns.load("items/name");
   const range = table.getRange();
   range.load("address");
-  await context.sync();
+  return { table, range };
+}
+
+function tableInfo({ table, range }: { table: HostTable; range: HostRange }, sheet: string): TableInfo {
   return { name: table.name, sheet, rect: parseSheetAddress(range.address, sheet).rect, columns: table.columns.items.map((c) => c.name) };
 }
 
@@ -428,9 +432,10 @@ export function createHost(run: RunBatch): Host {
         const sheet = context.workbook.worksheets.getItem(sheetName);
         sheet.tables.load("items/name");
         await context.sync();
-        const found: TableInfo[] = [];
-        for (const table of sheet.tables.items) found.push(await loadTable(context, table, sheetName));
-        return found;
+        // One more sync for all the tables together, not one per table.
+        const queued = sheet.tables.items.map(queueTableLoad);
+        await context.sync();
+        return queued.map((loaded) => tableInfo(loaded, sheetName));
       }),
 
     blocks: () =>

@@ -90,6 +90,23 @@ describe("host over office-addin-mock", () => {
     expect(await createHost(mockRun(workbookMock(filled))).usedRect("Paint line")).toEqual({ top: 0, left: 0, bottom: 24, right: 2 });
   });
 
+  it("lists every table of a sheet in two syncs, however many tables there are", async () => {
+    const sheet = {
+      name: "Paint line",
+      tables: itemsCollection([plainTable("Table1", "'Paint line'!A1:A5", ["Panel"]), plainTable("Table2", "'Paint line'!C1:D5", ["Before", "After"]), plainTable("Table3", "'Paint line'!F1:F9", ["Lot"])]),
+    };
+    let syncs = 0;
+    const counting: RunBatch = (batch) =>
+      mockRun(workbookMock(sheet))((context) => {
+        const sync = context.sync.bind(context);
+        return batch(Object.assign(Object.create(context) as typeof context, { sync: () => (syncs++, sync()) }));
+      });
+    const tables = await createHost(counting).tables("Paint line");
+    expect(tables.map((t) => t.name)).toEqual(["Table1", "Table2", "Table3"]);
+    expect(tables[1].columns).toEqual(["Before", "After"]);
+    expect(syncs).toBe(2);
+  });
+
   it("lists a sheet's tables with their ranges and column names", async () => {
     const sheet = { name: "Paint line", tables: itemsCollection([plainTable("Table1", "'Paint line'!A1:C25", ["Panel", "Thickness (µm)", "After"])]) };
     const tables = await createHost(mockRun(workbookMock(sheet))).tables("Paint line");
