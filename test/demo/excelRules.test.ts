@@ -76,6 +76,8 @@ describe("the Excel stand-in refuses what Excel refuses", () => {
       const w = sheetWithData();
       const write = fakeRun(w)(async (context) => {
         context.workbook.worksheets.getItem(S).getRange("D1").formulas = [[entry]];
+        // One sync in each separate run over a fresh workbook, not a loop of syncs in one batch.
+        // eslint-disable-next-line office-addins/no-context-sync-in-loop
         await context.sync();
       });
       await expect(write).rejects.toMatchObject({ code: "InvalidArgument" });
@@ -191,6 +193,8 @@ describe("defined names (Microsoft, \"Define and use names in formulas\")", () =
       const w = new Workbook([S]);
       const add = fakeRun(w)(async (context) => {
         context.workbook.names.add(name, context.workbook.worksheets.getItem(S).getRange("A1"));
+        // One sync in each separate run over a fresh workbook, not a loop of syncs in one batch.
+        // eslint-disable-next-line office-addins/no-context-sync-in-loop
         await context.sync();
       });
       await expect(add, name).rejects.toMatchObject({ code: "InvalidArgument" });
@@ -212,6 +216,8 @@ describe("payload of one sync (Microsoft, \"Resource limits and performance opti
       const column = context.workbook.worksheets.getItem(S).getRange("A:C");
       column.load("values");
       await context.sync();
+      // The rule reads "values/length" as a property path to load; loading "values" is what Office.js needs.
+      // eslint-disable-next-line office-addins/load-object-before-read
       return column.values.length;
     });
     await expect(whole).rejects.toMatchObject({ code: "ResponsePayloadSizeLimitExceeded" });

@@ -78,7 +78,10 @@ function stepsOf(signs: readonly number[], alternative: Alternative, ties: TieRu
       step = pending ? [1, -1] : [];
       pending = !pending;
     } else step = [alternative === "greater" ? -1 : alternative === "less" ? 1 : above < below ? 1 : -1];
-    for (const s of step) s > 0 ? above++ : below++;
+    for (const s of step) {
+      if (s > 0) above++;
+      else below++;
+    }
     if (step.length > 0) steps.push(step);
   }
   return steps;
