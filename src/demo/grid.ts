@@ -25,6 +25,7 @@
 import { columnLetters, formatAddress, parseAddress, type CellRect } from "../taskpane/a1";
 import { el, replaceChildren, svg } from "../taskpane/dom";
 import { formatCell } from "../taskpane/numberFormat";
+import { chartColumns } from "./chartColumns";
 import { clipboardCells } from "./clipboard";
 import { isError } from "./formula/values";
 import { RefusedEntry } from "./limits";
@@ -58,22 +59,21 @@ function chartView(workbook: Workbook, chart: ChartModel): HTMLElement {
   const header = values[0].every((v) => typeof v === "string");
   const names = header ? values[0].map(String) : values[0].map((_, i) => `Series ${i + 1}`);
   const rows = header ? values.slice(1) : values;
-  const numbers = rows.flatMap((r) => r.filter((v): v is number => typeof v === "number"));
-  const high = Math.max(1, ...numbers);
+  const drawn = chartColumns(rows);
   const width = 320;
   const height = 130;
   const base = height - 14;
-  const groups = Math.max(1, rows.length);
+  const groups = Math.max(1, drawn.columns.length);
   const step = (width - 20) / groups;
   const barWidth = Math.max(1, (step * 0.8) / Math.max(1, names.length));
   const plot = svg("svg", {
     class: "demo-chart-plot",
     attrs: { viewBox: `0 0 ${width} ${height}`, role: "img", "aria-label": `Column chart of ${names.join(" and ")}, ${rows.length} rows` },
   });
-  rows.forEach((row, i) =>
-    row.forEach((v, s) => {
-      if (typeof v !== "number") return;
-      const h = (v / high) * (base - 10);
+  drawn.columns.forEach((column, i) =>
+    column.forEach((v, s) => {
+      if (v === null) return;
+      const h = (v / drawn.highest) * (base - 10);
       plot.appendChild(
         svg("rect", {
           class: `demo-chart-bar demo-series-${s % 2}`,
@@ -87,7 +87,9 @@ function chartView(workbook: Workbook, chart: ChartModel): HTMLElement {
   return el(
     "figure",
     { class: "demo-chart" },
-    el("figcaption", undefined, el("strong", undefined, chart.title || "Chart"), ` — a recorded chart object (${chart.type}) of ${address}, which Excel would float over ${chart.from}:${chart.to}. The demo draws it here; it follows the same cells.`),
+    el("figcaption", undefined, el("strong", undefined, chart.title || "Chart"), ` — a recorded chart object (${chart.type}) of ${address}, which Excel would float over ${chart.from}:${chart.to}. The demo draws it here; it follows the same cells.${
+        drawn.rowsPerColumn > 1 ? ` With ${rows.length.toLocaleString("en-US")} rows, each bar of this sketch is the mean of ${drawn.rowsPerColumn.toLocaleString("en-US")} consecutive rows.` : ""
+      }`),
     plot,
     el("p", { class: "demo-legend" }, ...names.map((n, s) => el("span", { class: `demo-key demo-series-${s % 2}` }, n))),
   );
