@@ -8,7 +8,7 @@
  * the targets are at most 2 s at 100,000 rows and at most 15 times the
  * 1,000-row time. With DEMO_PROFILE=1 it also prints, per step, the functions
  * that took the most time (Chrome's sampling profiler; a development build
- * keeps their names).
+ * keeps their names); with DEMO_CHART=1 the block is written with its chart.
  *
  * Run: EVENSPLIT_DIST=/tmp/dist-NAME npx tsx bench/demoScale.browser.ts [rows ...]
  * (build first: EVENSPLIT_DIST=/tmp/dist-NAME npx webpack --mode production).
@@ -89,6 +89,8 @@ async function measure(session: Session, rows: number): Promise<Record<Step, num
     await page.locator(".es-preview").first().waitFor();
   });
 
+  // DEMO_CHART=1 asks for the chart beside the block too, whose sketch the sheet then redraws on every change.
+  if (process.env.DEMO_CHART === "1") await page.getByLabel("Also add a chart of the data beside the block").check();
   const write = await timed(page, cdp, "write", async () => {
     // "Write the block", or "Make the table and write the block" when the range is to become a table.
     await page.getByRole("button", { name: /write the block/i }).click();
