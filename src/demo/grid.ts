@@ -1,32 +1,37 @@
 /**
  * The demo sheet on the page: a grid of cells with a name box and a contents
  * bar, operable by mouse and keyboard, showing what the workbook calculates
- * under each cell's number format; and the charts the workbook recorded,
- * drawn below the grid.
+ * under each cell's number format; sheet tabs; and the charts the workbook
+ * recorded, drawn below the grid.
  *
  * Method: the grid is an HTML table drawn from the workbook after every
  * change, but only the rows in view and a margin around them (virtual
  * scrolling): spacer rows stand for the rest, so the scroll bar spans the
  * whole sheet while 100,000 rows cost no more to draw than 100. Each drawn
- * cell keeps its id (demo-cell-ROW-COLUMN) and the grid's aria-activedescendant
- * names the active one; moving the active cell (arrows, the name box, the
- * pane's selection) scrolls it into view first. Cell text as text nodes only. Keyboard: arrows move, Shift+arrows
- * extend the selection, typing starts an entry in the contents bar, Enter
- * there commits and moves down, Escape cancels, F2 edits, Delete clears the
- * selection; Tab leaves the grid for the pane. Pasting text (Ctrl+V) fills
- * cells from the active one, one line per row and one tab-separated field
- * per cell (clipboard.ts), and selects them. Typing or pasting below a table
- * lengthens it, as in the spreadsheet. An entry Excel would not take (see
- * limits.ts) is refused with the reason, and the contents bar keeps it for
- * correcting, as Excel keeps a formula it cannot accept in edit mode.
+ * cell keeps its id (demo-cell-ROW-COLUMN) and the grid's
+ * aria-activedescendant names the active one; moving the active cell
+ * (arrows, the name box, the pane's selection) scrolls it into view first.
+ * Cell text as text nodes only.
+ *
+ * Keyboard: arrows move, Shift+arrows extend the selection, Ctrl+arrows go to
+ * the edge of the data region (dataEdge.ts), typing starts an entry in the
+ * contents bar, Enter there commits and moves down, Escape cancels, F2 edits,
+ * Delete clears the selection; Tab leaves the grid for the pane. Pasting text
+ * (Ctrl+V) fills cells from the active one, one line per row and one
+ * tab-separated field per cell (clipboard.ts), and selects them. Typing or
+ * pasting below a table lengthens it, as in the spreadsheet. An entry Excel
+ * would not take (see limits.ts) is refused with the reason, and the contents
+ * bar keeps it for correcting, as Excel keeps a formula it cannot accept in
+ * edit mode.
  *
  * Cost: O(drawn cells) per change and per scroll past the drawn rows.
  */
-import { columnLetters, formatAddress, parseAddress, type CellRect } from "../taskpane/a1";
+import { columnLetters, formatAddress, LAST_COLUMN, LAST_ROW, parseAddress, type CellRect } from "../taskpane/a1";
 import { el, replaceChildren, svg } from "../taskpane/dom";
 import { formatCell } from "../taskpane/numberFormat";
 import { chartColumns } from "./chartColumns";
 import { clipboardCells } from "./clipboard";
+import { dataEdge } from "./dataEdge";
 import { isError } from "./formula/values";
 import { RefusedEntry } from "./limits";
 import type { ChartModel, Workbook } from "./workbook";
@@ -294,6 +299,19 @@ export function mountGrid(container: HTMLElement, workbook: Workbook): void {
   grid.addEventListener("keydown", (event) => {
     const moves: Record<string, [number, number]> = { ArrowUp: [-1, 0], ArrowDown: [1, 0], ArrowLeft: [0, -1], ArrowRight: [0, 1] };
     const move = moves[event.key];
+    if (move && (event.ctrlKey || event.metaKey)) {
+      // Ctrl+arrow: to the edge of the data region (dataEdge.ts), so the end of 100,000 rows is one key away.
+      event.preventDefault();
+      const used = workbook.usedRect(sheet);
+      const vertical = move[0] !== 0;
+      const step = (vertical ? move[0] : move[1]) as 1 | -1;
+      const line = vertical
+        ? { lastUsed: used?.bottom ?? -1, last: LAST_ROW, filled: (r: number) => workbook.value(sheet, r, active.column) !== null }
+        : { lastUsed: used?.right ?? -1, last: LAST_COLUMN, filled: (c: number) => workbook.value(sheet, active.row, c) !== null };
+      const to = dataEdge(vertical ? active.row : active.column, step, line);
+      moveTo(vertical ? to : active.row, vertical ? active.column : to, event.shiftKey);
+      return;
+    }
     if (move) {
       event.preventDefault();
       moveTo(active.row + move[0], active.column + move[1], event.shiftKey);

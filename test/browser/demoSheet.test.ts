@@ -58,7 +58,7 @@ describe.runIf(run)("the demo sheet", () => {
     await page.close();
   });
 
-  it("draws only the rows in view of a long column, and still moves there by name box and arrows", async () => {
+  it("draws only the rows in view of a long column, and still moves there by name box, arrows and Ctrl+arrows", async () => {
     const page = await openDemo(session);
     const lines = Array.from({ length: 3000 }, (_, i) => String(40 + (i % 20)));
     await paste(page, "H1", `${lines.join("\n")}\n`);
@@ -77,6 +77,13 @@ describe.runIf(run)("the demo sheet", () => {
     await snap(page, "21-demo-long-column");
     await selectCells(page, "A1");
     await expect.poll(() => inView(page, "demo-cell-0-0")).toBe(true);
+    // Ctrl+arrows go to the edge of the data (Microsoft, "Keyboard shortcuts in Excel").
+    await selectCells(page, "H1");
+    await page.keyboard.press("Control+ArrowDown");
+    await expect.poll(() => page.getByLabel("Selected cells (type an address and press Enter)").inputValue()).toBe("H3000");
+    await expect.poll(() => inView(page, "demo-cell-2999-7")).toBe(true);
+    await page.keyboard.press("Control+ArrowUp");
+    await expect.poll(() => page.getByLabel("Selected cells (type an address and press Enter)").inputValue()).toBe("H1");
     await page.close();
   });
 
