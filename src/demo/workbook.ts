@@ -81,6 +81,8 @@ interface SheetModel {
 const DEFAULT_FORMAT: CellFormat = { numberFormat: "General", bold: false, italic: false, color: null };
 const FORMAT_PROPERTIES = Object.keys(DEFAULT_FORMAT) as (keyof CellFormat)[];
 const MAX_PASSES = 4;
+/** Formulas depending on a change beyond which a recalculation simply takes every formula. */
+const MAX_TRACKED_DEPENDENTS = 500;
 
 function key(row: number, column: number): string {
   return `${row},${column}`;
@@ -570,9 +572,10 @@ export class Workbook {
    * Formula cells whose answers may differ after `changed`: those inside it,
    * those that read any of it, and, over and over, those that read a cell (or
    * the spilled area) of a formula already found — the cells that depend on
-   * the change, directly or through other formulas.
+   * the change, directly or through other formulas; null when they pass
+   * MAX_TRACKED_DEPENDENTS (the search is quadratic in them).
    */
-  private dependents(changed: readonly Region[]): Set<string> {
+  private dependents(changed: readonly Region[]): Set<string> | null {
     const regions = [...changed];
     const dirty = new Set<string>();
     const formulas = this.formulaCells();
@@ -593,6 +596,8 @@ export class Workbook {
         if (!touches(sheet, single(row, column)) && !(this.reads.get(id) ?? []).some((r) => touches(r.sheet, r.rect))) continue;
         dirty.add(id);
         grown = true;
+        // Past a few hundred, comparing regions costs more than calculating everything: the caller does that.
+        if (dirty.size > MAX_TRACKED_DEPENDENTS) return null;
         regions.push({ sheet, rect: single(row, column) });
         const spill = this.spills.get(sheet)?.get(k);
         if (spill) regions.push({ sheet, rect: spill });
@@ -708,7 +713,12 @@ export class Workbook {
       this.computed.clear();
       this.reads.clear();
     } else {
-      for (const id of this.dependents(changed)) {
+      const dirty = this.dependents(changed);
+      if (dirty === null) {
+        this.computed.clear();
+        this.reads.clear();
+      }
+      for (const id of dirty ?? []) {
         const bang = id.lastIndexOf("!");
         this.computed.get(id.slice(0, bang))?.delete(id.slice(bang + 1));
         this.reads.delete(id);

@@ -206,6 +206,16 @@ describe("recalculating only what depends on a change", () => {
     expect(w.value(S, 0, 3)).toBe(2);
   });
 
+  it("gets many dependents right too, where it recalculates everything instead of tracing them", () => {
+    const rows = Array.from({ length: 600 }, (_, r) => [r, `=A${r + 1}+1`]);
+    const w = sheetWith(rows);
+    w.writeEntries(S, 0, 0, rows.map((_, r) => [r * 2]), true);
+    // Exact arithmetic: B600 = A600 + 1 = 599 × 2 + 1.
+    expect(w.value(S, 599, 1)).toBe(1199);
+    w.writeEntries(S, 0, 0, [[-5]], true);
+    expect([w.value(S, 0, 1), w.value(S, 599, 1)]).toEqual([-4, 1199]);
+  });
+
   it("frees the cells a spilled answer covered when its formula is written over", () => {
     const w = sheetWith([[1], [2], [3]]);
     w.setFunctions(new Map([["COUNTS", counts]]));
