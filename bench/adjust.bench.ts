@@ -25,7 +25,7 @@ export async function run(): Promise<void> {
   for (const method of ["holm", "bh"] as AdjustMethod[]) {
     const cell = fastestAlternating(
       () => (sink += pvalue(column, 0.5) as number),
-      () => (sink += (adjust(column, method)[0][0] as number)),
+      () => (sink += adjust(column, method)[0][0] as number),
       3,
       3,
       3,

@@ -45,7 +45,10 @@ function topFunctions(profile: { nodes: ProfileNode[]; samples: number[]; timeDe
     const name = `${functionName || "(anonymous)"} (${url.split("/").pop() ?? ""}:${lineNumber + 1})`;
     byName.set(name, (byName.get(name) ?? 0) + (self.get(node.id) ?? 0));
   }
-  return [...byName].sort((a, b) => b[1] - a[1]).slice(0, count).map(([name, ms]) => `${ms.toFixed(0).padStart(7)} ms  ${name}`);
+  return [...byName]
+    .sort((a, b) => b[1] - a[1])
+    .slice(0, count)
+    .map(([name, ms]) => `${ms.toFixed(0).padStart(7)} ms  ${name}`);
 }
 
 /** Runs `action` and waits for the page to have drawn a frame after it; returns the wall time in ms. */
@@ -57,7 +60,11 @@ async function timed(page: Page, cdp: CDPSession | null, step: Step, action: () 
   const ms = performance.now() - start;
   if (cdp) {
     const { profile } = (await cdp.send("Profiler.stop")) as { profile: { nodes: ProfileNode[]; samples: number[]; timeDeltas: number[] } };
-    console.log(`  where the time of "${step}" went:\n${topFunctions(profile).map((l) => `    ${l}`).join("\n")}`);
+    console.log(
+      `  where the time of "${step}" went:\n${topFunctions(profile)
+        .map((l) => `    ${l}`)
+        .join("\n")}`,
+    );
   }
   return ms;
 }
@@ -121,17 +128,24 @@ async function fastest(session: Session, rows: number): Promise<Record<Step, num
 }
 
 async function main(): Promise<void> {
-  const sizes = process.argv.slice(2).map(Number).filter((n) => n > 0);
+  const sizes = process.argv
+    .slice(2)
+    .map(Number)
+    .filter((n) => n > 0);
   const [small, large] = sizes.length >= 2 ? sizes : [1_000, 100_000];
   const session = await startSession();
   try {
     const a = await fastest(session, small);
     const b = await fastest(session, large);
-    console.log(`\n${"step".padEnd(10)}${`${small} rows`.padStart(14)}${`${large} rows`.padStart(16)}${"ratio".padStart(9)}  target: <= 2000 ms and <= 15x`);
+    console.log(
+      `\n${"step".padEnd(10)}${`${small} rows`.padStart(14)}${`${large} rows`.padStart(16)}${"ratio".padStart(9)}  target: <= 2000 ms and <= 15x`,
+    );
     for (const step of STEPS) {
       const ratio = b[step] / a[step];
       const ok = b[step] <= 2000 && ratio <= 15 ? "ok" : "OVER";
-      console.log(`${step.padEnd(10)}${a[step].toFixed(0).padStart(11)} ms${b[step].toFixed(0).padStart(13)} ms${ratio.toFixed(1).padStart(8)}x  ${ok}`);
+      console.log(
+        `${step.padEnd(10)}${a[step].toFixed(0).padStart(11)} ms${b[step].toFixed(0).padStart(13)} ms${ratio.toFixed(1).padStart(8)}x  ${ok}`,
+      );
     }
   } finally {
     await session.close();

@@ -14,7 +14,6 @@ import { bounds, hodgeslehmann, pvalue, signrank } from "../src/functions/functi
 import { report, timeMedian } from "./timing";
 import { xorshift32 as uniforms } from "../src/stats/xorshift";
 
-
 /** A one-column range of `rows` cells whose first `numbers` cells hold coating thicknesses around 50 µm; the rest are blank. */
 function column(rows: number, numbers: number, seed: number): (number | null)[][] {
   const next = uniforms(seed);

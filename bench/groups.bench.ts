@@ -62,14 +62,26 @@ export async function run(): Promise<void> {
   // Without repeats (full double precision) every walk crosses all 200,000 values: for information.
   const fineA = lineA.map(([v]) => [v + next() * 1e-3]);
   const fineB = lineB.map(([v]) => [v + next() * 1e-3]);
-  const fine = fastestAlternating(() => (sink += bareLoop(fineA, fineB)), () => (sink += shift(fineA, fineB)[0][0] as number), 3, 3, 3);
+  const fine = fastestAlternating(
+    () => (sink += bareLoop(fineA, fineB)),
+    () => (sink += shift(fineA, fineB)[0][0] as number),
+    3,
+    3,
+    3,
+  );
   report("SHIFT, 2 x 100,000 without repeated values", fine.ms, fine.baseMs);
 
   const heads = Array.from({ length: 100 }, (_, h) => `Head ${h + 1}`);
   const values = thicknesses(1_000_000, 50, next);
   const labels = values.map(() => [heads[Math.floor(next() * heads.length)]]);
   check("BYGROUP", bygroup(values, labels, 50));
-  const many = fastestAlternating(() => (sink += bareLoop(values, labels)), () => (sink += bygroup(values, labels, 50).length), 3, 3, 3);
+  const many = fastestAlternating(
+    () => (sink += bareLoop(values, labels)),
+    () => (sink += bygroup(values, labels, 50).length),
+    3,
+    3,
+    3,
+  );
   report("BYGROUP, 1,000,000 rows in 100 groups", many.ms, many.baseMs, 10);
 
   // The exact distribution at the auto limits, p near 1 (the largest tail to sum): for information.
@@ -80,7 +92,13 @@ export async function run(): Promise<void> {
   const tiedFirst = Array.from({ length: tiedHalf }, (_, i) => Math.floor(i / 2));
   const tiedSecond = Array.from({ length: tiedHalf }, (_, i) => Math.floor(i / 2) + (i % 3 === 0 ? 0.5 : 0));
   const bareSmall = () => (sink += bareLoop(lineA, lineB));
-  const untied = fastestAlternating(bareSmall, () => (sink += (rankSumTest(untiedFirst, untiedSecond) as { pValue: number }).pValue), 3, 3, 2);
+  const untied = fastestAlternating(
+    bareSmall,
+    () => (sink += (rankSumTest(untiedFirst, untiedSecond) as { pValue: number }).pValue),
+    3,
+    3,
+    2,
+  );
   report(`rank-sum exact, ${half} + ${half} without ties, p near 1`, untied.ms, untied.baseMs);
   const tied = fastestAlternating(bareSmall, () => (sink += (rankSumTest(tiedFirst, tiedSecond) as { pValue: number }).pValue), 3, 3, 2);
   report(`rank-sum exact, ${tiedHalf} + ${tiedHalf} with ties, p near 1`, tied.ms, tied.baseMs);

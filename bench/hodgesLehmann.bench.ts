@@ -11,7 +11,6 @@ import { alternate, bareLoop, columnOf } from "./cells.bench";
 import { report, timeMedian } from "./timing";
 import { xorshift32 as uniforms } from "../src/stats/xorshift";
 
-
 export async function run(): Promise<void> {
   const next = uniforms(99);
   const cellValues = Float64Array.from({ length: 1_000_000 }, () => Math.round(next() * 1e5) / 100);
@@ -21,10 +20,15 @@ export async function run(): Promise<void> {
   const sample = (n: number) => Float64Array.from({ length: n }, () => Math.round((-Math.log(next()) * 10 - 3) * 1e4) / 1e4);
 
   const x5 = sample(100_000);
-  const main = alternate(bare, () => {
-    const r = hodgesLehmann(x5);
-    if (r.available) sink += r.estimate;
-  }, 3, 4);
+  const main = alternate(
+    bare,
+    () => {
+      const r = hodgesLehmann(x5);
+      if (r.available) sink += r.estimate;
+    },
+    3,
+    4,
+  );
   report("hodgesLehmann, 10^5 values (estimate + 95% bounds)", main.ms, main.baseMs, 100);
 
   const baseMs = timeMedian(bare, 7);

@@ -23,7 +23,6 @@ import { xorshift32 as uniforms } from "../src/stats/xorshift";
 
 const N = 1_000_000;
 
-
 /** Signs alternating in pairs of tied absolute values 1,1,2,2,...: scores 2r + 3 are all odd, V near its mean. */
 function slowestExact(m: number): Float64Array {
   const d = new Float64Array(m);
@@ -63,19 +62,32 @@ export async function run(): Promise<void> {
   const bare = () => (sink += bareLoop(column));
   const differences = differencesFrom(values, 50);
 
-  const normal = alternate(bare, () => {
-    const r = signedRankTest(differences, { method: "normal" });
-    if (r.available) sink += r.pValue;
-  }, 5, 4);
+  const normal = alternate(
+    bare,
+    () => {
+      const r = signedRankTest(differences, { method: "normal" });
+      if (r.available) sink += r.pValue;
+    },
+    5,
+    4,
+  );
   report("signedRankTest normal, 10^6 differences", normal.ms, normal.baseMs, 30);
-  const withDifferences = alternate(bare, () => {
-    const r = signedRankTest(differencesFrom(values, 50), { method: "normal" });
-    if (r.available) sink += r.pValue;
-  }, 5, 4);
+  const withDifferences = alternate(
+    bare,
+    () => {
+      const r = signedRankTest(differencesFrom(values, 50), { method: "normal" });
+      if (r.available) sink += r.pValue;
+    },
+    5,
+    4,
+  );
   report("differencesFrom + signedRankTest normal, 10^6 values", withDifferences.ms, withDifferences.baseMs);
 
   const baseMs = timeMedian(bare, 7);
-  for (const [label, m] of [["EXACT_AUTO_LIMIT", EXACT_AUTO_LIMIT], ["EXACT_LIMIT", EXACT_LIMIT]] as const) {
+  for (const [label, m] of [
+    ["EXACT_AUTO_LIMIT", EXACT_AUTO_LIMIT],
+    ["EXACT_LIMIT", EXACT_LIMIT],
+  ] as const) {
     const d = slowestExact(m);
     const ms = timeMedian(() => {
       const r = signedRankTest(d, { method: "exact" });
@@ -106,7 +118,10 @@ export async function run(): Promise<void> {
   for (const n of [50, 100, 200, EXACT_AUTO_LIMIT, EXACT_LIMIT]) {
     const total = (n * (n + 1)) / 2;
     const sd = Math.sqrt((n * (n + 1) * (2 * n + 1)) / 24);
-    const cdf = signedRankNullCdf(Array.from({ length: n }, (_, i) => i + 1), Math.floor(total / 2));
+    const cdf = signedRankNullCdf(
+      Array.from({ length: n }, (_, i) => i + 1),
+      Math.floor(total / 2),
+    );
     const errors = [0.05, 0.01, 1e-3, 1e-4, 1e-6].map((level) => {
       let q = 0;
       while (cdf[q + 1] <= level) q++;

@@ -21,7 +21,9 @@ export function timeMedian(fn: () => unknown, repeats = 7): number {
 export function report(name: string, ms: number, baselineMs: number, limit?: number): void {
   const ratio = ms / baselineMs;
   const verdict = limit === undefined ? "" : ratio <= limit ? `  (limit ${limit}x: ok)` : `  (limit ${limit}x: OVER)`;
-  console.log(`${name.padEnd(58)} ${ms.toFixed(3).padStart(10)} ms  baseline ${baselineMs.toFixed(3).padStart(9)} ms  ratio ${ratio.toFixed(2).padStart(7)}x${verdict}`);
+  console.log(
+    `${name.padEnd(58)} ${ms.toFixed(3).padStart(10)} ms  baseline ${baselineMs.toFixed(3).padStart(9)} ms  ratio ${ratio.toFixed(2).padStart(7)}x${verdict}`,
+  );
 }
 
 /**
@@ -30,7 +32,13 @@ export function report(name: string, ms: number, baselineMs: number, limit?: num
  * closest to what the code itself costs (common practice for micro-benchmarks); the ratio of two fastest
  * runs stays steady under load where a ratio of medians swings widely.
  */
-export function fastestAlternating(base: () => unknown, candidate: () => unknown, rounds = 9, repeats = 5, warmups = 20): { baseMs: number; ms: number } {
+export function fastestAlternating(
+  base: () => unknown,
+  candidate: () => unknown,
+  rounds = 9,
+  repeats = 5,
+  warmups = 20,
+): { baseMs: number; ms: number } {
   for (let i = 0; i < warmups; i++) {
     base();
     candidate();

@@ -82,8 +82,12 @@ function compare(name: string, cells: number[][], candidate: () => unknown, limi
 export function speed(): void {
   const steady = column(100_000, 21, 0);
   const drifting = column(100_000, 22, 3);
-  console.log(`answers: WATCHPVALUE ${String(watchpvalue(steady, 50))}, one-sided on the drifting column ${String(watchpvalue(drifting, 50, "greater"))}`);
-  console.log(`         WATCHBOUNDS ${JSON.stringify(watchbounds(steady))}, 0.9 quantile ${JSON.stringify(watchbounds(steady, 0.95, 0.9))}`);
+  console.log(
+    `answers: WATCHPVALUE ${String(watchpvalue(steady, 50))}, one-sided on the drifting column ${String(watchpvalue(drifting, 50, "greater"))}`,
+  );
+  console.log(
+    `         WATCHBOUNDS ${JSON.stringify(watchbounds(steady))}, 0.9 quantile ${JSON.stringify(watchbounds(steady, 0.95, 0.9))}`,
+  );
   console.log(`         SPRT (p_above 0.55) on the drifting column ${JSON.stringify(sprtCell(drifting, 50, 0.55))}`);
   compare("WATCHPVALUE two-sided, 100,000 rows", steady, () => watchpvalue(steady, 50), 20);
   compare("WATCHPVALUE greater, 100,000 drifting rows", drifting, () => watchpvalue(drifting, 50, "greater"), 20);
@@ -131,11 +135,19 @@ function monteCarlo(): void {
     if (q.available && (q.lower ?? -Infinity) <= 0.9 && 0.9 <= (q.upper ?? Infinity)) covered90++;
   }
   const pct = (x: number) => `${((100 * x) / runs).toFixed(2)}%`;
-  console.log(`\nMonte Carlo, ${runs} runs under H0, looking after every row to n = ${n}, alpha ${alpha} (simulation error ${(100 * se).toFixed(2)} points):`);
+  console.log(
+    `\nMonte Carlo, ${runs} runs under H0, looking after every row to n = ${n}, alpha ${alpha} (simulation error ${(100 * se).toFixed(2)} points):`,
+  );
   console.log(`  fixed-sample exact sign test rejects at some row: ${pct(fixed)}`);
-  console.log(`  watched p-value (WATCHPVALUE) rejects:            ${pct(watched)}  (at most alpha + 3 SE: ${watched / runs <= alpha + 3 * se ? "ok" : "OVER"})`);
-  console.log(`  confidence sequence covers the median at every row:       ${pct(coveredMedian)}  (at least 1 − alpha − 3 SE: ${coveredMedian / runs >= 1 - alpha - 3 * se ? "ok" : "UNDER"})`);
-  console.log(`  confidence sequence covers the 0.9 quantile at every row: ${pct(covered90)}  (${covered90 / runs >= 1 - alpha - 3 * se ? "ok" : "UNDER"})`);
+  console.log(
+    `  watched p-value (WATCHPVALUE) rejects:            ${pct(watched)}  (at most alpha + 3 SE: ${watched / runs <= alpha + 3 * se ? "ok" : "OVER"})`,
+  );
+  console.log(
+    `  confidence sequence covers the median at every row:       ${pct(coveredMedian)}  (at least 1 − alpha − 3 SE: ${coveredMedian / runs >= 1 - alpha - 3 * se ? "ok" : "UNDER"})`,
+  );
+  console.log(
+    `  confidence sequence covers the 0.9 quantile at every row: ${pct(covered90)}  (${covered90 / runs >= 1 - alpha - 3 * se ? "ok" : "UNDER"})`,
+  );
 
   for (const [pAbove, a, b] of [
     [0.75, 0.05, 0.2],

@@ -30,7 +30,8 @@ function build(): Promise<string> {
 
 async function main(): Promise<void> {
   const given = process.argv[2];
-  if (!given) throw new Error("Give the https folder the files will be served from: npm run build:deploy -- https://addins.example.org/evensplit/");
+  if (!given)
+    throw new Error("Give the https folder the files will be served from: npm run build:deploy -- https://addins.example.org/evensplit/");
   const checked = deploymentBase(given);
   if ("problem" in checked) throw new Error(checked.problem);
   const out = await build();

@@ -27,7 +27,9 @@ export function deploymentBase(text: string): { base: string } | { problem: stri
   try {
     url = new URL(text.trim());
   } catch {
-    return { problem: `"${text}" is not an absolute URL; give the https address the built files will be served from, such as https://addins.example.org/evensplit/.` };
+    return {
+      problem: `"${text}" is not an absolute URL; give the https address the built files will be served from, such as https://addins.example.org/evensplit/.`,
+    };
   }
   if (url.protocol !== "https:") return { problem: `${url.href} must use https: Excel loads add-ins over https only.` };
   if (url.search || url.hash) return { problem: `${url.href} must be a folder address without a query or fragment.` };
@@ -48,7 +50,10 @@ export function deploymentBase(text: string): { base: string } | { problem: stri
 export function manifestForDeployment(manifest: string, base: string): string {
   const moved = manifest.split(DEVELOPMENT_ORIGIN).join(base);
   const left = /localhost/i.exec(moved);
-  if (left) throw new Error(`manifest.xml still names localhost after moving its addresses (near "${moved.slice(Math.max(0, left.index - 40), left.index + 30)}").`);
+  if (left)
+    throw new Error(
+      `manifest.xml still names localhost after moving its addresses (near "${moved.slice(Math.max(0, left.index - 40), left.index + 30)}").`,
+    );
   return moved;
 }
 
@@ -66,7 +71,8 @@ export function metadataForDeployment(metadataJson: string, base: string): strin
   const metadata = JSON.parse(metadataJson) as { functions: { id: string; helpUrl?: string }[] };
   const functions = metadata.functions.map((fn) => {
     if (fn.helpUrl === undefined) return fn;
-    if (!fn.helpUrl.startsWith(DEVELOPMENT_ORIGIN)) throw new Error(`The helpUrl of ${fn.id} (${fn.helpUrl}) is not on ${DEVELOPMENT_ORIGIN}; it cannot be moved.`);
+    if (!fn.helpUrl.startsWith(DEVELOPMENT_ORIGIN))
+      throw new Error(`The helpUrl of ${fn.id} (${fn.helpUrl}) is not on ${DEVELOPMENT_ORIGIN}; it cannot be moved.`);
     return { ...fn, helpUrl: base + fn.helpUrl.slice(DEVELOPMENT_ORIGIN.length) };
   });
   return JSON.stringify({ ...metadata, functions }, null, 4);

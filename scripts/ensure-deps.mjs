@@ -46,7 +46,9 @@ export function planInstall(machine) {
         commands: ["apt-get update -qq", "DEBIAN_FRONTEND=noninteractive apt-get install -y -qq chromium"],
       });
     } else {
-      notes.push(`Chromium was not found at ${machine.chromium}; the browser tests will fail until it is installed (Debian: apt-get install -y chromium).`);
+      notes.push(
+        `Chromium was not found at ${machine.chromium}; the browser tests will fail until it is installed (Debian: apt-get install -y chromium).`,
+      );
     }
   }
   return { steps, notes };
@@ -79,7 +81,10 @@ function main() {
   const hasPackages = existsSync("node_modules/.package-lock.json");
   const { steps, notes } = planInstall({
     hasPackages,
-    lacking: hasPackages && existsSync("package-lock.json") ? lackingPackages(readFileSync("package-lock.json", "utf8"), readFileSync("node_modules/.package-lock.json", "utf8")) : [],
+    lacking:
+      hasPackages && existsSync("package-lock.json")
+        ? lackingPackages(readFileSync("package-lock.json", "utf8"), readFileSync("node_modules/.package-lock.json", "utf8"))
+        : [],
     wantBrowser: process.argv.includes("--browser"),
     hasChromium: existsSync(chromium),
     chromium,

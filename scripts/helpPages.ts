@@ -187,7 +187,10 @@ export function helpPage(fn: FunctionMetadata, extras: JsDocExtras): string {
 
 /** The index of all help pages, in the metadata's order. */
 export function helpIndex(functions: readonly FunctionMetadata[]): string {
-  const items = functions.map((fn) => `<li><a href="${fn.id.toLowerCase()}.html"><code>${NAMESPACE}.${escapeHtml(fn.name)}</code></a>: ${escapeHtml(fn.description ?? "")}</li>`);
+  const items = functions.map(
+    (fn) =>
+      `<li><a href="${fn.id.toLowerCase()}.html"><code>${NAMESPACE}.${escapeHtml(fn.name)}</code></a>: ${escapeHtml(fn.description ?? "")}</li>`,
+  );
   return page("Evensplit functions: help", `<h1>Evensplit functions</h1>\n<ul class="es-help-index">${items.join("")}</ul>`);
 }
 
@@ -208,7 +211,7 @@ export function helpStyleSheet(paneCss: string): string {
     ".es-help h2 { font-size: 1.1rem; margin-top: 1.4rem; }",
     ".es-help dt { font-weight: 600; margin-top: 0.8rem; }",
     ".es-help dd { margin-left: 1rem; }",
-    ".es-help code { font-family: Consolas, \"Courier New\", monospace; background: var(--es-surface); padding: 0 0.2em; }",
+    '.es-help code { font-family: Consolas, "Courier New", monospace; background: var(--es-surface); padding: 0 0.2em; }',
     ".es-help a { color: var(--es-accent); }",
     ".es-help-note { color: var(--es-muted); }",
     "",
@@ -224,7 +227,11 @@ export function helpStyleSheet(paneCss: string): string {
  * const { metadataJson, files } = helpFiles(metadataJson, readFileSync("src/functions/functions.ts", "utf8"), css);
  * files.get("help/pvalue.html"); // the PVALUE page
  */
-export function helpFiles(metadataJson: string, functionsSource: string, paneCss: string): { metadataJson: string; files: Map<string, string> } {
+export function helpFiles(
+  metadataJson: string,
+  functionsSource: string,
+  paneCss: string,
+): { metadataJson: string; files: Map<string, string> } {
   const metadata = JSON.parse(metadataJson) as { functions: FunctionMetadata[] };
   const extras = jsDocExtras(functionsSource);
   const files = new Map<string, string>();

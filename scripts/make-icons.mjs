@@ -92,7 +92,10 @@ function draw(size) {
   const rgba = Buffer.alloc(size * size * 4);
   for (let py = 0; py < size; py++) {
     for (let px = 0; px < size; px++) {
-      let r = 0, g = 0, b = 0, covered = 0;
+      let r = 0,
+        g = 0,
+        b = 0,
+        covered = 0;
       for (let sy = 0; sy < grid; sy++) {
         for (let sx = 0; sx < grid; sx++) {
           const colour = shade((px + (sx + 0.5) / grid) / size, (py + (sy + 0.5) / grid) / size, size);

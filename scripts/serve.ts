@@ -158,7 +158,9 @@ async function main(): Promise<void> {
 function listen(server: Server, port: number): Promise<void> {
   return new Promise((done) => {
     server.on("error", (error: NodeJS.ErrnoException) => {
-      console.error(error.code === "EADDRINUSE" ? `Port ${port} is in use: stop the other server first.` : `The server stopped: ${error.message}`);
+      console.error(
+        error.code === "EADDRINUSE" ? `Port ${port} is in use: stop the other server first.` : `The server stopped: ${error.message}`,
+      );
       process.exit(1);
     });
     server.listen(port, "localhost", done);

@@ -30,7 +30,9 @@ export function summarise(report, fatalReports) {
     .filter((file) => file.count > 0);
   const lost = neverRan.reduce((sum, file) => sum + file.count, 0);
   const skipped = report.numPendingTests + report.numTodoTests;
-  const lines = [`Tests: ${report.numPassedTests} passed, ${report.numFailedTests} failed, ${skipped} skipped${lost > 0 ? `, ${lost} never ran` : ""}`];
+  const lines = [
+    `Tests: ${report.numPassedTests} passed, ${report.numFailedTests} failed, ${skipped} skipped${lost > 0 ? `, ${lost} never ran` : ""}`,
+  ];
   for (const file of neverRan) lines.push(`${file.count} tests of ${file.name} never ran: its worker stopped before them.`);
   for (const fatal of fatalReports) {
     const heap = fatal.heapUsedMB === null ? "" : ` with ${fatal.heapUsedMB} MB of heap in use`;
@@ -58,7 +60,12 @@ export function fatalReportsIn(folder, since) {
       const report = JSON.parse(readFileSync(file, "utf8"));
       const used = report.javascriptHeap?.usedMemory;
       const time = Number(report.header?.dumpEventTimeStamp);
-      return { file, time, trigger: report.header?.event ?? "a fatal error", heapUsedMB: typeof used === "number" ? Math.round(used / 2 ** 20) : null };
+      return {
+        file,
+        time,
+        trigger: report.header?.event ?? "a fatal error",
+        heapUsedMB: typeof used === "number" ? Math.round(used / 2 ** 20) : null,
+      };
     })
     .filter((r) => !(r.time < since))
     .map(({ file, trigger, heapUsedMB }) => ({ file, trigger, heapUsedMB }));

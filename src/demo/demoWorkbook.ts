@@ -29,7 +29,12 @@ export function demoWorkbook(functions: ReadonlyMap<string, CustomFunction>): Wo
     workbook.setFormat(README_SHEET, { top: 0, left: 4, bottom: 0, right: 5 }, { bold: true });
     for (const table of readmeTables()) {
       workbook.writeEntries(README_SHEET, table.top, table.left, table.rows);
-      const rect = { top: table.top, left: table.left, bottom: table.top + table.rows.length - 1, right: table.left + table.rows[0].length - 1 };
+      const rect = {
+        top: table.top,
+        left: table.left,
+        bottom: table.top + table.rows.length - 1,
+        right: table.left + table.rows[0].length - 1,
+      };
       workbook.addTable(README_SHEET, rect, table.name);
     }
     for (const { name, row, column, label, value } of readmeNames()) {

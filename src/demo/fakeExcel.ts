@@ -17,7 +17,19 @@
  * Cost: O(cells touched) per sync.
  */
 import { formatAddress, parseAddress, rectSize, type CellRect } from "../taskpane/a1";
-import type { CellFont, ClearWhat, HostChart, HostContext, HostFont, HostNamedItem, HostRange, HostTable, HostTableColumn, HostWorksheet, RunBatch } from "../taskpane/host";
+import type {
+  CellFont,
+  ClearWhat,
+  HostChart,
+  HostContext,
+  HostFont,
+  HostNamedItem,
+  HostRange,
+  HostTable,
+  HostTableColumn,
+  HostWorksheet,
+  RunBatch,
+} from "../taskpane/host";
 import { isError, type Scalar } from "./formula/values";
 import { formatCell } from "../taskpane/numberFormat";
 import type { ChartModel, DefinedName, TableModel, Workbook } from "./workbook";
@@ -77,7 +89,10 @@ class Queue {
   answer(bytes: number): void {
     this.responseBytes += bytes;
     if (this.responseBytes > PAYLOAD_LIMIT) {
-      throw new FakeApiError("ResponsePayloadSizeLimitExceeded", "The response of this sync is larger than the 5 MB Excel on the web carries; load fewer cells at a time.");
+      throw new FakeApiError(
+        "ResponsePayloadSizeLimitExceeded",
+        "The response of this sync is larger than the 5 MB Excel on the web carries; load fewer cells at a time.",
+      );
     }
   }
   flush(): void {
@@ -87,7 +102,10 @@ class Queue {
     this.responseBytes = 0;
     // A request over the limit is refused before it is sent: nothing of it happens.
     if (request > PAYLOAD_LIMIT) {
-      throw new FakeApiError("RequestPayloadSizeLimitExceeded", "The request of this sync is larger than the 5 MB Excel on the web accepts; write fewer cells at a time.");
+      throw new FakeApiError(
+        "RequestPayloadSizeLimitExceeded",
+        "The request of this sync is larger than the 5 MB Excel on the web accepts; write fewer cells at a time.",
+      );
     }
     this.workbook.batch(() => {
       for (const operation of pending) {
@@ -109,7 +127,10 @@ class Loaded {
   private readonly values = new Map<string, unknown>();
   /** The property names of a load call ("address, values"). */
   static names(list: string): string[] {
-    return list.split(",").map((n) => n.trim()).filter((n) => n !== "");
+    return list
+      .split(",")
+      .map((n) => n.trim())
+      .filter((n) => n !== "");
   }
   set(name: string, value: unknown): void {
     this.values.set(name, value);
@@ -135,7 +156,8 @@ function apiValue(value: Scalar): unknown {
 
 function checkShape(rect: CellRect, matrix: unknown[][]): void {
   const { rows, columns } = rectSize(rect);
-  if (!Array.isArray(matrix)) throw new FakeApiError("InvalidArgument", "A range's values, formulas or formats are set with a two-dimensional array.");
+  if (!Array.isArray(matrix))
+    throw new FakeApiError("InvalidArgument", "A range's values, formulas or formats are set with a two-dimensional array.");
   if (matrix.length !== rows || matrix.some((r) => !Array.isArray(r) || r.length !== columns)) {
     throw new FakeApiError("InvalidArgument", `The array does not have the size of the range (${rows} × ${columns}).`);
   }
@@ -144,7 +166,10 @@ function checkShape(rect: CellRect, matrix: unknown[][]): void {
 type Where = () => { sheet: string; rect: CellRect } | null;
 
 class FakeFont implements HostFont {
-  constructor(private readonly queue: Queue, private readonly where: Where) {}
+  constructor(
+    private readonly queue: Queue,
+    private readonly where: Where,
+  ) {}
   private set(patch: Partial<{ bold: boolean; italic: boolean; color: string | null }>): void {
     this.queue.add(() => {
       const w = this.where();
@@ -194,7 +219,10 @@ class FakeRange implements HostRange {
     return this.queue === queue;
   }
 
-  constructor(private readonly queue: Queue, where: Where) {
+  constructor(
+    private readonly queue: Queue,
+    where: Where,
+  ) {
     // A range reaching past row 1,048,576 or column XFD (getRow, getColumn, an offset) is refused when
     // used (Microsoft, "Excel specifications and limits": the sheet's size).
     this.where = () => {
@@ -248,13 +276,22 @@ class FakeRange implements HostRange {
             this.loaded.set(name, formatAddress(rect, sheet));
             break;
           case "values":
-            this.loaded.set(name, each((r, c) => apiValue(workbook.value(sheet, r, c))));
+            this.loaded.set(
+              name,
+              each((r, c) => apiValue(workbook.value(sheet, r, c))),
+            );
             break;
           case "formulas":
-            this.loaded.set(name, each((r, c) => workbook.entry(sheet, r, c)));
+            this.loaded.set(
+              name,
+              each((r, c) => workbook.entry(sheet, r, c)),
+            );
             break;
           case "numberFormat":
-            this.loaded.set(name, each((r, c) => workbook.format(sheet, r, c).numberFormat));
+            this.loaded.set(
+              name,
+              each((r, c) => workbook.format(sheet, r, c).numberFormat),
+            );
             break;
           default:
             throw new FakeApiError("InvalidArgument", `The demo sheet does not offer Range.${name}.`);
@@ -340,8 +377,15 @@ class FakeRange implements HostRange {
       const w = this.where();
       if (!w) throw new FakeApiError("InvalidOperation", "This range does not exist.");
       const { rows, columns } = rectSize(w.rect);
-      if (applyTo !== "Formats") this.queue.workbook.writeEntries(w.sheet, w.rect.top, w.rect.left, Array.from({ length: rows }, () => Array<string>(columns).fill("")));
-      if (applyTo !== "Contents") this.queue.workbook.setFormat(w.sheet, w.rect, { numberFormat: "General", bold: false, italic: false, color: null });
+      if (applyTo !== "Formats")
+        this.queue.workbook.writeEntries(
+          w.sheet,
+          w.rect.top,
+          w.rect.left,
+          Array.from({ length: rows }, () => Array<string>(columns).fill("")),
+        );
+      if (applyTo !== "Contents")
+        this.queue.workbook.setFormat(w.sheet, w.rect, { numberFormat: "General", bold: false, italic: false, color: null });
     });
   }
 
@@ -383,7 +427,11 @@ class FakeRange implements HostRange {
       copy.forEach((row, r) =>
         row.forEach((cell, c) => {
           const { bold, italic, color } = cell.format?.font ?? {};
-          const patch = { ...(bold === undefined ? {} : { bold }), ...(italic === undefined ? {} : { italic }), ...(color === undefined ? {} : { color }) };
+          const patch = {
+            ...(bold === undefined ? {} : { bold }),
+            ...(italic === undefined ? {} : { italic }),
+            ...(color === undefined ? {} : { color }),
+          };
           const at = { top: w.rect.top + r, left: w.rect.left + c, bottom: w.rect.top + r, right: w.rect.left + c };
           this.queue.workbook.setFormat(w.sheet, at, patch);
         }),
@@ -421,7 +469,10 @@ class FakeTable implements HostTable {
   readonly columns: { readonly items: HostTableColumn[]; load(propertyNames: string): unknown };
 
   /** `model` answers null when there is no such table (a *OrNullObject proxy). */
-  constructor(private readonly queue: Queue, private readonly model: () => TableModel | null) {
+  constructor(
+    private readonly queue: Queue,
+    private readonly model: () => TableModel | null,
+  ) {
     const columnsLoaded = this.columnsLoaded;
     const existing = (): TableModel => {
       const found = model();
@@ -433,7 +484,12 @@ class FakeTable implements HostTable {
         return columnsLoaded.get("items", "TableColumnCollection");
       },
       load: () => {
-        queue.add(() => columnsLoaded.set("items", queue.workbook.tableColumns(existing()).map((name) => ({ name }))));
+        queue.add(() =>
+          columnsLoaded.set(
+            "items",
+            queue.workbook.tableColumns(existing()).map((name) => ({ name })),
+          ),
+        );
         return this.columns;
       },
     };
@@ -519,7 +575,10 @@ class FakeChart implements HostChart {
   private readonly loaded = new Loaded();
   readonly title: { text: string };
   /** `model` answers null when there is no such chart (a *OrNullObject proxy). */
-  constructor(private readonly queue: Queue, private readonly model: () => ChartModel | null) {
+  constructor(
+    private readonly queue: Queue,
+    private readonly model: () => ChartModel | null,
+  ) {
     const existing = (): ChartModel => this.existing();
     this.title = {
       get text(): string {
@@ -576,7 +635,10 @@ class FakeChart implements HostChart {
 
 class FakeNamedItem implements HostNamedItem {
   private readonly loaded = new Loaded();
-  constructor(private readonly queue: Queue, private readonly key: string) {}
+  constructor(
+    private readonly queue: Queue,
+    private readonly key: string,
+  ) {}
   preload(name: string): void {
     this.loaded.set("name", name);
   }
@@ -614,7 +676,10 @@ class FakeWorksheet implements HostWorksheet {
   readonly tables: HostWorksheet["tables"];
   readonly charts: HostWorksheet["charts"];
 
-  constructor(private readonly queue: Queue, private readonly sheetName: () => string) {
+  constructor(
+    private readonly queue: Queue,
+    private readonly sheetName: () => string,
+  ) {
     const tablesLoaded = new Loaded();
     const workbook = queue.workbook;
     this.tables = {
@@ -773,7 +838,8 @@ function fakeNames(queue: Queue): HostContext["workbook"]["names"] {
       return names;
     },
     add: (name: string, reference: HostRange | string) => {
-      if (typeof reference === "string") throw new FakeApiError("InvalidArgument", "The demo sheet names ranges given as Range objects only.");
+      if (typeof reference === "string")
+        throw new FakeApiError("InvalidArgument", "The demo sheet names ranges given as Range objects only.");
       const range = ownRange(queue, reference);
       range.load("address");
       queue.add(() => {

@@ -82,19 +82,33 @@ function chartView(workbook: Workbook, chart: ChartModel): HTMLElement {
       plot.appendChild(
         svg("rect", {
           class: `demo-chart-bar demo-series-${s % 2}`,
-          attrs: { x: (10 + i * step + s * barWidth).toFixed(2), y: (base - h).toFixed(2), width: barWidth.toFixed(2), height: h.toFixed(2) },
+          attrs: {
+            x: (10 + i * step + s * barWidth).toFixed(2),
+            y: (base - h).toFixed(2),
+            width: barWidth.toFixed(2),
+            height: h.toFixed(2),
+          },
         }),
       );
     }),
   );
-  plot.appendChild(svg("line", { class: "demo-chart-axis", attrs: { x1: "10", x2: String(width - 10), y1: String(base), y2: String(base) } }));
+  plot.appendChild(
+    svg("line", { class: "demo-chart-axis", attrs: { x1: "10", x2: String(width - 10), y1: String(base), y2: String(base) } }),
+  );
   const address = formatAddress(source, chart.sheet);
   return el(
     "figure",
     { class: "demo-chart" },
-    el("figcaption", undefined, el("strong", undefined, chart.title || "Chart"), ` — a recorded chart object (${chart.type}) of ${address}, which Excel would float over ${chart.from}:${chart.to}. The demo draws it here; it follows the same cells.${
-        drawn.rowsPerColumn > 1 ? ` With ${rows.length.toLocaleString("en-US")} rows, each bar of this sketch is the mean of ${drawn.rowsPerColumn.toLocaleString("en-US")} consecutive rows.` : ""
-      }`),
+    el(
+      "figcaption",
+      undefined,
+      el("strong", undefined, chart.title || "Chart"),
+      ` — a recorded chart object (${chart.type}) of ${address}, which Excel would float over ${chart.from}:${chart.to}. The demo draws it here; it follows the same cells.${
+        drawn.rowsPerColumn > 1
+          ? ` With ${rows.length.toLocaleString("en-US")} rows, each bar of this sketch is the mean of ${drawn.rowsPerColumn.toLocaleString("en-US")} consecutive rows.`
+          : ""
+      }`,
+    ),
     plot,
     el("p", { class: "demo-legend" }, ...names.map((n, s) => el("span", { class: `demo-key demo-series-${s % 2}` }, n))),
   );
@@ -113,8 +127,14 @@ export function mountGrid(container: HTMLElement, workbook: Workbook): void {
   let anchor: Cursor = { row: 0, column: 0 };
   let dragging = false;
 
-  const nameBox = el("input", { class: "demo-namebox", attrs: { type: "text", "aria-label": "Selected cells (type an address and press Enter)", spellcheck: "false" } });
-  const contents = el("input", { class: "demo-contents", attrs: { type: "text", "aria-label": "Contents of the active cell (Enter saves, Escape cancels)", spellcheck: "false" } });
+  const nameBox = el("input", {
+    class: "demo-namebox",
+    attrs: { type: "text", "aria-label": "Selected cells (type an address and press Enter)", spellcheck: "false" },
+  });
+  const contents = el("input", {
+    class: "demo-contents",
+    attrs: { type: "text", "aria-label": "Contents of the active cell (Enter saves, Escape cancels)", spellcheck: "false" },
+  });
   const head = el("thead");
   const body = el("tbody");
   const grid = el("table", { class: "demo-grid", attrs: { role: "grid", tabindex: "0", "aria-multiselectable": "true" } }, head, body);
@@ -199,7 +219,15 @@ export function mountGrid(container: HTMLElement, workbook: Workbook): void {
     if (shown.error) classes.push("demo-error");
     // Text runs on over empty neighbours to its right, as in the spreadsheet.
     if (!shown.numeric && shown.text !== "" && workbook.value(sheet, r, c + 1) === null) classes.push("demo-overflow");
-    const td = el("td", { class: classes.join(" "), id: cellId(r, c), attrs: { role: "gridcell", "aria-selected": inSelection ? "true" : "false", "data-row": String(r), "data-column": String(c) } }, shown.text);
+    const td = el(
+      "td",
+      {
+        class: classes.join(" "),
+        id: cellId(r, c),
+        attrs: { role: "gridcell", "aria-selected": inSelection ? "true" : "false", "data-row": String(r), "data-column": String(c) },
+      },
+      shown.text,
+    );
     if (shown.error) td.setAttribute("title", shown.error);
     if (format.color) td.style.color = format.color;
     return td;
@@ -246,11 +274,16 @@ export function mountGrid(container: HTMLElement, workbook: Workbook): void {
     const widths = Array.from({ length: columns }, (_, c) => workbook.columnWidth(sheet, c) ?? DEFAULT_WIDTH);
     replaceChildren(
       head,
-      el("tr", { attrs: { "aria-rowindex": "1" } }, el("th", { class: "demo-corner", attrs: { scope: "col" } }), ...widths.map((width, c) => {
-        const th = el("th", { attrs: { scope: "col" } }, columnLetters(c));
-        th.style.width = `${width}px`;
-        return th;
-      })),
+      el(
+        "tr",
+        { attrs: { "aria-rowindex": "1" } },
+        el("th", { class: "demo-corner", attrs: { scope: "col" } }),
+        ...widths.map((width, c) => {
+          const th = el("th", { attrs: { scope: "col" } }, columnLetters(c));
+          th.style.width = `${width}px`;
+          return th;
+        }),
+      ),
     );
     // A fixed layout needs a definite width: then the columns keep their widths, as a sheet's do.
     grid.style.width = `${ROW_HEADER_WIDTH + widths.reduce((sum, w) => sum + w, 0)}px`;

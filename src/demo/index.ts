@@ -65,7 +65,11 @@ async function start(): Promise<void> {
   mountPane(paneHost, { host: createHost(fakeRun(workbook)), calculate: callFunction });
 
   let added = 0;
-  const themeButton = el("button", { class: "es-button demo-button", attrs: { type: "button", "aria-pressed": String(theme === "dark") } }, "Dark theme");
+  const themeButton = el(
+    "button",
+    { class: "es-button demo-button", attrs: { type: "button", "aria-pressed": String(theme === "dark") } },
+    "Dark theme",
+  );
   themeButton.addEventListener("click", () => {
     theme = theme === "dark" ? "light" : "dark";
     applyTheme(document.documentElement, theme);
@@ -80,7 +84,10 @@ async function start(): Promise<void> {
   // Some Excel builds hand custom functions blank cells as 0; this shows what the block then says.
   const zerosButton = el(
     "button",
-    { class: "es-button demo-button", attrs: { type: "button", "aria-pressed": "false", title: "Hand the functions blank cells as 0, as some Excel builds do" } },
+    {
+      class: "es-button demo-button",
+      attrs: { type: "button", "aria-pressed": "false", title: "Hand the functions blank cells as 0, as some Excel builds do" },
+    },
     "Blank cells as 0",
   );
   zerosButton.addEventListener("click", () => {

@@ -51,9 +51,24 @@ const LATER_PANELS = [52.6, 49.9, 51.4, 53.0, 50.8, 48.5, 52.0, 54.4, 50.1, 51.7
 const LINE_A = [50.8, 51.6, 49.7, 52.1, 50.2, 51.0, 49.4, 50.9, 51.8, 50.5, 49.9, 52.4, 50.6, 51.3, 50.1];
 const LINE_B = [52.3, 51.9, 53.4, 52.8, 50.9, 53.1, 52.0, 54.2, 51.7, 52.6, 53.8, 52.2];
 const HEADS: readonly (readonly [string, number])[] = [
-  ["H1", 50.4], ["H2", 52.7], ["H3", 49.8], ["H1", 51.1], ["H2", 53.0], ["H3", 50.2],
-  ["H1", 49.6], ["H2", 52.1], ["H3", 51.0], ["H1", 50.9], ["H2", 53.6], ["H3", 49.5],
-  ["H1", 51.4], ["H2", 52.4], ["H3", 50.7], ["H1", 50.0], ["H2", 51.8], ["H3", 50.3],
+  ["H1", 50.4],
+  ["H2", 52.7],
+  ["H3", 49.8],
+  ["H1", 51.1],
+  ["H2", 53.0],
+  ["H3", 50.2],
+  ["H1", 49.6],
+  ["H2", 52.1],
+  ["H3", 51.0],
+  ["H1", 50.9],
+  ["H2", 53.6],
+  ["H3", 49.5],
+  ["H1", 51.4],
+  ["H2", 52.4],
+  ["H3", 50.7],
+  ["H1", 50.0],
+  ["H2", 51.8],
+  ["H3", 50.3],
 ];
 
 /**
@@ -64,7 +79,12 @@ const HEADS: readonly (readonly [string, number])[] = [
  */
 export function readmeTables(): ReadmeTable[] {
   return [
-    { name: "Panels", top: TABLE_TOP, left: 0, rows: [["Thickness"], ...panels.map(([, before]) => [before]), ...LATER_PANELS.map((x) => [x])] },
+    {
+      name: "Panels",
+      top: TABLE_TOP,
+      left: 0,
+      rows: [["Thickness"], ...panels.map(([, before]) => [before]), ...LATER_PANELS.map((x) => [x])],
+    },
     { name: "Nozzle", top: TABLE_TOP, left: 2, rows: [["Before", "After"], ...panels.map(([, before, after]) => [before, after])] },
     {
       name: "Lines",
@@ -93,7 +113,14 @@ export function readmeBlocks(): SheetBlock[] {
     {
       top: 0,
       left: 4,
-      rows: [["Paint line", "p-value"], ["Line 1", 0.012], ["Line 2", 0.31], ["Line 3", 0.004], ["Line 4", 0.047], ["Line 5", 0.62]],
+      rows: [
+        ["Paint line", "p-value"],
+        ["Line 1", 0.012],
+        ["Line 2", 0.31],
+        ["Line 3", 0.004],
+        ["Line 4", 0.047],
+        ["Line 5", 0.62],
+      ],
     },
   ];
 }

@@ -125,7 +125,10 @@ export function shapesFrom(metadata: unknown): Map<string, FunctionShape> {
   const shape = (dimensionality: string | undefined): ArgumentShape => (dimensionality === "matrix" ? "matrix" : "scalar");
   for (const f of list) {
     if (typeof f.id !== "string") continue;
-    shapes.set(f.id.toUpperCase(), { args: (f.parameters ?? []).map((p) => shape(p.dimensionality)), result: shape(f.result?.dimensionality) });
+    shapes.set(f.id.toUpperCase(), {
+      args: (f.parameters ?? []).map((p) => shape(p.dimensionality)),
+      result: shape(f.result?.dimensionality),
+    });
   }
   return shapes;
 }
@@ -139,7 +142,10 @@ export function shapesFrom(metadata: unknown): Map<string, FunctionShape> {
  * @example
  * withShapes(registered, shapesFrom(metadata)).get("PVALUE"); // { fn, shapes: ["matrix", "scalar", ...], result: "scalar" }
  */
-export function withShapes(registered: ReadonlyMap<string, AnyFunction>, shapes: ReadonlyMap<string, FunctionShape>): Map<string, CustomFunction> {
+export function withShapes(
+  registered: ReadonlyMap<string, AnyFunction>,
+  shapes: ReadonlyMap<string, FunctionShape>,
+): Map<string, CustomFunction> {
   const joined = new Map<string, CustomFunction>();
   for (const [id, fn] of registered) {
     const shape = shapes.get(id);

@@ -132,7 +132,10 @@ function checkedEntry(input: unknown): { constant: number | string | boolean | n
   try {
     return { constant, formula, parsed: parseFormula(formula.slice(1)) };
   } catch (thrown) {
-    if (thrown instanceof FormulaSyntaxError) throw new RefusedEntry(`Excel would not take the formula ${formula.length > 60 ? `${formula.slice(0, 60)}…` : formula}: ${thrown.message}`);
+    if (thrown instanceof FormulaSyntaxError)
+      throw new RefusedEntry(
+        `Excel would not take the formula ${formula.length > 60 ? `${formula.slice(0, 60)}…` : formula}: ${thrown.message}`,
+      );
     throw thrown;
   }
 }
@@ -150,7 +153,8 @@ function checkedEntry(input: unknown): { constant: number | string | boolean | n
 export function tableHeaders(shown: readonly Scalar[]): string[] {
   const taken = new Set<string>();
   return shown.map((value, i) => {
-    const text = value === null ? "" : isError(value) ? value.code : typeof value === "boolean" ? (value ? "TRUE" : "FALSE") : String(value);
+    const text =
+      value === null ? "" : isError(value) ? value.code : typeof value === "boolean" ? (value ? "TRUE" : "FALSE") : String(value);
     const base = text === "" ? `Column${i + 1}` : text;
     let header = base;
     for (let n = 2; taken.has(header.toLowerCase()); n++) header = `${base}${n}`;
@@ -269,7 +273,8 @@ export class Workbook {
   writeEntries(sheetName: string, top: number, left: number, entries: readonly (readonly unknown[])[], typed = false): void {
     const sheet = this.sheet(sheetName);
     const width = Math.max(0, ...entries.map((row) => row.length));
-    const outside = entries.length === 0 || width === 0 ? null : areaRefusal({ top, left, bottom: top + entries.length - 1, right: left + width - 1 });
+    const outside =
+      entries.length === 0 || width === 0 ? null : areaRefusal({ top, left, bottom: top + entries.length - 1, right: left + width - 1 });
     if (outside) throw new RefusedEntry(outside);
     // Every entry is checked before any is written: a refused write changes nothing.
     const checked = entries.map((row) => row.map((entry) => (entry === null ? null : checkedEntry(entry))));
@@ -470,9 +475,15 @@ export class Workbook {
 
   addChart(chart: Omit<ChartModel, "table">): ChartModel {
     const table = this.tables.find(
-      (t) => t.sheet === chart.sheet && rectContains(t.rect, chart.source) && chart.source.top === t.rect.top && chart.source.bottom === t.rect.bottom,
+      (t) =>
+        t.sheet === chart.sheet &&
+        rectContains(t.rect, chart.source) &&
+        chart.source.top === t.rect.top &&
+        chart.source.bottom === t.rect.bottom,
     );
-    const model: ChartModel = table ? { ...chart, table: { name: table.name, left: chart.source.left, right: chart.source.right } } : { ...chart };
+    const model: ChartModel = table
+      ? { ...chart, table: { name: table.name, left: chart.source.left, right: chart.source.right } }
+      : { ...chart };
     this.charts.push(model);
     this.notify();
     return model;
@@ -513,7 +524,12 @@ export class Workbook {
   }
 
   /** The evaluator's view of the workbook for one formula cell; every range it reads is added to `read`. */
-  private context(sheetName: string, evaluateCell: (sheet: string, row: number, column: number) => Scalar, read: Region[], seen: PassReads): EvaluationContext {
+  private context(
+    sheetName: string,
+    evaluateCell: (sheet: string, row: number, column: number) => Scalar,
+    read: Region[],
+    seen: PassReads,
+  ): EvaluationContext {
     return {
       sheet: sheetName,
       blanksAsZeros: this.blanksAsZeros,
@@ -528,9 +544,10 @@ export class Workbook {
         if (before) return before;
         const circular = seen.circular;
         const used = this.usedRect(reference.sheet);
-        const bottom = reference.rect.bottom === LAST_ROW || rectSize(reference.rect).rows > 10_000
-          ? Math.max(reference.rect.top, Math.min(reference.rect.bottom, used?.bottom ?? reference.rect.top))
-          : reference.rect.bottom;
+        const bottom =
+          reference.rect.bottom === LAST_ROW || rectSize(reference.rect).rows > 10_000
+            ? Math.max(reference.rect.top, Math.min(reference.rect.bottom, used?.bottom ?? reference.rect.top))
+            : reference.rect.bottom;
         const rows: Scalar[][] = [];
         for (let r = reference.rect.top; r <= bottom; r++) {
           const row: Scalar[] = [];
@@ -587,7 +604,7 @@ export class Workbook {
         if (changed.some((g) => g.sheet === sheet && rectContains(g.rect, single(row, column)))) regions.push({ sheet, rect });
       }
     }
-    for (let grown = true; grown; ) {
+    for (let grown = true; grown;) {
       grown = false;
       for (const { sheet, k } of formulas) {
         const id = `${sheet}!${k}`;
@@ -632,7 +649,10 @@ export class Workbook {
       let value = evaluate(cell.parsed as Expression, context);
       if (isReference(value)) {
         const cells = context.read(value);
-        value = cells.length === 1 && cells[0].length === 1 ? (cells[0][0] ?? 0) : { kind: "matrix", rows: cells.map((r) => r.map((x) => x ?? 0)) };
+        value =
+          cells.length === 1 && cells[0].length === 1
+            ? (cells[0][0] ?? 0)
+            : { kind: "matrix", rows: cells.map((r) => r.map((x) => x ?? 0)) };
       }
       inProgress.delete(id);
       this.reads.set(id, read);
@@ -737,7 +757,8 @@ export class Workbook {
     for (let pass = 0; pass < MAX_PASSES; pass++) {
       this.calculatePass();
       const areas = this.spillAreas();
-      const same = JSON.stringify([...areas].map(([s, m]) => [s, [...m]])) === JSON.stringify([...this.spills].map(([s, m]) => [s, [...m]]));
+      const same =
+        JSON.stringify([...areas].map(([s, m]) => [s, [...m]])) === JSON.stringify([...this.spills].map(([s, m]) => [s, [...m]]));
       this.spills = areas;
       this.usedCache.clear();
       if (same) break;

@@ -109,7 +109,8 @@ export function sampleSizeArgument(name: string, raw: unknown): number {
  */
 export function cellsArgument(name: string, raw: unknown): Cells {
   if (!Array.isArray(raw)) return [[raw]];
-  if (raw.length === 0 || !Array.isArray(raw[0])) throw new BadArgument(`Argument ${name} must be a range of cells, such as A2:A40 or Table1[Thickness].`);
+  if (raw.length === 0 || !Array.isArray(raw[0]))
+    throw new BadArgument(`Argument ${name} must be a range of cells, such as A2:A40 or Table1[Thickness].`);
   return raw as Cells;
 }
 

@@ -32,20 +32,19 @@ import { EXACT_LIMIT, signedRankTest, type SignedRankResult } from "../stats/sig
 import { signTest } from "../stats/signTest";
 import { sprt as sequentialRatioTest } from "../stats/sprt";
 import { unavailable, type BoundMethod, type BoundSide, type Unavailable } from "../stats/types";
-import { cellsArgument, fractionArgument, LARGEST_N, numberArgument, pairedCellsArgument, probabilityArgument, sampleSizeArgument, type Cells } from "./argumentChecks";
+import {
+  cellsArgument,
+  fractionArgument,
+  LARGEST_N,
+  numberArgument,
+  pairedCellsArgument,
+  probabilityArgument,
+  sampleSizeArgument,
+  type Cells,
+} from "./argumentChecks";
 import { BadArgument, errorFor, oneRow, scalar, unavailableError, type RowCell } from "./errors";
 import type { CellError } from "./runtime";
-import {
-  ADJUST_METHOD,
-  ALTERNATIVE,
-  BOUND_METHOD,
-  SIDE,
-  SIGNED_RANK_METHOD,
-  SIGN_METHOD,
-  TIES,
-  ZEROS,
-  chooseWord,
-} from "./vocabulary";
+import { ADJUST_METHOD, ALTERNATIVE, BOUND_METHOD, SIDE, SIGNED_RANK_METHOD, SIGN_METHOD, TIES, ZEROS, chooseWord } from "./vocabulary";
 
 // ---------------------------------------------------------------------------
 // From cells to the core's inputs
@@ -106,7 +105,12 @@ function signTestOf(counts: SignCounts, alternative: unknown, ties: unknown, met
  * enumerate; a cell cannot say which method gave its number, so that case is
  * answered with #N/A and the way out instead.
  */
-function signedRankOf(differences: ArrayLike<number>, alternative: unknown, method: unknown, zeros: unknown): SignedRankResult | Unavailable {
+function signedRankOf(
+  differences: ArrayLike<number>,
+  alternative: unknown,
+  method: unknown,
+  zeros: unknown,
+): SignedRankResult | Unavailable {
   const requested = chooseWord(SIGNED_RANK_METHOD, method);
   const oversized = oversizedDifference(differences);
   if (oversized !== null) return oversized;
@@ -125,7 +129,13 @@ function signedRankOf(differences: ArrayLike<number>, alternative: unknown, meth
 }
 
 /** Bounds for the median (or another quantile) as one row: lower, upper, exact coverage; "" for an end not asked for. */
-function boundsRow(values: ArrayLike<number>, quantile: number, confidence: number, side: BoundSide, method: BoundMethod): RowCell[] | CellError {
+function boundsRow(
+  values: ArrayLike<number>,
+  quantile: number,
+  confidence: number,
+  side: BoundSide,
+  method: BoundMethod,
+): RowCell[] | CellError {
   if (method === "interpolated" && side !== "two-sided" && !(confidence > 0.5)) {
     throw new BadArgument(`A one-sided Hettmansperger–Sheather bound needs a confidence above 0.5; got ${confidence}.`);
   }
@@ -186,7 +196,13 @@ export function counts(data: unknown[][], hypothesized_median: unknown, ties?: u
  * @example =EVENSPLIT.PVALUE(Panels[Thickness], 50, "greater") asks whether the median thickness is above 50 µm.
  * @see W. J. Dixon and A. M. Mood (1946), "The statistical sign test", Journal of the American Statistical Association 41, 557-566.
  */
-export function pvalue(data: unknown[][], hypothesized_median: unknown, alternative?: unknown, ties?: unknown, method?: unknown): number | CellError {
+export function pvalue(
+  data: unknown[][],
+  hypothesized_median: unknown,
+  alternative?: unknown,
+  ties?: unknown,
+  method?: unknown,
+): number | CellError {
   return scalar(() => {
     const center = numberArgument("hypothesized_median", hypothesized_median);
     const result = signTestOf(countsOf(data, center), alternative, ties, method);
@@ -256,7 +272,13 @@ export function paired(
  * @example =EVENSPLIT.PAIREDSTATISTIC(Nozzle[Before], Nozzle[After], 0, "less") gives the sign statistic of After - Before.
  * @see W. J. Dixon and A. M. Mood (1946), "The statistical sign test", Journal of the American Statistical Association 41, 557-566.
  */
-export function pairedstatistic(first: unknown[][], second: unknown[][], shift?: unknown, alternative?: unknown, ties?: unknown): number | CellError {
+export function pairedstatistic(
+  first: unknown[][],
+  second: unknown[][],
+  shift?: unknown,
+  alternative?: unknown,
+  ties?: unknown,
+): number | CellError {
   return scalar(() => {
     const { differences } = differencesOf(first, second, shiftOf(shift));
     const result = signTestOf(countSigns(differences, 0), alternative, ties);
@@ -389,7 +411,13 @@ export function quantilebounds(data: unknown[][], quantile: unknown, confidence?
  * @example =EVENSPLIT.SIGNRANK(Panels[Thickness], 50, "greater") asks whether the centre of the thicknesses is above 50 µm.
  * @see F. Wilcoxon (1945), "Individual comparisons by ranking methods", Biometrics Bulletin 1, 80-83.
  */
-export function signrank(data: unknown[][], hypothesized_median: unknown, alternative?: unknown, method?: unknown, zeros?: unknown): number | CellError {
+export function signrank(
+  data: unknown[][],
+  hypothesized_median: unknown,
+  alternative?: unknown,
+  method?: unknown,
+  zeros?: unknown,
+): number | CellError {
   return scalar(() => {
     const center = numberArgument("hypothesized_median", hypothesized_median);
     const result = signedRankOf(differencesFrom(numbersOf(data), center), alternative, method, zeros);
@@ -554,7 +582,8 @@ export function samplesize(p_above: unknown, power?: unknown, alpha?: unknown, a
 function cellDescription(cell: unknown): string {
   if (typeof cell === "string") return `the text "${cell}"`;
   if (typeof cell === "boolean") return `the logical value ${cell ? "TRUE" : "FALSE"}`;
-  if (typeof cell === "object" && cell !== null && typeof (cell as { code?: unknown }).code === "string") return `the error ${(cell as { code: string }).code}`;
+  if (typeof cell === "object" && cell !== null && typeof (cell as { code?: unknown }).code === "string")
+    return `the error ${(cell as { code: string }).code}`;
   return "a value that is not a number";
 }
 
@@ -730,10 +759,14 @@ export function sprt(data: unknown[][], hypothesized_median: unknown, p_above: u
   try {
     const center = numberArgument("hypothesized_median", hypothesized_median);
     const pAbove = fractionArgument("p_above", p_above, undefined, "0.75");
-    if (pAbove === 0.5) throw new BadArgument("Argument p_above must differ from 0.5, the chance under the hypothesised median: give the chance to detect, such as 0.75.");
+    if (pAbove === 0.5)
+      throw new BadArgument(
+        "Argument p_above must differ from 0.5, the chance under the hypothesised median: give the chance to detect, such as 0.75.",
+      );
     const errorI = fractionArgument("alpha", alpha, 0.05, "0.05");
     const errorII = fractionArgument("beta", beta, 0.2, "0.2");
-    if (errorI + errorII >= 1) throw new BadArgument(`Arguments alpha and beta must add up to less than 1, such as 0.05 and 0.2; got ${errorI} + ${errorII}.`);
+    if (errorI + errorII >= 1)
+      throw new BadArgument(`Arguments alpha and beta must add up to less than 1, such as 0.05 and 0.2; got ${errorI} + ${errorII}.`);
     const r = withArrivingNumbers(data, (values) => sequentialRatioTest(values, center, { pAbove, alpha: errorI, beta: errorII }));
     return [[r.decision, r.rowsUsed, r.logLikelihoodRatio, r.limits.acceptAt, r.limits.rejectAt]];
   } catch (thrown) {
@@ -850,7 +883,9 @@ function groupsOf(values: unknown, labels: unknown): GroupedCells {
   const l = cellsArgument("labels", labels);
   if (v.length !== l.length || v[0].length !== l[0].length) {
     const shape = (c: Cells) => `${c.length} row${c.length === 1 ? "" : "s"} × ${c[0].length} column${c[0].length === 1 ? "" : "s"}`;
-    throw new BadArgument(`Arguments values and labels must have the same shape, the label of each value beside it: values is ${shape(v)}, labels is ${shape(l)}.`);
+    throw new BadArgument(
+      `Arguments values and labels must have the same shape, the label of each value beside it: values is ${shape(v)}, labels is ${shape(l)}.`,
+    );
   }
   return groupCells(v, l);
 }
@@ -870,7 +905,14 @@ function groupsOf(values: unknown, labels: unknown): GroupedCells {
  * @see H. B. Mann and D. R. Whitney (1947), "On a test of whether one of two random variables is stochastically larger than the other", Annals of Mathematical Statistics 18, 50-60.
  * @see A. M. Mood (1950), "Introduction to the Theory of Statistics", McGraw-Hill (the median test).
  */
-export function twogroups(first: unknown[][], second: unknown[][], shift?: unknown, alternative?: unknown, method?: unknown, at_median?: unknown): number | CellError {
+export function twogroups(
+  first: unknown[][],
+  second: unknown[][],
+  shift?: unknown,
+  alternative?: unknown,
+  method?: unknown,
+  at_median?: unknown,
+): number | CellError {
   return scalar(() => {
     const x = groupNumbers("first", first);
     const moved = shiftOf(shift);
@@ -961,7 +1003,14 @@ function groupCell(value: number | null | Missing): number | string | CellError 
  * @see W. R. Thompson (1936), "On confidence ranges for the median and other expectation distributions for populations of unknown distribution form", Annals of Mathematical Statistics 7, 122-128.
  * @see S. Holm (1979), "A simple sequentially rejective multiple test procedure", Scandinavian Journal of Statistics 6, 65-70.
  */
-export function bygroup(values: unknown[][], labels: unknown[][], hypothesized_median: unknown, alternative?: unknown, confidence?: unknown, adjust?: unknown): unknown[][] {
+export function bygroup(
+  values: unknown[][],
+  labels: unknown[][],
+  hypothesized_median: unknown,
+  alternative?: unknown,
+  confidence?: unknown,
+  adjust?: unknown,
+): unknown[][] {
   try {
     const center = numberArgument("hypothesized_median", hypothesized_median);
     const chosenAlternative = chooseWord(ALTERNATIVE, alternative);
@@ -969,7 +1018,11 @@ export function bygroup(values: unknown[][], labels: unknown[][], hypothesized_m
     const method = chooseWord(ADJUST_METHOD, adjust);
     const grouped = groupsOf(values, labels);
     if (grouped.groups.length === 0) return [BY_GROUP_HEADER.map(() => cellError("#N/A", "No row has both a group label and a value."))];
-    const summary = summariseGroups(grouped.groups.map((g) => g.values), center, { alternative: chosenAlternative, confidence: level, adjust: method });
+    const summary = summariseGroups(
+      grouped.groups.map((g) => g.values),
+      center,
+      { alternative: chosenAlternative, confidence: level, adjust: method },
+    );
     const rows: unknown[][] = summary.rows.map((row, g) => [
       grouped.groups[g].label,
       row.n,
@@ -1010,7 +1063,9 @@ export function countpvalue(above: unknown, below: unknown, alternative?: unknow
   return scalar(() => {
     const counts: SignCounts = { below: countArgument("below", below), tied: 0, above: countArgument("above", above) };
     if (counts.below + counts.above > LARGEST_N) {
-      throw new BadArgument(`Arguments above and below may add up to at most 1,000,000,000 values; they add up to ${counts.below + counts.above}.`);
+      throw new BadArgument(
+        `Arguments above and below may add up to at most 1,000,000,000 values; they add up to ${counts.below + counts.above}.`,
+      );
     }
     const result = signTestOf(counts, alternative, null, method);
     return result.available ? result.pValue : unavailableError(result);

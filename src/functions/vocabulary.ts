@@ -9,7 +9,16 @@
  *
  * Cost: O(number of accepted words) per argument.
  */
-import type { AdjustMethod, Alternative, BoundMethod, BoundSide, SignTestMethod, SignedRankMethod, TieRule, ZeroRule } from "../stats/types";
+import type {
+  AdjustMethod,
+  Alternative,
+  BoundMethod,
+  BoundSide,
+  SignTestMethod,
+  SignedRankMethod,
+  TieRule,
+  ZeroRule,
+} from "../stats/types";
 import { BadArgument } from "./errors";
 
 /** One canonical value and the words that select it (the canonical word first). */

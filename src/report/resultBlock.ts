@@ -277,7 +277,12 @@ export const BLANK_CHECK_WORDS = {
  */
 function blankCheckRow(ranges: readonly ("data" | "second")[]): BlockRow {
   const read = ranges.flatMap((range) => [2, 4].map((column) => call("COUNTS", [{ ref: range }, num(0)], column)));
-  return row("blanks", "Blank cells (the sheet's COUNT against the numbers read)", { kind: "blankCheck", ranges, read, ...BLANK_CHECK_WORDS }, "text");
+  return row(
+    "blanks",
+    "Blank cells (the sheet's COUNT against the numbers read)",
+    { kind: "blankCheck", ranges, read, ...BLANK_CHECK_WORDS },
+    "text",
+  );
 }
 
 function row(key: string, label: string, value: BlockValue, format: BlockFormat, style: BlockRow["style"] = "plain"): BlockRow {
@@ -305,7 +310,9 @@ function signRows(request: BlockRequest): { statistic: BlockRow; pValue: CallVal
   return {
     statistic: row("statistic", `Sign statistic (${statisticWords})`, statistic, "integer"),
     pValue,
-    method: text(`Sign test, ${SIGN_METHOD_WORDS[method]}${request.alternative === "two-sided" ? " (twice the smaller tail, at most 1)" : ""}; ${TIE_WORDS[ties]}`),
+    method: text(
+      `Sign test, ${SIGN_METHOD_WORDS[method]}${request.alternative === "two-sided" ? " (twice the smaller tail, at most 1)" : ""}; ${TIE_WORDS[ties]}`,
+    ),
     bounds: boundRows(request, what, side, bound),
   };
 }
@@ -346,7 +353,9 @@ function signedRankRows(request: BlockRequest): { statistic: BlockRow; pValue: C
   const side = boundSideFor(request.alternative);
   const hlArgs = [num(request.confidence), word(side)];
   const hl = (column: number): CallValue =>
-    request.paired ? call("PAIREDHODGESLEHMANN", [data(), second(), ...hlArgs], column) : call("HODGESLEHMANN", [data(), ...hlArgs], column);
+    request.paired
+      ? call("PAIREDHODGESLEHMANN", [data(), second(), ...hlArgs], column)
+      : call("HODGESLEHMANN", [data(), ...hlArgs], column);
   return {
     statistic: row("statistic", "Signed-rank statistic V (sum of ranks of positive differences)", statistic, "number"),
     pValue,
@@ -364,9 +373,16 @@ function quantileRows(request: BlockRequest): { statistic: BlockRow; pValue: Cal
   const side = boundSideFor(request.alternative);
   const bound = (column: number): CallValue => call("QUANTILEBOUNDS", [data(), num(q), num(request.confidence), word(side)], column);
   return {
-    statistic: row("statistic", `Quantile statistic (count below ${numberWords(request.center)})`, call("COUNTS", [data(), c], 1), "integer"),
+    statistic: row(
+      "statistic",
+      `Quantile statistic (count below ${numberWords(request.center)})`,
+      call("COUNTS", [data(), c], 1),
+      "integer",
+    ),
     pValue: call("QUANTILEPVALUE", [data(), c, num(q), word(request.alternative)]),
-    method: text(`Quantile test, exact binomial with p = ${numberWords(q)}${request.alternative === "two-sided" ? " (twice the smaller tail, at most 1)" : ""}; ties left out`),
+    method: text(
+      `Quantile test, exact binomial with p = ${numberWords(q)}${request.alternative === "two-sided" ? " (twice the smaller tail, at most 1)" : ""}; ties left out`,
+    ),
     bounds: boundRows(request, `${numberWords(q)} quantile`, side, bound),
   };
 }
@@ -401,14 +417,18 @@ function cautionRows(request: BlockRequest): BlockRow[] {
     row(
       "reading",
       "Reading the result",
-      text(`A p-value above alpha does not show that ${subject(request)} equals ${numberWords(request.center)}; it only means these data do not rule it out.`),
+      text(
+        `A p-value above alpha does not show that ${subject(request)} equals ${numberWords(request.center)}; it only means these data do not rule it out.`,
+      ),
       "text",
       "caution",
     ),
     row(
       "review",
       "Before acting on it",
-      text("For clinical, safety or regulatory decisions, have the analysis reviewed by a qualified person and follow the rules that apply to you."),
+      text(
+        "For clinical, safety or regulatory decisions, have the analysis reviewed by a qualified person and follow the rules that apply to you.",
+      ),
       "text",
       "caution",
     ),
@@ -426,10 +446,10 @@ export function resultBlockRows(request: BlockRequest): BlockRow[] {
   checkRequest(request);
   const centerWords = numberWords(request.center);
   const about = subject(request);
-  const parts = request.test === "sign" ? signRows(request) : request.test === "signed-rank" ? signedRankRows(request) : quantileRows(request);
+  const parts =
+    request.test === "sign" ? signRows(request) : request.test === "signed-rank" ? signedRankRows(request) : quantileRows(request);
   const alphaWords = numberWords(request.alpha);
-  const title =
-    request.test === "sign" ? "Sign test" : request.test === "signed-rank" ? "Wilcoxon signed-rank test" : "Quantile test";
+  const title = request.test === "sign" ? "Sign test" : request.test === "signed-rank" ? "Wilcoxon signed-rank test" : "Quantile test";
   return [
     row("title", "Evensplit result", text(`${title}${request.paired ? ", paired" : ", one sample"}`), "text", "title"),
     row("question", "Question", text(`Is ${about} ${CLAIM[request.alternative]} ${centerWords}?`), "text"),
@@ -640,7 +660,9 @@ function auditValue(value: AuditValue, inputs: BlockInputs): string {
 }
 
 function evaluateCall(value: CallValue, inputs: BlockInputs, run: CatalogueCall): unknown {
-  const args = value.args.map((operand) => ("ref" in operand ? rangeOf(operand.ref, inputs) : "number" in operand ? operand.number : operand.text));
+  const args = value.args.map((operand) =>
+    "ref" in operand ? rangeOf(operand.ref, inputs) : "number" in operand ? operand.number : operand.text,
+  );
   const result = run(value.fn, args);
   if (value.column === undefined || !Array.isArray(result)) return result;
   return (result as unknown[][])[0][value.column - 1];

@@ -103,7 +103,8 @@ const SCALE_DOWN = 1e-150;
 const TAIL_IS_ONE = 37;
 
 function checkOptions(alternative: Alternative, ties: TieRule): void {
-  if (alternative !== "two-sided" && alternative !== "greater" && alternative !== "less") throw new RangeError(`unknown alternative ${String(alternative)}`);
+  if (alternative !== "two-sided" && alternative !== "greater" && alternative !== "less")
+    throw new RangeError(`unknown alternative ${String(alternative)}`);
   if (ties !== "drop" && ties !== "split" && ties !== "conservative") throw new RangeError(`unknown tie rule ${String(ties)}`);
 }
 
@@ -117,7 +118,11 @@ function checkOptions(alternative: Alternative, ties: TieRule): void {
  * anytimeSignTest([51, 52, 53, 54, 55, 56, 57, 58], 50, { alternative: "greater" }).pValue;
  * // 1 / (2 · 2^8 · 8! / 9! · P(Bin(9, 1/2) <= 8)) = 9 / 511 ≈ 0.0176
  */
-export function anytimeSignTest(values: ArrayLike<number>, center: number, options: AnytimeSignOptions = {}): AnytimeSignResult | Unavailable {
+export function anytimeSignTest(
+  values: ArrayLike<number>,
+  center: number,
+  options: AnytimeSignOptions = {},
+): AnytimeSignResult | Unavailable {
   const alternative = options.alternative ?? "two-sided";
   const ties = options.ties ?? "drop";
   checkOptions(alternative, ties);
@@ -202,7 +207,9 @@ export function anytimeSignTest(values: ArrayLike<number>, center: number, optio
   if (used === 0) {
     return unavailable(
       "no-data",
-      n > 0 ? "Every value equals the hypothesised median, so the sign test has nothing above or below it to count." : "No values were given, so the sign test has nothing to count.",
+      n > 0
+        ? "Every value equals the hypothesised median, so the sign test has nothing above or below it to count."
+        : "No values were given, so the sign test has nothing to count.",
     );
   }
   const logLargestEvidence = bestRow === 0 ? 0 : logSignEvidence(bestAbove, bestBelow, alternative);

@@ -61,7 +61,11 @@ function sideFor(alternative: Alternative): BoundSide {
  * The median and the order statistics of the given one-based ranks (null for none), in one multi-rank
  * selection on the values, which it reorders (they belong to the caller's scratch copy).
  */
-function medianAndRanks(values: Float64Array, lowerRank: number | null, upperRank: number | null): { median: number; lower: number | null; upper: number | null } {
+function medianAndRanks(
+  values: Float64Array,
+  lowerRank: number | null,
+  upperRank: number | null,
+): { median: number; lower: number | null; upper: number | null } {
   const n = values.length;
   const middle = n % 2 === 1 ? [(n - 1) / 2] : [n / 2 - 1, n / 2];
   const ends = [lowerRank, upperRank].filter((r): r is number => r !== null).map((r) => r - 1);

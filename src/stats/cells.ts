@@ -255,7 +255,11 @@ export function boundedNumbersFromCells(cells: readonly (readonly unknown[])[], 
  * @example
  * cellsFromValues([[1, 2], [3, 4]], [0.5, NaN, 1, 0.25], ""); // [[0.5, ""], [1, 0.25]]
  */
-export function cellsFromValues(cells: readonly (readonly unknown[])[], values: ArrayLike<number>, blank: number | string): (number | string)[][] {
+export function cellsFromValues(
+  cells: readonly (readonly unknown[])[],
+  values: ArrayLike<number>,
+  blank: number | string,
+): (number | string)[][] {
   const rows = cells.length;
   const width = rows === 0 ? 0 : cells[0].length;
   const out: (number | string)[][] = new Array(rows);
@@ -341,7 +345,10 @@ export function pairsFromCells(first: readonly (readonly unknown[])[], second: r
 // Feedback is only recorded once a function has been called a few times, hence the repetitions.
 for (let i = 0; i < 20; i++) {
   numbersFromCells(Array.from({ length: 40 }, () => [0, null, undefined, "", "a", true, {}, NaN]));
-  signCountsFromCells(Array.from({ length: 40 }, () => [0, -1, 1, 1e-20, null, undefined, "", "a", true, {}, NaN]), 0);
+  signCountsFromCells(
+    Array.from({ length: 40 }, () => [0, -1, 1, 1e-20, null, undefined, "", "a", true, {}, NaN]),
+    0,
+  );
   pairsFromCells(
     Array.from({ length: 40 }, () => [0, null, "a", true, {}]),
     Array.from({ length: 40 }, () => [0, 1, 2, 3, 4]),

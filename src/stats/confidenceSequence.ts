@@ -270,7 +270,15 @@ const ANCHOR_EVERY = 4096;
  * interval: the intersection is empty. At the last row the counts are `last`, computed in log space, which
  * placed the window, so a rounding difference in the followed factors cannot leave a pointer outside it.
  */
-function runningEnds(values: ArrayLike<number>, lo: number, hi: number, d: Float64Array, q: number, alpha: number, last: StandingCounts): RunningEnds | null {
+function runningEnds(
+  values: ArrayLike<number>,
+  lo: number,
+  hi: number,
+  d: Float64Array,
+  q: number,
+  alpha: number,
+  last: StandingCounts,
+): RunningEnds | null {
   const groups = d.length;
   const arrived = new Int32Array(groups);
   const limit = 1 / alpha;
@@ -353,7 +361,10 @@ function runningEnds(values: ArrayLike<number>, lo: number, hi: number, d: Float
  * const r = confidenceSequence([49, 53, 50, 52, 48, 51, 47, 54, 46, 55]);
  * // r.lower 47, r.upper 54 (rows 8 to 10 bound it; see the tests)
  */
-export function confidenceSequence(values: ArrayLike<number>, options: ConfidenceSequenceOptions = {}): ConfidenceSequenceResult | Unavailable {
+export function confidenceSequence(
+  values: ArrayLike<number>,
+  options: ConfidenceSequenceOptions = {},
+): ConfidenceSequenceResult | Unavailable {
   const q = options.quantile ?? 0.5;
   const confidence = options.confidence ?? 0.95;
   checkFraction("quantile", q);

@@ -108,7 +108,14 @@ function sampleCandidates(a: Distinct, b: Distinct, c: Candidates, size: number,
  * starts from the first and, without ties, stays there after one comparison. `padded` is the distinct
  * second values with +Infinity appended, which stops every row at the last column without a bounds test.
  */
-function countAround(a: Distinct, padded: Float64Array, before: Float64Array, value: number, lessEnds: Int32Array, atMostEnds: Int32Array): { less: number; atMost: number } {
+function countAround(
+  a: Distinct,
+  padded: Float64Array,
+  before: Float64Array,
+  value: number,
+  lessEnds: Int32Array,
+  atMostEnds: Int32Array,
+): { less: number; atMost: number } {
   const first = a.values;
   const p = first.length;
   let j = 0;
@@ -309,6 +316,7 @@ export function nextDifference(matrix: DifferenceMatrix, value: number, k: numbe
   const ends = new Int32Array(a.values.length);
   if (countAround(a, matrix.padded, b.before, value, lessEnds, ends).atMost >= k + 1) return value;
   let next = Infinity;
-  for (let i = 0; i < a.values.length; i++) if (ends[i] < b.values.length && b.values[ends[i]] - a.values[i] < next) next = b.values[ends[i]] - a.values[i];
+  for (let i = 0; i < a.values.length; i++)
+    if (ends[i] < b.values.length && b.values[ends[i]] - a.values[i] < next) next = b.values[ends[i]] - a.values[i];
   return next;
 }

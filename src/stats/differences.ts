@@ -44,7 +44,7 @@ const EXACT_POW10 = 22;
 const BITS = new Float64Array(1);
 const WORDS = new Uint32Array(BITS.buffer);
 const HIGH_WORD = new Uint8Array(new Uint32Array([1]).buffer)[0] === 1 ? 1 : 0;
-const LOG10_2 = 0.30102999566398120;
+const LOG10_2 = 0.3010299956639812;
 
 /**
  * floor(log10 s) for finite s > 0. The binary exponent b gives floor(b log10 2), which is the answer or
@@ -108,7 +108,9 @@ function roundToScale(hi: number, lo: number, scale: number): number {
   const p = POW10[k + POW10_OFFSET];
   const scaled = hi * p;
   const m =
-    scaled < FAST_SCALED && scaled > -FAST_SCALED ? roundHalfAway(scaled + lo * p) : roundPair(scaled, productError(hi, p, scaled) + lo * p);
+    scaled < FAST_SCALED && scaled > -FAST_SCALED
+      ? roundHalfAway(scaled + lo * p)
+      : roundPair(scaled, productError(hi, p, scaled) + lo * p);
   return m === 0 ? 0 : m / p; // m and p exact: the quotient is correctly rounded
 }
 

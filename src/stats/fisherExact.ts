@@ -41,8 +41,10 @@ function hypergeometric(rowTotal: number, columnTotal: number, total: number): {
  * fisherExactPValue(3, 1, 1, 3);            // 34/70 (tables with a = 0, 1, 3, 4)
  */
 export function fisherExactPValue(a: number, b: number, c: number, d: number, alternative: Alternative = "two-sided"): number {
-  for (const v of [a, b, c, d]) if (!Number.isInteger(v) || v < 0) throw new RangeError(`fisherExactPValue: counts must be non-negative whole numbers, got ${v}`);
-  if (alternative !== "two-sided" && alternative !== "greater" && alternative !== "less") throw new RangeError(`fisherExactPValue: unknown alternative ${String(alternative)}`);
+  for (const v of [a, b, c, d])
+    if (!Number.isInteger(v) || v < 0) throw new RangeError(`fisherExactPValue: counts must be non-negative whole numbers, got ${v}`);
+  if (alternative !== "two-sided" && alternative !== "greater" && alternative !== "less")
+    throw new RangeError(`fisherExactPValue: unknown alternative ${String(alternative)}`);
   const { lo, probabilities } = hypergeometric(a + b, a + c, a + b + c + d);
   const at = a - lo;
   let p = 0;

@@ -66,7 +66,6 @@ const SAMPLE = 1024;
 /** Half-width of the bracket in sample ranks: 2 sqrt(SAMPLE), four standard deviations of the target's sample rank. */
 const BRACKET = 64;
 
-
 /**
  * The averages still in play: row i (sums terms[i] + terms[j], j >= i) keeps columns left[i]..right[i].
  * Everything left of left[i] is known to lie below the wanted value, everything right of right[i] above,
@@ -244,7 +243,8 @@ function walshMedian(t: WalshTerms): number {
 export function walshAverageOrderStatistic(values: ArrayLike<number>, k: number): number {
   const n = values.length;
   const count = (n * (n + 1)) / 2;
-  if (!Number.isInteger(k) || k < 1 || k > count) throw new RangeError(`walshAverageOrderStatistic: k must be an integer from 1 to ${count}, got ${k}`);
+  if (!Number.isInteger(k) || k < 1 || k > count)
+    throw new RangeError(`walshAverageOrderStatistic: k must be an integer from 1 to ${count}, got ${k}`);
   return walshAt(walshTerms(values, "walshAverageOrderStatistic"), k);
 }
 
@@ -318,7 +318,8 @@ export function hodgesLehmann(
 ): HodgesLehmannResult | Unavailable {
   const confidence = options.confidence ?? 0.95;
   const side = options.side ?? "two-sided";
-  if (!(confidence > 0 && confidence < 1)) throw new RangeError(`hodgesLehmann: confidence must lie strictly between 0 and 1, got ${confidence}`);
+  if (!(confidence > 0 && confidence < 1))
+    throw new RangeError(`hodgesLehmann: confidence must lie strictly between 0 and 1, got ${confidence}`);
   if (side !== "two-sided" && side !== "lower" && side !== "upper") throw new RangeError(`hodgesLehmann: unknown side ${String(side)}`);
   const tails = side === "two-sided" ? 2 : 1;
   const n = values.length;

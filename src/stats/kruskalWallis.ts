@@ -39,7 +39,11 @@ export interface KruskalWallisResult {
  */
 export function kruskalWallisTest(groups: readonly ArrayLike<number>[]): KruskalWallisResult | Unavailable {
   const filled = groups.filter((g) => g.length > 0);
-  if (filled.length < 2) return unavailable("too-few-values", `The rank test needs at least two groups with numbers; there ${filled.length === 1 ? "is 1" : `are ${filled.length}`}.`);
+  if (filled.length < 2)
+    return unavailable(
+      "too-few-values",
+      `The rank test needs at least two groups with numbers; there ${filled.length === 1 ? "is 1" : `are ${filled.length}`}.`,
+    );
   let n = 0;
   for (const g of filled) n += g.length;
   const sorted = new Float64Array(n);
@@ -53,7 +57,7 @@ export function kruskalWallisTest(groups: readonly ArrayLike<number>[]): Kruskal
   const ranks = midranks(sorted); // in the pooled order: the groups one after another
   sortFloat64(sorted);
   let tieSum = 0;
-  for (let i = 0; i < n; ) {
+  for (let i = 0; i < n;) {
     let j = i + 1;
     while (j < n && sorted[j] === sorted[i]) j++;
     const t = j - i;
@@ -74,5 +78,13 @@ export function kruskalWallisTest(groups: readonly ArrayLike<number>[]): Kruskal
   const h = ((12 / (n * (n + 1))) * weighted - 3 * (n + 1)) / tieCorrection;
   const statistic = Math.max(0, h);
   const degreesOfFreedom = filled.length - 1;
-  return { available: true, statistic, degreesOfFreedom, pValue: chiSquareUpperTail(statistic, degreesOfFreedom), meanRanks, tieCorrection, n };
+  return {
+    available: true,
+    statistic,
+    degreesOfFreedom,
+    pValue: chiSquareUpperTail(statistic, degreesOfFreedom),
+    meanRanks,
+    tieCorrection,
+    n,
+  };
 }

@@ -135,11 +135,18 @@ export function moodMedianTest(
   const ties = options.ties ?? "join-lower";
   const alternative = options.alternative ?? "two-sided";
   const requested = options.method ?? "auto";
-  if (ties !== "join-lower" && ties !== "join-upper" && ties !== "leave-out") throw new RangeError(`moodMedianTest: unknown tie rule ${String(ties)}`);
-  if (alternative !== "two-sided" && alternative !== "greater" && alternative !== "less") throw new RangeError(`moodMedianTest: unknown alternative ${String(alternative)}`);
-  if (requested !== "auto" && requested !== "chi-square" && requested !== "monte-carlo") throw new RangeError(`moodMedianTest: unknown method ${String(requested)}`);
+  if (ties !== "join-lower" && ties !== "join-upper" && ties !== "leave-out")
+    throw new RangeError(`moodMedianTest: unknown tie rule ${String(ties)}`);
+  if (alternative !== "two-sided" && alternative !== "greater" && alternative !== "less")
+    throw new RangeError(`moodMedianTest: unknown alternative ${String(alternative)}`);
+  if (requested !== "auto" && requested !== "chi-square" && requested !== "monte-carlo")
+    throw new RangeError(`moodMedianTest: unknown method ${String(requested)}`);
   const filled = groups.filter((g) => g.length > 0);
-  if (filled.length < 2) return unavailable("too-few-values", `The median test needs at least two groups with numbers; there ${filled.length === 1 ? "is 1" : `are ${filled.length}`}.`);
+  if (filled.length < 2)
+    return unavailable(
+      "too-few-values",
+      `The median test needs at least two groups with numbers; there ${filled.length === 1 ? "is 1" : `are ${filled.length}`}.`,
+    );
   let total = 0;
   for (const g of filled) total += g.length;
   const pooledMedian = pooledMedianOf(filled, total);
@@ -154,14 +161,27 @@ export function moodMedianTest(
   }
   const sizes = above.map((a, j) => a + notAbove[j]);
   if (sizes.some((s) => s === 0)) {
-    return unavailable("too-few-values", "Leaving out the values equal to the pooled median leaves a group empty; count them with the lower or upper values instead.");
+    return unavailable(
+      "too-few-values",
+      "Leaving out the values equal to the pooled median leaves a group empty; count them with the lower or upper values instead.",
+    );
   }
   const counted = sizes.reduce((s, x) => s + x, 0);
   const topTotal = above.reduce((s, x) => s + x, 0);
   const statistic = pearson(above, sizes, topTotal, counted);
   let smallestExpected = Infinity;
   for (const s of sizes) smallestExpected = Math.min(smallestExpected, (s * topTotal) / counted, (s * (counted - topTotal)) / counted);
-  const common = { available: true as const, pooledMedian, above, notAbove, equal, ties, statistic, degreesOfFreedom: sizes.length - 1, smallestExpected };
+  const common = {
+    available: true as const,
+    pooledMedian,
+    above,
+    notAbove,
+    equal,
+    ties,
+    statistic,
+    degreesOfFreedom: sizes.length - 1,
+    smallestExpected,
+  };
   if (sizes.length === 2) {
     // Rows: second group, first group; columns: above, not above. "greater": the second group sits higher.
     const pValue = fisherExactPValue(above[1], notAbove[1], above[0], notAbove[0], alternative);
@@ -169,6 +189,7 @@ export function moodMedianTest(
   }
   const simulate = smallestExpected < SMALL_EXPECTED && counted <= MONTE_CARLO_MAX_VALUES;
   const method = requested === "auto" ? (simulate ? "monte-carlo" : "chi-square") : requested;
-  const pValue = method === "chi-square" ? chiSquareUpperTail(statistic, sizes.length - 1) : monteCarloPValue(sizes, topTotal, counted, statistic);
+  const pValue =
+    method === "chi-square" ? chiSquareUpperTail(statistic, sizes.length - 1) : monteCarloPValue(sizes, topTotal, counted, statistic);
   return { ...common, pValue, method, alternative: "two-sided" };
 }

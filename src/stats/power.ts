@@ -266,8 +266,7 @@ export function signTestSampleSize(pAbove: number, options: SignTestSampleSizeOp
   checkFraction(alpha, "alpha", "signTestSampleSize");
   checkFraction(targetPower, "power", "signTestSampleSize");
   checkAlternative(alternative, "signTestSampleSize");
-  const hopeless =
-    pAbove === 0.5 || (alternative === "greater" && pAbove < 0.5) || (alternative === "less" && pAbove > 0.5);
+  const hopeless = pAbove === 0.5 || (alternative === "greater" && pAbove < 0.5) || (alternative === "less" && pAbove > 0.5);
   if (hopeless) {
     const side = alternative === "greater" ? "above 0.5" : alternative === "less" ? "below 0.5" : "different from 0.5";
     return unavailable(

@@ -259,7 +259,11 @@ function tooFew(n: number, quantile: number, confidence: number, side: BoundSide
     );
   }
   if (n === 0) return unavailable("no-data", `No numbers were given; ${what} need at least ${minimumN} values.`, minimumN);
-  return unavailable("too-few-values", `${n} value${n === 1 ? " is" : "s are"} too few for ${what}: at least ${minimumN} are needed.`, minimumN);
+  return unavailable(
+    "too-few-values",
+    `${n} value${n === 1 ? " is" : "s are"} too few for ${what}: at least ${minimumN} are needed.`,
+    minimumN,
+  );
 }
 
 export interface QuantileBoundsOptions {

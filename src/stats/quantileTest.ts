@@ -121,7 +121,8 @@ export function quantileTest(
   if (alternative !== "two-sided" && alternative !== "greater" && alternative !== "less") {
     throw new RangeError(`unknown alternative ${String(alternative)}`);
   }
-  if (twoSidedRule !== "doubling" && twoSidedRule !== "minimum-likelihood") throw new RangeError(`unknown two-sided rule ${String(twoSidedRule)}`);
+  if (twoSidedRule !== "doubling" && twoSidedRule !== "minimum-likelihood")
+    throw new RangeError(`unknown two-sided rule ${String(twoSidedRule)}`);
   const { below, tied, above } = countSigns(values, value);
   const used = below + above;
   if (used === 0) {

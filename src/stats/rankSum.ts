@@ -213,7 +213,8 @@ const METHODS: readonly SignedRankMethod[] = ["auto", "exact", "normal"];
 /** Sorted copy of finite values; throws a RangeError naming the group on anything else. */
 function sortedCopy(values: ArrayLike<number>, group: string): Float64Array {
   const copy = Float64Array.from(values);
-  for (let i = 0; i < copy.length; i++) if (copy[i] - copy[i] !== 0) throw new RangeError(`rankSumTest: value ${i} of the ${group} group is not finite (${copy[i]})`);
+  for (let i = 0; i < copy.length; i++)
+    if (copy[i] - copy[i] !== 0) throw new RangeError(`rankSumTest: value ${i} of the ${group} group is not finite (${copy[i]})`);
   return sortFloat64(copy);
 }
 
@@ -246,7 +247,10 @@ export function rankSumTest(
   const moved = shift === 0 ? second : differencesFrom(second, shift);
   for (let j = 0; j < n; j++) {
     if (!Number.isFinite(moved[j])) {
-      return unavailable("unreachable", "A value of the second group less the shift is too large to hold as a number; use a smaller shift or rescale the data.");
+      return unavailable(
+        "unreachable",
+        "A value of the second group less the shift is too large to hold as a number; use a smaller shift or rescale the data.",
+      );
     }
   }
   const y = sortedCopy(moved, "second");
@@ -258,9 +262,29 @@ export function rankSumTest(
   const variance = ((m * n) / 12) * (total + 1 - ranks.tieSum / (total * (total - 1) || 1));
   const tiesPresent = ranks.tieSum > 0;
   const limit = tiesPresent
-    ? requestedMethod === "exact" ? EXACT_TIED_SIZE : requestedMethod === "auto" ? EXACT_AUTO_TIED_SIZE : 0
-    : requestedMethod === "exact" ? EXACT_SIZE : requestedMethod === "auto" ? EXACT_AUTO_SIZE : 0;
-  const common = { available: true as const, statistic: u, rankSum, alternative, requestedMethod, shift, firstN: m, secondN: n, tiesPresent, expected, variance };
+    ? requestedMethod === "exact"
+      ? EXACT_TIED_SIZE
+      : requestedMethod === "auto"
+        ? EXACT_AUTO_TIED_SIZE
+        : 0
+    : requestedMethod === "exact"
+      ? EXACT_SIZE
+      : requestedMethod === "auto"
+        ? EXACT_AUTO_SIZE
+        : 0;
+  const common = {
+    available: true as const,
+    statistic: u,
+    rankSum,
+    alternative,
+    requestedMethod,
+    shift,
+    firstN: m,
+    secondN: n,
+    tiesPresent,
+    expected,
+    variance,
+  };
   if (total <= limit) {
     const pValue = tiesPresent ? tiedPValue(ranks, m, n, alternative) : untiedPValue(m, n, u, alternative);
     return { ...common, pValue, method: "exact" };

@@ -33,7 +33,8 @@
  * mannWhitneyNullCdf(2, 2, 2); // Float64Array [1/6, 2/6, 4/6]
  */
 export function mannWhitneyNullCdf(m: number, n: number, cap: number): Float64Array {
-  if (!Number.isInteger(m) || !Number.isInteger(n) || m < 1 || n < 1) throw new RangeError(`mannWhitneyNullCdf: sizes must be whole numbers from 1, got ${m} and ${n}`);
+  if (!Number.isInteger(m) || !Number.isInteger(n) || m < 1 || n < 1)
+    throw new RangeError(`mannWhitneyNullCdf: sizes must be whole numbers from 1, got ${m} and ${n}`);
   if (!Number.isInteger(cap) || cap < 0) throw new RangeError(`mannWhitneyNullCdf: cap must be a non-negative integer, got ${cap}`);
   const top = Math.min(cap, m * n);
   const counts = new Float64Array(top + 1);
@@ -77,10 +78,12 @@ function choose(items: number, size: number): number {
  */
 export function subsetSumNullCdf(scores: ArrayLike<number>, size: number, cap: number): Float64Array {
   const items = scores.length;
-  if (!Number.isInteger(size) || size < 0 || size > items) throw new RangeError(`subsetSumNullCdf: size must be a whole number from 0 to ${items}, got ${size}`);
+  if (!Number.isInteger(size) || size < 0 || size > items)
+    throw new RangeError(`subsetSumNullCdf: size must be a whole number from 0 to ${items}, got ${size}`);
   if (!Number.isInteger(cap) || cap < 0) throw new RangeError(`subsetSumNullCdf: cap must be a non-negative integer, got ${cap}`);
   const sorted = Int32Array.from(scores, (s) => {
-    if (!Number.isInteger(s) || s < 0 || s > 2 ** 30) throw new RangeError(`subsetSumNullCdf: scores must be non-negative integers, got ${s}`);
+    if (!Number.isInteger(s) || s < 0 || s > 2 ** 30)
+      throw new RangeError(`subsetSumNullCdf: scores must be non-negative integers, got ${s}`);
     return s;
   }).sort(); // small scores first: the reachable sums grow slowly
   const width = cap + 1;

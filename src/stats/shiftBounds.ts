@@ -21,7 +21,13 @@
  * expected time, p and q the numbers of distinct values; O(m + n) memory; the exact rank adds O(min(m, n) m n) at worst,
  * for m + n <= EXACT_AUTO_SIZE.
  */
-import { differenceMatrix, differenceOrderStatistic, differenceOrderStatistics, nextDifference, type DifferenceMatrix } from "./differenceSelection";
+import {
+  differenceMatrix,
+  differenceOrderStatistic,
+  differenceOrderStatistics,
+  nextDifference,
+  type DifferenceMatrix,
+} from "./differenceSelection";
 import { normalLowerTail, normalQuantile } from "./normal";
 import { confidenceWords } from "./quantileBounds";
 import { EXACT_AUTO_SIZE } from "./rankSum";
@@ -50,8 +56,10 @@ export interface ShiftResult {
 
 /** Throws a RangeError naming the group of a value that is not finite. */
 function checkFinite(first: ArrayLike<number>, second: ArrayLike<number>, caller: string): void {
-  for (let i = 0; i < first.length; i++) if (first[i] - first[i] !== 0) throw new RangeError(`${caller}: value ${i} of the first group is not finite`);
-  for (let j = 0; j < second.length; j++) if (second[j] - second[j] !== 0) throw new RangeError(`${caller}: value ${j} of the second group is not finite`);
+  for (let i = 0; i < first.length; i++)
+    if (first[i] - first[i] !== 0) throw new RangeError(`${caller}: value ${i} of the first group is not finite`);
+  for (let j = 0; j < second.length; j++)
+    if (second[j] - second[j] !== 0) throw new RangeError(`${caller}: value ${j} of the second group is not finite`);
 }
 
 /** Whether every difference fits in a double (values near ±1E+308 on opposite sides do not). */
@@ -61,7 +69,8 @@ function differencesFit(matrix: DifferenceMatrix): boolean {
   return Number.isFinite(b[b.length - 1] - a[0]) && Number.isFinite(b[0] - a[a.length - 1]);
 }
 
-const TOO_LARGE = "A difference between the groups is too large to hold as a number (values near ±1E+308 on opposite sides); rescale the data (other units).";
+const TOO_LARGE =
+  "A difference between the groups is too large to hold as a number (values near ±1E+308 on opposite sides); rescale the data (other units).";
 
 /** The median of the differences given the lower middle one (rank floor((mn + 1)/2)). */
 function medianFrom(matrix: DifferenceMatrix, lowerMiddle: number): number {
@@ -86,7 +95,8 @@ function middleRank(count: number): number {
  * shiftEstimate([1, 4], [2, 3, 9]); // 1.5: the median of -2, -1, 1, 2, 5, 8
  */
 export function shiftEstimate(first: ArrayLike<number>, second: ArrayLike<number>): number | Unavailable {
-  if (first.length === 0 || second.length === 0) return unavailable("no-data", `Each group needs at least one number; the first has ${first.length}, the second ${second.length}.`);
+  if (first.length === 0 || second.length === 0)
+    return unavailable("no-data", `Each group needs at least one number; the first has ${first.length}, the second ${second.length}.`);
   checkFinite(first, second, "shiftEstimate");
   const matrix = differenceMatrix(first, second);
   if (!differencesFit(matrix)) return unavailable("unreachable", TOO_LARGE);
@@ -94,7 +104,12 @@ export function shiftEstimate(first: ArrayLike<number>, second: ArrayLike<number
 }
 
 /** Rank k of the bounds and their coverage, or null when even k = 1 does not reach the confidence. */
-function boundRankFor(m: number, n: number, confidence: number, tails: 1 | 2): { k: number; achieved: number; method: "exact" | "normal" } | null {
+function boundRankFor(
+  m: number,
+  n: number,
+  confidence: number,
+  tails: 1 | 2,
+): { k: number; achieved: number; method: "exact" | "normal" } | null {
   const allowance = (1 - confidence) / tails;
   const count = m * n;
   const mean = count / 2;
@@ -149,7 +164,8 @@ export function shiftBounds(
 ): ShiftResult | Unavailable {
   const confidence = options.confidence ?? 0.95;
   const side = options.side ?? "two-sided";
-  if (!(confidence > 0 && confidence < 1)) throw new RangeError(`shiftBounds: confidence must lie strictly between 0 and 1, got ${confidence}`);
+  if (!(confidence > 0 && confidence < 1))
+    throw new RangeError(`shiftBounds: confidence must lie strictly between 0 and 1, got ${confidence}`);
   if (side !== "two-sided" && side !== "lower" && side !== "upper") throw new RangeError(`shiftBounds: unknown side ${String(side)}`);
   const m = first.length;
   const n = second.length;
@@ -161,7 +177,10 @@ export function shiftBounds(
   const rank = boundRankFor(m, n, confidence, tails);
   if (rank === null) {
     const needed = smallestEqualSize(confidence, tails);
-    const what = side === "two-sided" ? `Bounds at ${confidenceWords(confidence)} confidence need` : `A one-sided ${side} bound at ${confidenceWords(confidence)} confidence needs`;
+    const what =
+      side === "two-sided"
+        ? `Bounds at ${confidenceWords(confidence)} confidence need`
+        : `A one-sided ${side} bound at ${confidenceWords(confidence)} confidence needs`;
     return unavailable("unreachable", `${what} larger groups (for example ${needed} values in each); there are ${m} and ${n}.`, needed);
   }
   const count = m * n;

@@ -118,7 +118,8 @@ const RESCALE_EVERY = 400;
 export function signedRankNullCdf(scores: ArrayLike<number>, cap: number): Float64Array {
   if (!Number.isInteger(cap) || cap < 0) throw new RangeError(`signedRankNullCdf: cap must be a non-negative integer, got ${cap}`);
   const sorted = Int32Array.from(scores, (s) => {
-    if (!Number.isInteger(s) || s <= 0 || s > MAX_SCORE) throw new RangeError(`signedRankNullCdf: scores must be positive integers, got ${s}`);
+    if (!Number.isInteger(s) || s <= 0 || s > MAX_SCORE)
+      throw new RangeError(`signedRankNullCdf: scores must be positive integers, got ${s}`);
     return s;
   }).sort(); // small scores first: the reachable range grows slowly
   const counts = new Float64Array(cap + 1);
@@ -211,7 +212,8 @@ function countAt(half: LowerHalf, w: number): number {
 export function signedRankLowerTail(scores: ArrayLike<number>, q: number): number {
   if (!Number.isInteger(q)) throw new RangeError(`signedRankLowerTail: q must be an integer, got ${q}`);
   const sorted = Int32Array.from(scores, (s) => {
-    if (!Number.isInteger(s) || s <= 0 || s > MAX_SCORE) throw new RangeError(`signedRankLowerTail: scores must be positive integers, got ${s}`);
+    if (!Number.isInteger(s) || s <= 0 || s > MAX_SCORE)
+      throw new RangeError(`signedRankLowerTail: scores must be positive integers, got ${s}`);
     return s;
   }).sort();
   if (q < 0) return 0;
@@ -266,7 +268,13 @@ function countSignsOf(differences: ArrayLike<number>): { positives: number; nega
   return { positives, negatives };
 }
 
-function rankDifferences(differences: ArrayLike<number>, positives: number, negatives: number, zeros: ZeroRule, keepGroups: boolean): RankedDifferences {
+function rankDifferences(
+  differences: ArrayLike<number>,
+  positives: number,
+  negatives: number,
+  zeros: ZeroRule,
+  keepGroups: boolean,
+): RankedDifferences {
   const n = differences.length;
   const above = new Float64Array(positives);
   const below = new Float64Array(negatives);
@@ -404,7 +412,10 @@ export function signedRankTest(
   const exact = positives + negatives <= limit; // decides whether the score groups are worth keeping
   const ranked = rankDifferences(differences, positives, negatives, zeros, exact);
   if (ranked.nonZero === 0) {
-    return unavailable("too-few-values", "Every difference is zero, so there is nothing to rank: at least one non-zero difference is needed.");
+    return unavailable(
+      "too-few-values",
+      "Every difference is zero, so there is nothing to rank: at least one non-zero difference is needed.",
+    );
   }
   const common = {
     available: true as const,

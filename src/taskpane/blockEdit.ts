@@ -20,7 +20,10 @@ import type { CellRect } from "./a1";
 import type { BlockMark } from "./writePlan";
 
 /** A literal or a reference among a formula's arguments. */
-export type FormulaArgument = { readonly kind: "number"; readonly value: number } | { readonly kind: "text"; readonly value: string } | { readonly kind: "reference"; readonly text: string };
+export type FormulaArgument =
+  | { readonly kind: "number"; readonly value: number }
+  | { readonly kind: "text"; readonly value: string }
+  | { readonly kind: "reference"; readonly text: string };
 
 /**
  * The arguments of the first call of `EVENSPLIT.<name>(` in a formula, any name; null when there is none.
@@ -142,7 +145,12 @@ export function readBlock(formulas: readonly (readonly unknown[])[]): BlockReadi
 export function blockAt(blocks: readonly BlockMark[], sheet: string, cell: CellRect): BlockMark | null {
   return (
     blocks.find(
-      (b) => b.sheet.toLowerCase() === sheet.toLowerCase() && cell.top >= b.rect.top && cell.top <= b.rect.bottom && cell.left >= b.rect.left && cell.left <= b.rect.right,
+      (b) =>
+        b.sheet.toLowerCase() === sheet.toLowerCase() &&
+        cell.top >= b.rect.top &&
+        cell.top <= b.rect.bottom &&
+        cell.left >= b.rect.left &&
+        cell.left <= b.rect.right,
     ) ?? null
   );
 }

@@ -41,7 +41,12 @@ export interface RadioGroup<T extends string> {
  * @example
  * radioGroup("Which test?", [{ value: "sign", label: "Sign test" }], "sign", (v) => events.test(v));
  */
-export function radioGroup<T extends string>(legend: string, choices: readonly Choice<T>[], initial: T, onChange: (value: T) => void): RadioGroup<T> {
+export function radioGroup<T extends string>(
+  legend: string,
+  choices: readonly Choice<T>[],
+  initial: T,
+  onChange: (value: T) => void,
+): RadioGroup<T> {
   const name = newId("radio");
   const inputs = new Map<T, { input: HTMLInputElement; reason: HTMLElement }>();
   const element = el("fieldset", { class: "es-group" }, el("legend", undefined, legend));
@@ -94,7 +99,12 @@ export interface Field<E extends HTMLElement> {
  * @example
  * field("Hypothesised median", textInput(""), "The value the claim is compared with.");
  */
-export function field<E extends HTMLInputElement | HTMLSelectElement>(labelText: string, control: E, hintText: string, extra?: Node): Field<E> {
+export function field<E extends HTMLInputElement | HTMLSelectElement>(
+  labelText: string,
+  control: E,
+  hintText: string,
+  extra?: Node,
+): Field<E> {
   const id = newId("field");
   const hintId = newId("hint");
   const problemId = newId("problem");
@@ -114,7 +124,14 @@ export function field<E extends HTMLInputElement | HTMLSelectElement>(labelText:
  * textInput("0.05", { inputmode: "decimal" });
  */
 export function textInput(value: string, options: { inputmode?: string; autocomplete?: string } = {}): HTMLInputElement {
-  const input = el("input", { attrs: { type: "text", spellcheck: "false", autocomplete: options.autocomplete ?? "off", ...(options.inputmode ? { inputmode: options.inputmode } : {}) } });
+  const input = el("input", {
+    attrs: {
+      type: "text",
+      spellcheck: "false",
+      autocomplete: options.autocomplete ?? "off",
+      ...(options.inputmode ? { inputmode: options.inputmode } : {}),
+    },
+  });
   input.value = value;
   return input;
 }

@@ -80,7 +80,8 @@ export function tablePlace(rect: CellRect, tables: readonly TableInfo[]): TableP
     if (!rectContains(table.rect, rect)) continue;
     const bodyTop = table.rect.top + 1;
     const oneColumn = rect.left === rect.right;
-    const wholeColumn = (rect.top === table.rect.top || rect.top === bodyTop) && rect.bottom === table.rect.bottom && bodyTop <= table.rect.bottom;
+    const wholeColumn =
+      (rect.top === table.rect.top || rect.top === bodyTop) && rect.bottom === table.rect.bottom && bodyTop <= table.rect.bottom;
     if (oneColumn && wholeColumn) {
       return {
         kind: "column",

@@ -12,7 +12,18 @@ import { formatAddress } from "./a1";
 import { headerName } from "./dataInfo";
 import type { PaneState, RangeSlot } from "./paneState";
 import { absoluteReference, openEnded } from "./references";
-import { blockRefs, bodyOf, dataProblem, referenceOptions, tablesToCreate, type Analysis, type AnalyzedRange, type DataChoice, type ReferenceChoice, type ReferenceOptions } from "./workflow";
+import {
+  blockRefs,
+  bodyOf,
+  dataProblem,
+  referenceOptions,
+  tablesToCreate,
+  type Analysis,
+  type AnalyzedRange,
+  type DataChoice,
+  type ReferenceChoice,
+  type ReferenceOptions,
+} from "./workflow";
 
 function sameRange(a: AnalyzedRange, b: AnalyzedRange | null): boolean {
   return b !== null && a.sheet === b.sheet && formatAddress(a.rect) === formatAddress(b.rect);
@@ -119,7 +130,10 @@ export function slotFailed(state: PaneState, index: number, typed: string, reaso
  * setUseHeader(state, 0, false).slots[0].useHeader; // false
  */
 export function setUseHeader(state: PaneState, index: number, useHeader: boolean): PaneState {
-  return settleData({ ...state, slots: index === 0 ? [{ ...state.slots[0], useHeader }, state.slots[1]] : [state.slots[0], { ...state.slots[1], useHeader }] });
+  return settleData({
+    ...state,
+    slots: index === 0 ? [{ ...state.slots[0], useHeader }, state.slots[1]] : [state.slots[0], { ...state.slots[1], useHeader }],
+  });
 }
 
 /**
@@ -221,7 +235,12 @@ function slotSummary(slot: RangeSlot): string {
   if (boolean > 0) parts.push(`${boolean} TRUE/FALSE`);
   if (other > 0) parts.push(`${other} errors`);
   const where = formatAddress(body.rect, body.sheet);
-  const named = body.name === undefined ? "No name row." : slot.range.place.kind === "column" ? `Table column “${body.name}”.` : `Name: “${body.name}”.`;
+  const named =
+    body.name === undefined
+      ? "No name row."
+      : slot.range.place.kind === "column"
+        ? `Table column “${body.name}”.`
+        : `Name: “${body.name}”.`;
   return `${where}: ${body.tally.cells} cells — ${parts.join(", ")}. ${named}`;
 }
 
@@ -230,7 +249,10 @@ function pooledWords(slot: RangeSlot, paired: boolean): string | null {
   const columns = slot.range.rect.right - slot.range.rect.left + 1;
   if (columns < 2) return null;
   const numbers = bodyOf({ range: slot.range, useHeader: slot.useHeader }).tally.numbers;
-  const pairs = columns === 2 && slot.range.place.kind === "none" ? " If each row holds a first and a second value of one item, use them as pairs." : " To compare two columns, choose Pairs of values and give each column on its own.";
+  const pairs =
+    columns === 2 && slot.range.place.kind === "none"
+      ? " If each row holds a first and a second value of one item, use them as pairs."
+      : " To compare two columns, choose Pairs of values and give each column on its own.";
   return `This range has ${columns} columns: their ${numbers} numbers are pooled into one set of values, as if they were one column.${pairs}`;
 }
 
@@ -257,7 +279,9 @@ export function referenceSentence(state: PaneState): string {
   if (options.allTableColumns) return `The block will refer to ${list}, so rows added to the table count automatically.`;
   if (state.reference === "table") {
     const rects = tablesToCreate(c).map((t) => formatAddress(t.rect));
-    const how = state.referenceChosen ? "" : " This is the default, so that new rows count; to leave the cells as they are, choose “Use exactly these cells”.";
+    const how = state.referenceChosen
+      ? ""
+      : " This is the default, so that new rows count; to leave the cells as they are, choose “Use exactly these cells”.";
     return `With your agreement, ${rects.join(" and ")} will become a table when the block is written, and the block will follow its columns, so rows added to the table count automatically.${how}`;
   }
   if (state.reference === "open") {

@@ -42,7 +42,11 @@ export function dataPage(heading: HTMLElement, events: DataEvents): DataPage {
     "What kind of data?",
     [
       { value: "one", label: "One set of values", hint: "Test where the median of one column lies." },
-      { value: "pairs", label: "Pairs of values", hint: "Two columns, a first and a second value for each item (such as before and after); the test looks at second − first." },
+      {
+        value: "pairs",
+        label: "Pairs of values",
+        hint: "Two columns, a first and a second value for each item (such as before and after); the test looks at second − first.",
+      },
     ],
     "one",
     (value) => events.kind(value === "pairs"),
@@ -55,7 +59,12 @@ export function dataPage(heading: HTMLElement, events: DataEvents): DataPage {
     const headerId = newId("header");
     const headerBox = el("input", { id: headerId, attrs: { type: "checkbox" } });
     headerBox.checked = true;
-    const headerRow = el("div", { class: "es-check" }, headerBox, el("label", { attrs: { for: headerId } }, "The first row is a name: leave it out of the test"));
+    const headerRow = el(
+      "div",
+      { class: "es-check" },
+      headerBox,
+      el("label", { attrs: { for: headerId } }, "The first row is a name: leave it out of the test"),
+    );
     input.addEventListener("change", () => events.rangeTyped(index, input.value));
     input.addEventListener("keydown", (event) => {
       if (event.key === "Enter") {
@@ -99,7 +108,11 @@ export function dataPage(heading: HTMLElement, events: DataEvents): DataPage {
     referenceGroup.element,
     referenceNote,
     problemText,
-    el("div", { class: "es-actions" }, button("Next: the question", "primary", () => events.next())),
+    el(
+      "div",
+      { class: "es-actions" },
+      button("Next: the question", "primary", () => events.next()),
+    ),
   );
 
   function render(view: DataView, texts: readonly string[]): void {

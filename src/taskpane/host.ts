@@ -156,7 +156,6 @@ export interface BlockWrite extends SheetRect {
   readonly cautionRows: readonly number[];
 }
 
-
 export interface Host {
   /** The selected range's address, with its sheet. */
   selection(): Promise<string>;
@@ -282,7 +281,10 @@ function queueWrite(context: HostContext, plan: PlannedWrite): { tables: HostTab
     const made = sheet.charts.add("ColumnClustered", sheet.getRange(formatAddress(chart.source)), "Columns");
     made.name = chart.name;
     made.title.text = chart.title;
-    made.setPosition(formatAddress({ ...chart.area, bottom: chart.area.top, right: chart.area.left }), formatAddress({ ...chart.area, top: chart.area.bottom, left: chart.area.right }));
+    made.setPosition(
+      formatAddress({ ...chart.area, bottom: chart.area.top, right: chart.area.left }),
+      formatAddress({ ...chart.area, top: chart.area.bottom, left: chart.area.right }),
+    );
   }
   book.names.add(plan.blockName, range, "Evensplit result block");
   return { tables, block: range };
@@ -301,7 +303,11 @@ function columnMismatch(plan: PlannedWrite, made: readonly HostTable[]): string 
 }
 
 /** Puts back what a failed write changed, then reads the workbook again and lists whatever still differs. */
-async function undoWrite(run: RunBatch, plan: PlannedWrite, snapshot: readonly Snapshot[]): Promise<{ left: string[]; unmade: TableInfo[] }> {
+async function undoWrite(
+  run: RunBatch,
+  plan: PlannedWrite,
+  snapshot: readonly Snapshot[],
+): Promise<{ left: string[]; unmade: TableInfo[] }> {
   // Which of the planned tables the failed write had made, as found before undoing.
   let made: boolean[] = [];
   try {
@@ -335,12 +341,20 @@ async function undoWrite(run: RunBatch, plan: PlannedWrite, snapshot: readonly S
       return { left: [...cellsLeft(snapshot, now), ...objectsLeft(plan, found)], unmade };
     });
   } catch (thrown) {
-    return { left: [`the sheet could not be read back (${refusal(thrown)}): look at ${snapshot.map((p) => formatAddress(p.rect, p.sheet)).join(" and ")}`], unmade: [] };
+    return {
+      left: [
+        `the sheet could not be read back (${refusal(thrown)}): look at ${snapshot.map((p) => formatAddress(p.rect, p.sheet)).join(" and ")}`,
+      ],
+      unmade: [],
+    };
   }
 }
 
 /** The objects a write makes, looked up by the names it gave them (null objects where they do not exist). */
-function madeObjects(context: HostContext, plan: PlannedWrite): { tables: HostTable[]; chart: HostChart | null; mark: HostNamedItem; earlier: HostNamedItem[] } {
+function madeObjects(
+  context: HostContext,
+  plan: PlannedWrite,
+): { tables: HostTable[]; chart: HostChart | null; mark: HostNamedItem; earlier: HostNamedItem[] } {
   const book = context.workbook;
   const tables = plan.tables.map((t) => book.worksheets.getItem(t.sheet).tables.getItemOrNullObject(t.name));
   for (const table of tables) table.load("name");
@@ -364,8 +378,14 @@ function cellsLeft(before: readonly Snapshot[], now: readonly Snapshot[]): strin
     part.formulas.forEach((row, r) =>
       row.forEach((formula, c) => {
         const after = now[p];
-        const changed = !sameCell(formula, after.formulas[r]?.[c]) || !sameCell(part.numberFormat[r]?.[c], after.numberFormat[r]?.[c]) || !sameCell(part.fonts[r]?.[c], after.fonts[r]?.[c]);
-        if (changed) differ.push(formatAddress({ top: part.rect.top + r, left: part.rect.left + c, bottom: part.rect.top + r, right: part.rect.left + c }));
+        const changed =
+          !sameCell(formula, after.formulas[r]?.[c]) ||
+          !sameCell(part.numberFormat[r]?.[c], after.numberFormat[r]?.[c]) ||
+          !sameCell(part.fonts[r]?.[c], after.fonts[r]?.[c]);
+        if (changed)
+          differ.push(
+            formatAddress({ top: part.rect.top + r, left: part.rect.left + c, bottom: part.rect.top + r, right: part.rect.left + c }),
+          );
       }),
     );
     if (differ.length === 0) return [];
@@ -382,7 +402,8 @@ function objectsLeft(plan: PlannedWrite, found: ReturnType<typeof madeObjects>):
   if (plan.chart && found.chart && !found.chart.isNullObject) left.push(`the chart ${plan.chart.name}`);
   if (!found.mark.isNullObject) left.push(`the defined name ${plan.blockName}`);
   plan.replaces.forEach((earlier, i) => {
-    if (found.earlier[i].isNullObject) left.push(`no defined name ${earlier.name} any more for the earlier block at ${formatAddress(earlier.rect, earlier.sheet)}`);
+    if (found.earlier[i].isNullObject)
+      left.push(`no defined name ${earlier.name} any more for the earlier block at ${formatAddress(earlier.rect, earlier.sheet)}`);
   });
   return left;
 }
@@ -461,7 +482,11 @@ export function createHost(run: RunBatch): Host {
         const sheets = sheetNames.map((name) => context.workbook.worksheets.getItem(name));
         for (const sheet of sheets) sheet.charts.load("items/name");
         await context.sync();
-        return [...names.items.map((n) => n.name), ...tables.items.map((t) => t.name), ...sheets.flatMap((sheet) => sheet.charts.items.map((c) => c.name))];
+        return [
+          ...names.items.map((n) => n.name),
+          ...tables.items.map((t) => t.name),
+          ...sheets.flatMap((sheet) => sheet.charts.items.map((c) => c.name)),
+        ];
       }),
 
     applyWrite: async (plan, region, proceed) => {

@@ -24,7 +24,11 @@ function showOutsideExcel(app: HTMLElement): void {
       "div",
       { class: "es-pane" },
       el("h1", undefined, "Evensplit"),
-      el("p", undefined, "This page is the side pane of the Evensplit add-in and runs inside Excel. To try it without Excel, open demo.html from the same server."),
+      el(
+        "p",
+        undefined,
+        "This page is the side pane of the Evensplit add-in and runs inside Excel. To try it without Excel, open demo.html from the same server.",
+      ),
     ),
   );
 }

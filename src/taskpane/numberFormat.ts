@@ -28,7 +28,10 @@ function generalNumber(x: number): string {
   }
   const integerDigits = Math.max(1, Math.floor(Math.log10(magnitude)) + 1);
   const decimals = Math.max(0, GENERAL_WIDTH - (x < 0 ? 1 : 0) - integerDigits - 1);
-  return x.toFixed(Math.min(decimals, 20)).replace(/(\.\d*?)0+$/, "$1").replace(/\.$/, "");
+  return x
+    .toFixed(Math.min(decimals, 20))
+    .replace(/(\.\d*?)0+$/, "$1")
+    .replace(/\.$/, "");
 }
 
 function splitSections(format: string): string[] {

@@ -16,14 +16,38 @@
 import { resultBlockRows, type CatalogueCall } from "../report/resultBlock";
 import { formatAddress, parseAddress } from "./a1";
 import { button, newId } from "./controls";
-import { choices, dataReady, dataStepProblem, dataView, setPaired, setReference, setUseHeader, slotCleared, slotFailed, slotRead, splitIntoPairs } from "./dataState";
+import {
+  choices,
+  dataReady,
+  dataStepProblem,
+  dataView,
+  setPaired,
+  setReference,
+  setUseHeader,
+  slotCleared,
+  slotFailed,
+  slotRead,
+  splitIntoPairs,
+} from "./dataState";
 import { dataPage } from "./dataView";
 import { el, replaceChildren, show } from "./dom";
 import type { Host } from "./host";
 import { atStep, initialState, STEPS, withBusy, type PaneState } from "./paneState";
 import { currentRequest, questionStepProblem, questionView, setAlternative, setCenter, setQuantile, setTest } from "./questionState";
 import { questionPage } from "./questionView";
-import { NO_ADDRESS, PAST_EDGE, resultView, setChart, setConfirm, setShowNull, setTarget, settleResult, suggestTarget, targetFromSelection, targetPlace } from "./resultState";
+import {
+  NO_ADDRESS,
+  PAST_EDGE,
+  resultView,
+  setChart,
+  setConfirm,
+  setShowNull,
+  setTarget,
+  settleResult,
+  suggestTarget,
+  targetFromSelection,
+  targetPlace,
+} from "./resultState";
 import { resultPage } from "./resultView";
 import { setSetting, settingsStepProblem, settingsView } from "./settingsState";
 import { settingsPage } from "./settingsView";
@@ -78,7 +102,11 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
       void goTo(i);
     }),
   );
-  const nav = el("nav", { class: "es-steps", attrs: { "aria-label": "Steps" } }, el("ol", undefined, ...stepButtons.map((b) => el("li", undefined, b))));
+  const nav = el(
+    "nav",
+    { class: "es-steps", attrs: { "aria-label": "Steps" } },
+    el("ol", undefined, ...stepButtons.map((b) => el("li", undefined, b))),
+  );
   const headings = STEPS.map((name, i) => el("h2", { id: newId("step"), attrs: { tabindex: "-1" } }, `${i + 1}. ${name}`));
 
   const data = dataPage(headings[0], {
@@ -130,7 +158,16 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
     el(
       "div",
       { class: "es-pane" },
-      el("header", { class: "es-header" }, el("h1", undefined, "Evensplit"), el("p", undefined, "Tests and bounds for a median or a quantile that count and rank the values; the sign test asks the least of the data")),
+      el(
+        "header",
+        { class: "es-header" },
+        el("h1", undefined, "Evensplit"),
+        el(
+          "p",
+          undefined,
+          "Tests and bounds for a median or a quantile that count and rank the values; the sign test asks the least of the data",
+        ),
+      ),
       nav,
       el("main", undefined, ...steps),
       status,
@@ -255,7 +292,15 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
     update(withBusy(state, true));
     let outcome: WriteOutcome;
     try {
-      outcome = await writeResult(host, { choices: choices(state), reference: state.reference, request: built.request, target, chart: state.chart, consent, calculate });
+      outcome = await writeResult(host, {
+        choices: choices(state),
+        reference: state.reference,
+        request: built.request,
+        target,
+        chart: state.chart,
+        consent,
+        calculate,
+      });
     } catch (thrown) {
       // writeResult only throws before the workbook was changed: while reading it or planning.
       update(withBusy(state, false));
@@ -284,7 +329,10 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
     }
     const chart = outcome.chartAt ? ` A chart was added at ${outcome.chartAt}.` : "";
     const made = outcome.created.length > 0 ? ` The data became table ${outcome.created.map((t) => t.name).join(" and ")}.` : "";
-    const cleared = outcome.replaced.length > 0 ? ` The earlier block at ${outcome.replaced.map((b) => formatAddress(b.rect)).join(" and ")} was cleared first.` : "";
+    const cleared =
+      outcome.replaced.length > 0
+        ? ` The earlier block at ${outcome.replaced.map((b) => formatAddress(b.rect)).join(" and ")} was cleared first.`
+        : "";
     const written = `The block was written to ${outcome.address} as formulas; it recalculates when the data change.${cleared}${made}${chart}`;
     // The place stays the block's own: writing again replaces it there rather than adding another block.
     state = setTarget(state, formatAddress({ ...target.rect, bottom: target.rect.top, right: target.rect.left }, target.sheet));
@@ -320,14 +368,20 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
     } finally {
       document.removeEventListener("copy", fill);
     }
-    say(copied ? "The result was copied: one sentence for a report, then the block’s rows (as text and as a table)." : "This browser did not allow copying; select the preview table and copy it instead.");
+    say(
+      copied
+        ? "The result was copied: one sentence for a report, then the block’s rows (as text and as a table)."
+        : "This browser did not allow copying; select the preview table and copy it instead.",
+    );
   }
 
   /** The text to read for a reference of a block's formula: a table column with its header, or the cells with the name row above them when there is one. */
   async function referenceAddress(reference: string, sheet: string): Promise<string | null> {
     if (reference.includes("[")) {
       for (const table of await host.tables(sheet)) {
-        const index = table.columns.findIndex((column) => structuredReference(table.name, column).toLowerCase() === reference.toLowerCase());
+        const index = table.columns.findIndex(
+          (column) => structuredReference(table.name, column).toLowerCase() === reference.toLowerCase(),
+        );
         if (index >= 0) return formatAddress({ ...table.rect, left: table.rect.left + index, right: table.rect.left + index }, table.sheet);
       }
       return null;
@@ -353,28 +407,37 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
     try {
       const selected = parseAddress(await host.selection());
       const blocks = await host.blocks();
-      const sheet = selected?.sheet ?? (blocks[0]?.sheet ?? "");
+      const sheet = selected?.sheet ?? blocks[0]?.sheet ?? "";
       const block = selected ? blockAt(blocks, sheet, selected) : null;
       if (!block) {
-        if (announce) say("The selected cell is not part of a block Evensplit wrote. Select a cell of the block, then press the button again.");
+        if (announce)
+          say("The selected cell is not part of a block Evensplit wrote. Select a cell of the block, then press the button again.");
         return;
       }
       const cells = await host.read(formatAddress(block.rect, block.sheet));
       const reading = cells ? readBlock(cells.formulas) : null;
       const loaded = reading && cells ? await stateFromBlock(reading, block, cells.formulas) : null;
       if (!loaded) {
-        say(`The block at ${formatAddress(block.rect, block.sheet)} does not read back as this version of the pane writes it (it may come from another version, or have been edited by hand). Choose its data again to write a new one.`);
+        say(
+          `The block at ${formatAddress(block.rect, block.sheet)} does not read back as this version of the pane writes it (it may come from another version, or have been edited by hand). Choose its data again to write a new one.`,
+        );
         return;
       }
       update(loaded);
       headings[3].focus();
-      say(`The block at ${formatAddress(block.rect, block.sheet)} is loaded: change what you need, then write it; it is replaced where it is.`);
+      say(
+        `The block at ${formatAddress(block.rect, block.sheet)} is loaded: change what you need, then write it; it is replaced where it is.`,
+      );
     } catch (thrown) {
       if (announce) say(`The block could not be read: ${errorMessage(thrown)}`);
     }
   }
 
-  async function stateFromBlock(reading: BlockReading, block: BlockMark, formulas: readonly (readonly unknown[])[]): Promise<PaneState | null> {
+  async function stateFromBlock(
+    reading: BlockReading,
+    block: BlockMark,
+    formulas: readonly (readonly unknown[])[],
+  ): Promise<PaneState | null> {
     let base = setPaired(initialState(), reading.paired);
     for (let i = 0; i < reading.references.length; i++) {
       const address = await referenceAddress(reading.references[i], block.sheet);
@@ -396,10 +459,17 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
       const built = currentRequest(candidate);
       if (!built.ok || !dataReady(candidate)) continue;
       const c = choices(candidate);
-      const rows = blockPreview(wordingRequest(built.request), blockInputs(c), blockRefs(c, candidate.reference, [], block.sheet), calculate);
+      const rows = blockPreview(
+        wordingRequest(built.request),
+        blockInputs(c),
+        blockRefs(c, candidate.reference, [], block.sheet),
+        calculate,
+      );
       const again = blockWrite(rows, block.sheet, block.rect).formulas;
       // The audit line carries the time of writing, which a second writing cannot repeat.
-      const same = again.length === formulas.length && again.every((row, r) => rows[r].key === AUDIT_KEY || row.every((cell, c) => cell === String(formulas[r][c] ?? "")));
+      const same =
+        again.length === formulas.length &&
+        again.every((row, r) => rows[r].key === AUDIT_KEY || row.every((cell, c) => cell === String(formulas[r][c] ?? "")));
       if (same) return candidate;
     }
     return null;
@@ -411,7 +481,10 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
       if (i === state.step) b.setAttribute("aria-current", "step");
       else b.removeAttribute("aria-current");
     });
-    data.render(dataView(state), state.slots.map((s) => s.text));
+    data.render(
+      dataView(state),
+      state.slots.map((s) => s.text),
+    );
     question.render(questionView(state, showStepProblems && state.step === 1));
     settings.render(settingsView(state));
     result.render(resultView(state, calculate));

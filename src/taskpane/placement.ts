@@ -47,7 +47,10 @@ function nonEmpty(read: CellsRead): { address: string; shown: string }[] {
  * // [{ address: "F1", content: "3" }]
  */
 export function filledCells(read: CellsRead): FilledCell[] {
-  return nonEmpty(read).map(({ address, shown }) => ({ address, content: shown.length > SHOWN_LENGTH ? `${shown.slice(0, SHOWN_LENGTH - 1)}…` : shown }));
+  return nonEmpty(read).map(({ address, shown }) => ({
+    address,
+    content: shown.length > SHOWN_LENGTH ? `${shown.slice(0, SHOWN_LENGTH - 1)}…` : shown,
+  }));
 }
 
 /**

@@ -179,6 +179,8 @@ export function dotLayout(values: ArrayLike<number>, scale: LineScale, diameter:
     counts.set(bin, (counts.get(bin) ?? 0) + 1);
   }
   const largest = Math.max(...counts.values());
-  const bins = [...counts].sort((a, b) => a[0] - b[0]).map(([bin, count]) => ({ x: left + (bin + 0.5) * diameter, width: diameter, count, height: (count / largest) * MAX_DOT_LEVELS }));
+  const bins = [...counts]
+    .sort((a, b) => a[0] - b[0])
+    .map(([bin, count]) => ({ x: left + (bin + 0.5) * diameter, width: diameter, count, height: (count / largest) * MAX_DOT_LEVELS }));
   return { kind: "bins", bins, levels: MAX_DOT_LEVELS, largest };
 }

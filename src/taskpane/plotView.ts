@@ -66,9 +66,10 @@ export function numberLinePlot(input: NumberLineInput): SVGElement {
   const top = 18;
   const axis = top + levels * DOT + 6;
   const height = axis + 22;
-  const bounds = input.lower === null && input.upper === null
-    ? "no bounds"
-    : `bounds ${input.lower === null ? "none" : short(input.lower)} to ${input.upper === null ? "none" : short(input.upper)}`;
+  const bounds =
+    input.lower === null && input.upper === null
+      ? "no bounds"
+      : `bounds ${input.lower === null ? "none" : short(input.lower)} to ${input.upper === null ? "none" : short(input.upper)}`;
   const binned = layout.kind === "bins" ? `, counted in bins one dot wide (the fullest holds ${layout.largest})` : "";
   const summary = `${input.values.length} ${input.what}${binned} on a number line from ${short(scale.min)} to ${short(scale.max)}; hypothesised value ${short(input.center)}; ${bounds}.`;
   const plot = svg("svg", {
@@ -79,9 +80,16 @@ export function numberLinePlot(input: NumberLineInput): SVGElement {
   if (input.lower !== null || input.upper !== null) {
     const from = input.lower === null ? MARGIN : scale.x(input.lower);
     const to = input.upper === null ? WIDTH - MARGIN : scale.x(input.upper);
-    plot.appendChild(svg("rect", { class: "es-band", attrs: { x: from.toFixed(1), y: String(top - 4), width: Math.max(1, to - from).toFixed(1), height: String(axis - top + 4) } }));
+    plot.appendChild(
+      svg("rect", {
+        class: "es-band",
+        attrs: { x: from.toFixed(1), y: String(top - 4), width: Math.max(1, to - from).toFixed(1), height: String(axis - top + 4) },
+      }),
+    );
   }
-  plot.appendChild(svg("line", { class: "es-axis", attrs: { x1: String(MARGIN), x2: String(WIDTH - MARGIN), y1: String(axis), y2: String(axis) } }));
+  plot.appendChild(
+    svg("line", { class: "es-axis", attrs: { x1: String(MARGIN), x2: String(WIDTH - MARGIN), y1: String(axis), y2: String(axis) } }),
+  );
   for (const t of scale.ticks) {
     const x = scale.x(t).toFixed(1);
     plot.appendChild(svg("line", { class: "es-axis", attrs: { x1: x, x2: x, y1: String(axis), y2: String(axis + 4) } }));
@@ -89,12 +97,27 @@ export function numberLinePlot(input: NumberLineInput): SVGElement {
   }
   if (layout.kind === "dots") {
     for (const d of layout.dots) {
-      plot.appendChild(svg("circle", { class: "es-dot", attrs: { cx: d.x.toFixed(1), cy: (axis - DOT / 2 - 1 - d.level * DOT).toFixed(1), r: String(DOT / 2 - 0.4) } }));
+      plot.appendChild(
+        svg("circle", {
+          class: "es-dot",
+          attrs: { cx: d.x.toFixed(1), cy: (axis - DOT / 2 - 1 - d.level * DOT).toFixed(1), r: String(DOT / 2 - 0.4) },
+        }),
+      );
     }
   } else {
     for (const b of layout.bins) {
       const h = Math.max(1, b.height * DOT);
-      plot.appendChild(svg("rect", { class: "es-dot", attrs: { x: (b.x - b.width / 2 + 0.4).toFixed(1), y: (axis - 1 - h).toFixed(1), width: (b.width - 0.8).toFixed(1), height: h.toFixed(1) } }));
+      plot.appendChild(
+        svg("rect", {
+          class: "es-dot",
+          attrs: {
+            x: (b.x - b.width / 2 + 0.4).toFixed(1),
+            y: (axis - 1 - h).toFixed(1),
+            width: (b.width - 0.8).toFixed(1),
+            height: h.toFixed(1),
+          },
+        }),
+      );
     }
   }
   const cx = scale.x(input.center).toFixed(1);
@@ -127,11 +150,18 @@ export function nullDistributionPlot(bars: readonly NullBar[], what: string): SV
     plot.appendChild(
       svg("rect", {
         class: b.observed ? "es-bar es-bar-observed" : "es-bar",
-        attrs: { x: (MARGIN + i * step + step * 0.1).toFixed(2), y: (base - h).toFixed(2), width: Math.max(0.5, step * 0.8).toFixed(2), height: h.toFixed(2) },
+        attrs: {
+          x: (MARGIN + i * step + step * 0.1).toFixed(2),
+          y: (base - h).toFixed(2),
+          width: Math.max(0.5, step * 0.8).toFixed(2),
+          height: h.toFixed(2),
+        },
       }),
     );
   });
-  plot.appendChild(svg("line", { class: "es-axis", attrs: { x1: String(MARGIN), x2: String(WIDTH - MARGIN), y1: String(base), y2: String(base) } }));
+  plot.appendChild(
+    svg("line", { class: "es-axis", attrs: { x1: String(MARGIN), x2: String(WIDTH - MARGIN), y1: String(base), y2: String(base) } }),
+  );
   plot.appendChild(label(MARGIN, base + 14, "0", "start", "es-tick"));
   plot.appendChild(label(WIDTH - MARGIN, base + 14, String(n), "end", "es-tick"));
   if (observed) {

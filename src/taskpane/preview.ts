@@ -9,7 +9,16 @@
  *
  * Cost: the cost of the catalogue functions on the data (one pass each).
  */
-import { blockFormula, blockValue, NUMBER_FORMATS, resultBlockRows, type BlockInputs, type BlockRequest, type BlockRow, type CatalogueCall } from "../report/resultBlock";
+import {
+  blockFormula,
+  blockValue,
+  NUMBER_FORMATS,
+  resultBlockRows,
+  type BlockInputs,
+  type BlockRequest,
+  type BlockRow,
+  type CatalogueCall,
+} from "../report/resultBlock";
 import { isCellError } from "../functions/runtime";
 import type { CellRect } from "./a1";
 import type { BlockWrite } from "./host";

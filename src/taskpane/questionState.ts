@@ -128,13 +128,19 @@ export function questionView(state: PaneState, showStepProblems: boolean): Quest
     : test === "quantile"
       ? `The ${question.quantile.trim() || "chosen"} quantile of ${names[0] ? `“${names[0]}”` : "the values"} is`
       : `The median of ${names[0] ? `“${names[0]}”` : "the values"} is`;
-  const centerLabel = state.paired ? "Hypothesised shift (often 0)" : test === "quantile" ? "Hypothesised value of the quantile" : "Hypothesised median";
+  const centerLabel = state.paired
+    ? "Hypothesised shift (often 0)"
+    : test === "quantile"
+      ? "Hypothesised value of the quantile"
+      : "Hypothesised median";
   const problems = problemsFor(state, ["center", "quantile"]);
   const showCenterProblem = showStepProblems || (state.step >= 1 && (question.center !== "" || state.step > 1));
   const center = Number(question.center.trim());
   const q = Number(question.quantile.trim());
   const typed = question.center.trim() !== "" && Number.isFinite(center);
-  const n = typed ? notation({ test, paired: state.paired, center, alternative: question.alternative, quantile: Number.isFinite(q) ? q : 0.5 }) : null;
+  const n = typed
+    ? notation({ test, paired: state.paired, center, alternative: question.alternative, quantile: Number.isFinite(q) ? q : 0.5 })
+    : null;
   return {
     test,
     quantileAvailable: !state.paired,

@@ -13,8 +13,16 @@ import type { QuestionView } from "./questionState";
 
 const TEST_CHOICES: readonly Choice<BlockTest>[] = [
   { value: "sign", label: "Sign test", hint: "Fewest assumptions: it only counts values above and below. The default." },
-  { value: "signed-rank", label: "Signed-rank test (Wilcoxon)", hint: "More power, if the values (for pairs: second minus first) lie roughly symmetric about their centre." },
-  { value: "quantile", label: "A quantile other than the median", hint: "For example the 0.9 quantile: is 90% of the output below a limit?" },
+  {
+    value: "signed-rank",
+    label: "Signed-rank test (Wilcoxon)",
+    hint: "More power, if the values (for pairs: second minus first) lie roughly symmetric about their centre.",
+  },
+  {
+    value: "quantile",
+    label: "A quantile other than the median",
+    hint: "For example the 0.9 quantile: is 90% of the output below a limit?",
+  },
 ];
 
 const ALTERNATIVE_CHOICES: readonly Choice<Alternative>[] = [
@@ -45,16 +53,34 @@ export interface QuestionPage {
  */
 export function questionPage(heading: HTMLElement, events: QuestionEvents): QuestionPage {
   const testGroup = radioGroup<BlockTest>("Which test?", TEST_CHOICES, "sign", (value) => events.test(value));
-  const quantileField = field("Quantile (between 0 and 1)", textInput("0.9", { inputmode: "decimal" }), "0.5 is the median; 0.9 leaves 90% of the values below it.");
+  const quantileField = field(
+    "Quantile (between 0 and 1)",
+    textInput("0.9", { inputmode: "decimal" }),
+    "0.5 is the median; 0.9 leaves 90% of the values below it.",
+  );
   quantileField.control.addEventListener("input", () => events.quantile(quantileField.control.value));
-  const alternativeField = field("The median of the values is", selectControl(ALTERNATIVE_CHOICES, "two-sided"), "The direction of the claim: “different from” looks both ways.");
+  const alternativeField = field(
+    "The median of the values is",
+    selectControl(ALTERNATIVE_CHOICES, "two-sided"),
+    "The direction of the claim: “different from” looks both ways.",
+  );
   alternativeField.control.addEventListener("change", () => events.alternative(alternativeField.control.value as Alternative));
-  const centerField = field("Hypothesised median", textInput("", { inputmode: "decimal" }), "The value the claim is compared with, such as a target.");
+  const centerField = field(
+    "Hypothesised median",
+    textInput("", { inputmode: "decimal" }),
+    "The value the claim is compared with, such as a target.",
+  );
   centerField.control.addEventListener("input", () => events.center(centerField.control.value));
   const h0 = el("p", { class: "es-formula" });
   const h1 = el("p", { class: "es-formula" });
   const symbolNote = el("p", { class: "es-hint" });
-  const notationBox = el("div", { class: "es-notation", attrs: { "aria-label": "The hypotheses in notation", role: "group" } }, h0, h1, symbolNote);
+  const notationBox = el(
+    "div",
+    { class: "es-notation", attrs: { "aria-label": "The hypotheses in notation", role: "group" } },
+    h0,
+    h1,
+    symbolNote,
+  );
   const element = el(
     "section",
     { class: "es-step", attrs: { "aria-labelledby": heading.id } },
@@ -63,7 +89,12 @@ export function questionPage(heading: HTMLElement, events: QuestionEvents): Ques
     quantileField.element,
     el("fieldset", { class: "es-group" }, el("legend", undefined, "The claim"), alternativeField.element, centerField.element),
     notationBox,
-    el("div", { class: "es-actions" }, button("Back", "secondary", () => events.back()), button("Next: settings", "primary", () => events.next())),
+    el(
+      "div",
+      { class: "es-actions" },
+      button("Back", "secondary", () => events.back()),
+      button("Next: settings", "primary", () => events.next()),
+    ),
   );
 
   function render(view: QuestionView): void {

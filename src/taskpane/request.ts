@@ -52,7 +52,8 @@ const PLAIN_NUMBER = /^[+-]?(?:[0-9]+\.?[0-9]*|\.[0-9]+)(?:[eE][+-]?[0-9]+)?$/;
 export function readNumber(text: string, what: string): NumberRead {
   const trimmed = text.trim();
   if (trimmed === "") return { ok: false, message: `${what} is empty: type a number.` };
-  if (/^[+-]?[0-9]+,[0-9]+$/.test(trimmed)) return { ok: false, message: `${what}: use a point for decimals, such as ${trimmed.replace(",", ".")}.` };
+  if (/^[+-]?[0-9]+,[0-9]+$/.test(trimmed))
+    return { ok: false, message: `${what}: use a point for decimals, such as ${trimmed.replace(",", ".")}.` };
   if (!PLAIN_NUMBER.test(trimmed) || !Number.isFinite(Number(trimmed))) {
     return { ok: false, message: `${what} must be a plain number, such as 50 or 49.5 (no units).` };
   }
@@ -96,7 +97,11 @@ export function buildRequest(
 ): { readonly ok: true; readonly request: BlockRequest } | { readonly ok: false; readonly problems: readonly FieldProblem[] } {
   const problems: FieldProblem[] = [];
   const test: BlockTest = paired && question.test === "quantile" ? "sign" : question.test;
-  const centerWhat = paired ? "The hypothesised shift" : test === "quantile" ? "The hypothesised value of the quantile" : "The hypothesised median";
+  const centerWhat = paired
+    ? "The hypothesised shift"
+    : test === "quantile"
+      ? "The hypothesised value of the quantile"
+      : "The hypothesised median";
   const center = readNumber(question.center, centerWhat);
   if (!center.ok) problems.push({ field: "center", message: center.message });
   const quantile = test === "quantile" ? readFraction(question.quantile, "The quantile") : ({ ok: true, value: 0.5 } as const);

@@ -23,7 +23,8 @@ import { currentRequest } from "./questionState";
 import { blockInputs, blockRefs, bodyOf, chartSource, placeFromText, referenceOptions, tablesToCreate, type DataChoice } from "./workflow";
 import { onSheet, wordingRequest } from "./writePlan";
 
-export const PAST_EDGE = "The block does not fit on the sheet there (1,048,576 rows, columns A to XFD): pick a top-left cell further up or to the left.";
+export const PAST_EDGE =
+  "The block does not fit on the sheet there (1,048,576 rows, columns A to XFD): pick a top-left cell further up or to the left.";
 export const NO_ADDRESS = "Type a cell address such as E1 for the block’s top-left corner.";
 
 /**
@@ -194,7 +195,10 @@ export function resultView(state: PaneState, calculate: CatalogueCall): ResultVi
     ? `Shaded: the ${level} bounds${request.test === "signed-rank" ? " (Hodges–Lehmann)" : ""}.`
     : `There are no bounds to shade: these data cannot reach ${level} confidence.`;
   const count = values.length.toLocaleString("en-US");
-  const drawn = numberLineLayout(plot).kind === "bins" ? `Bars: the ${count} ${what}, counted in bins too full to stack as dots` : `Dots: the ${count} ${what}`;
+  const drawn =
+    numberLineLayout(plot).kind === "bins"
+      ? `Bars: the ${count} ${what}, counted in bins too full to stack as dots`
+      : `Dots: the ${count} ${what}`;
   const caption = `${drawn}. Dashed line: the hypothesised value ${request.center}. ${band}`;
   const countTest = request.test !== "signed-rank";
   const used = numberOrNull(value("used"));
@@ -205,7 +209,8 @@ export function resultView(state: PaneState, calculate: CatalogueCall): ResultVi
   const targetHint = fits
     ? `The block takes 2 columns × ${rows.length} rows: ${formatAddress(target.rect, target.sheet)}.${state.targetEdited ? "" : " Suggested: the first empty area to the right of the data."}`
     : `The block takes 2 columns × ${rows.length} rows; type the cell for its top-left corner, such as E1.`;
-  const targetProblem = state.target.trim() === "" ? null : !target ? "That is not a cell address; type one such as E1." : fits ? null : PAST_EDGE;
+  const targetProblem =
+    state.target.trim() === "" ? null : !target ? "That is not a cell address; type one such as E1." : fits ? null : PAST_EDGE;
   const source = chartSource(c, []);
   return {
     ...fixed,

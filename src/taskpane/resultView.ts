@@ -16,7 +16,9 @@ import type { ResultView } from "./resultState";
  * a long formula wraps between its parts, never inside a name or a number.
  */
 function formulaParts(formula: string): Node[] {
-  return formula.split(/(?<=[,(])/).flatMap((part, i) => (i === 0 ? [document.createTextNode(part)] : [el("wbr"), document.createTextNode(part)]));
+  return formula
+    .split(/(?<=[,(])/)
+    .flatMap((part, i) => (i === 0 ? [document.createTextNode(part)] : [el("wbr"), document.createTextNode(part)]));
 }
 
 export interface ResultEvents {
@@ -56,7 +58,16 @@ export function resultPage(heading: HTMLElement, events: ResultEvents): ResultPa
     "table",
     { class: "es-preview" },
     el("caption", undefined, "Preview, computed now from the data"),
-    el("thead", undefined, el("tr", undefined, el("th", { attrs: { scope: "col" } }, "Line of the block"), el("th", { attrs: { scope: "col" } }, "Its value with the data as they are now"))),
+    el(
+      "thead",
+      undefined,
+      el(
+        "tr",
+        undefined,
+        el("th", { attrs: { scope: "col" } }, "Line of the block"),
+        el("th", { attrs: { scope: "col" } }, "Its value with the data as they are now"),
+      ),
+    ),
     previewBody,
   );
   const plotBox = el("div", { class: "es-plot-box" });
@@ -67,17 +78,32 @@ export function resultPage(heading: HTMLElement, events: ResultEvents): ResultPa
   const nullId = newId("null");
   const nullCheck = el("input", { id: nullId, attrs: { type: "checkbox" } });
   nullCheck.addEventListener("change", () => events.showNull(nullCheck.checked));
-  const nullRow = el("div", { class: "es-check" }, nullCheck, el("label", { attrs: { for: nullId } }, "Also show the count’s distribution if H0 holds"));
+  const nullRow = el(
+    "div",
+    { class: "es-check" },
+    nullCheck,
+    el("label", { attrs: { for: nullId } }, "Also show the count’s distribution if H0 holds"),
+  );
   const formulaList = el("ol", { class: "es-formulas" });
   const formulas = el("details", { class: "es-details" }, el("summary", undefined, "Formulas the block will hold"), formulaList);
-  const targetField = field("Top-left cell of the block", textInput("", { autocomplete: "off" }), "", button("Use the selection", "secondary", () => events.targetFromSelection()));
+  const targetField = field(
+    "Top-left cell of the block",
+    textInput("", { autocomplete: "off" }),
+    "",
+    button("Use the selection", "secondary", () => events.targetFromSelection()),
+  );
   targetField.control.addEventListener("input", () => events.target(targetField.control.value));
   const referenceRecap = el("p", { class: "es-note" });
   const chartId = newId("chart");
   const chartCheck = el("input", { id: chartId, attrs: { type: "checkbox", "aria-describedby": `${chartId}-hint` } });
   chartCheck.addEventListener("change", () => events.chart(chartCheck.checked));
   const chartHint = el("p", { class: "es-hint", id: `${chartId}-hint` });
-  const chartRow = el("div", { class: "es-check" }, chartCheck, el("label", { attrs: { for: chartId } }, "Also add a chart of the data beside the block"));
+  const chartRow = el(
+    "div",
+    { class: "es-check" },
+    chartCheck,
+    el("label", { attrs: { for: chartId } }, "Also add a chart of the data beside the block"),
+  );
   const writeButton = button("Write the block", "primary", () => events.write(false));
   const confirmTitle = el("h3", { attrs: { tabindex: "-1" } }, "Some of these cells are not empty");
   const confirmList = el("ul", { class: "es-filled" });
@@ -87,14 +113,23 @@ export function resultPage(heading: HTMLElement, events: ResultEvents): ResultPa
     confirmTitle,
     el("p", undefined, "Writing the block here would replace what they hold:"),
     confirmList,
-    el("div", { class: "es-actions" }, button("Replace them", "primary", () => events.write(true)), button("Keep them", "secondary", () => events.keep())),
+    el(
+      "div",
+      { class: "es-actions" },
+      button("Replace them", "primary", () => events.write(true)),
+      button("Keep them", "secondary", () => events.keep()),
+    ),
   );
   const element = el(
     "section",
     { class: "es-step", attrs: { "aria-labelledby": heading.id } },
     heading,
     previewTable,
-    el("div", { class: "es-actions" }, button("Copy as text", "secondary", () => events.copy())),
+    el(
+      "div",
+      { class: "es-actions" },
+      button("Copy as text", "secondary", () => events.copy()),
+    ),
     el("figure", { class: "es-figure" }, plotBox, plotCaption),
     nullRow,
     nullFigure,
@@ -103,9 +138,19 @@ export function resultPage(heading: HTMLElement, events: ResultEvents): ResultPa
     referenceRecap,
     chartRow,
     chartHint,
-    el("div", { class: "es-actions" }, writeButton, button("Read the data again", "secondary", () => events.reread())),
+    el(
+      "div",
+      { class: "es-actions" },
+      writeButton,
+      button("Read the data again", "secondary", () => events.reread()),
+    ),
     confirmBox,
-    el("div", { class: "es-actions" }, button("Back", "secondary", () => events.back()), button("Start over", "quiet", () => events.startOver())),
+    el(
+      "div",
+      { class: "es-actions" },
+      button("Back", "secondary", () => events.back()),
+      button("Start over", "quiet", () => events.startOver()),
+    ),
   );
 
   function render(view: ResultView): void {
@@ -116,12 +161,22 @@ export function resultPage(heading: HTMLElement, events: ResultEvents): ResultPa
           "tr",
           { class: `es-row-${row.style}` },
           el("th", { attrs: { scope: "row" } }, row.label),
-          el("td", undefined, row.shown === "" ? "—" : row.shown, row.message ? el("span", { class: "es-cell-message" }, row.message) : null),
+          el(
+            "td",
+            undefined,
+            row.shown === "" ? "—" : row.shown,
+            row.message ? el("span", { class: "es-cell-message" }, row.message) : null,
+          ),
         ),
       ),
     );
     if (view.rows.length > 0) {
-      replaceChildren(formulaList, ...view.rows.map((row) => el("li", undefined, el("span", { class: "es-formula-label" }, row.label), el("code", undefined, ...formulaParts(row.formula)))));
+      replaceChildren(
+        formulaList,
+        ...view.rows.map((row) =>
+          el("li", undefined, el("span", { class: "es-formula-label" }, row.label), el("code", undefined, ...formulaParts(row.formula))),
+        ),
+      );
     }
     replaceChildren(plotBox, view.plot ? numberLinePlot(view.plot) : null);
     if (view.plot) plotCaption.textContent = view.caption;
@@ -144,7 +199,10 @@ export function resultPage(heading: HTMLElement, events: ResultEvents): ResultPa
     writeButton.setAttribute("aria-busy", view.busy ? "true" : "false");
     show(confirmBox, view.confirm !== null);
     // Every filled cell is listed: the agreement covers exactly what is shown here.
-    replaceChildren(confirmList, ...(view.confirm?.consent.filled ?? []).map((f) => el("li", undefined, el("strong", undefined, f.address), ": ", f.content)));
+    replaceChildren(
+      confirmList,
+      ...(view.confirm?.consent.filled ?? []).map((f) => el("li", undefined, el("strong", undefined, f.address), ": ", f.content)),
+    );
   }
 
   return { element, targetInput: targetField.control, confirmTitle, render, targetProblem: (message) => setProblem(targetField, message) };

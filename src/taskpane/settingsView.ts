@@ -20,7 +20,11 @@ const TIE_CHOICES: readonly Choice<TieRule>[] = [
 
 const SIGN_METHOD_CHOICES: readonly Choice<SignTestMethod>[] = [
   { value: "exact", label: "Exact binomial (default)", hint: "Exact probabilities: the chance of a false alarm never exceeds alpha." },
-  { value: "midp", label: "Mid-p", hint: "Counts half the probability of the observed count: closer to alpha on average, but may exceed it." },
+  {
+    value: "midp",
+    label: "Mid-p",
+    hint: "Counts half the probability of the observed count: closer to alpha on average, but may exceed it.",
+  },
   { value: "normal", label: "Normal approximation", hint: "For very large samples; continuity-corrected." },
 ];
 
@@ -40,7 +44,11 @@ const RANK_METHOD_CHOICES: readonly Choice<SignedRankMethod>[] = [
 
 const ZERO_CHOICES: readonly Choice<ZeroRule>[] = [
   { value: "drop", label: "Leave them out (default)", hint: "Values equal to the hypothesised value are set aside before ranking." },
-  { value: "pratt", label: "Rank them, then leave them out of V (Pratt)", hint: "They take part in the ranking, which shifts the other ranks up." },
+  {
+    value: "pratt",
+    label: "Rank them, then leave them out of V (Pratt)",
+    hint: "They take part in the ranking, which shifts the other ranks up.",
+  },
 ];
 
 export interface SettingsEvents {
@@ -61,7 +69,11 @@ export interface SettingsPage {
  * const page = settingsPage(heading, events); page.render(settingsView(state));
  */
 export function settingsPage(heading: HTMLElement, events: SettingsEvents): SettingsPage {
-  const alphaField = field("Alpha (significance level)", textInput("0.05", { inputmode: "decimal" }), "The risk you accept of rejecting H0 when it is true. A common choice is 0.05.");
+  const alphaField = field(
+    "Alpha (significance level)",
+    textInput("0.05", { inputmode: "decimal" }),
+    "The risk you accept of rejecting H0 when it is true. A common choice is 0.05.",
+  );
   alphaField.control.addEventListener("input", () => events.setting("alpha", alphaField.control.value));
   const confidenceField = field(
     "Confidence level of the bounds",
@@ -69,11 +81,23 @@ export function settingsPage(heading: HTMLElement, events: SettingsEvents): Sett
     "The bounds cover the true value at least this often; the block also shows the level actually reached.",
   );
   confidenceField.control.addEventListener("input", () => events.setting("confidence", confidenceField.control.value));
-  const tiesField = field("Values equal to the hypothesised value (ties)", selectControl(TIE_CHOICES, "drop"), hintFor(TIE_CHOICES, "drop"));
+  const tiesField = field(
+    "Values equal to the hypothesised value (ties)",
+    selectControl(TIE_CHOICES, "drop"),
+    hintFor(TIE_CHOICES, "drop"),
+  );
   tiesField.control.addEventListener("change", () => events.setting("ties", tiesField.control.value as TieRule));
-  const signMethodField = field("How the p-value is computed", selectControl(SIGN_METHOD_CHOICES, "exact"), hintFor(SIGN_METHOD_CHOICES, "exact"));
+  const signMethodField = field(
+    "How the p-value is computed",
+    selectControl(SIGN_METHOD_CHOICES, "exact"),
+    hintFor(SIGN_METHOD_CHOICES, "exact"),
+  );
   signMethodField.control.addEventListener("change", () => events.setting("signMethod", signMethodField.control.value as SignTestMethod));
-  const rankMethodField = field("How the p-value is computed", selectControl(RANK_METHOD_CHOICES, "auto"), hintFor(RANK_METHOD_CHOICES, "auto"));
+  const rankMethodField = field(
+    "How the p-value is computed",
+    selectControl(RANK_METHOD_CHOICES, "auto"),
+    hintFor(RANK_METHOD_CHOICES, "auto"),
+  );
   rankMethodField.control.addEventListener("change", () => events.setting("rankMethod", rankMethodField.control.value as SignedRankMethod));
   const zerosField = field("Values that equal the median under test", selectControl(ZERO_CHOICES, "drop"), hintFor(ZERO_CHOICES, "drop"));
   zerosField.control.addEventListener("change", () => events.setting("zeros", zerosField.control.value as ZeroRule));
@@ -89,7 +113,12 @@ export function settingsPage(heading: HTMLElement, events: SettingsEvents): Sett
     rankMethodField.element,
     zerosField.element,
     quantileNote,
-    el("div", { class: "es-actions" }, button("Back", "secondary", () => events.back()), button("Next: the result", "primary", () => events.next())),
+    el(
+      "div",
+      { class: "es-actions" },
+      button("Back", "secondary", () => events.back()),
+      button("Next: the result", "primary", () => events.next()),
+    ),
   );
   const keep = (control: HTMLInputElement | HTMLSelectElement, value: string): void => {
     if (control.value !== value) control.value = value;

@@ -20,7 +20,11 @@ export type Theme = "light" | "dark";
  */
 export function relativeLuminance(color: string): number | null {
   let hex = color.trim().replace(/^#/, "");
-  if (/^[0-9a-f]{3}$/i.test(hex)) hex = hex.split("").map((d) => d + d).join("");
+  if (/^[0-9a-f]{3}$/i.test(hex))
+    hex = hex
+      .split("")
+      .map((d) => d + d)
+      .join("");
   if (!/^[0-9a-f]{6}$/i.test(hex)) return null;
   const channel = (i: number): number => {
     const c = parseInt(hex.slice(i, i + 2), 16) / 255;

@@ -19,7 +19,18 @@ import type { CellsRead, Host, SheetRect, TableInfo } from "./host";
 import { blockRect, cellContents, filledCells, firstFreeColumn, type FilledCell } from "./placement";
 import { blockPreview, blockWrite, type BlockRefs, type PreviewRow } from "./preview";
 import { absoluteReference, openEnded, structuredReference } from "./references";
-import { BLOCK_NAME_PREFIX, freeName, onSheet, tableHeaderProblem, wordingName, wordingRequest, writeProblem, type BlockMark, type PlannedChart, type PlannedWrite } from "./writePlan";
+import {
+  BLOCK_NAME_PREFIX,
+  freeName,
+  onSheet,
+  tableHeaderProblem,
+  wordingName,
+  wordingRequest,
+  writeProblem,
+  type BlockMark,
+  type PlannedChart,
+  type PlannedWrite,
+} from "./writePlan";
 
 /** A range as read for the pane. */
 export interface AnalyzedRange {
@@ -44,7 +55,11 @@ export type Analysis = { readonly ok: true; readonly range: AnalyzedRange } | { 
  */
 export async function analyzeRange(host: Host, text: string): Promise<Analysis> {
   const parsed = parseAddress(text);
-  if (!parsed) return { ok: false, message: `“${text.trim()}” is not a range address; type one such as B1:B25, or select the cells and use the selection.` };
+  if (!parsed)
+    return {
+      ok: false,
+      message: `“${text.trim()}” is not a range address; type one such as B1:B25, or select the cells and use the selection.`,
+    };
   let address = text.trim();
   if (parsed.bottom === LAST_ROW) {
     const probe = await host.read(formatAddress({ ...parsed, bottom: parsed.top }, parsed.sheet));
@@ -115,7 +130,8 @@ export function dataProblem(choices: readonly DataChoice[]): string | null {
     if (a.rows !== b.rows || a.columns !== b.columns) {
       return `The two ranges must have the same shape to make pairs: the first has ${a.rows} × ${a.columns} data cells, the second ${b.rows} × ${b.columns}.`;
     }
-    if (bodies[0].sheet === bodies[1].sheet && rectsOverlap(bodies[0].rect, bodies[1].rect)) return "The two ranges overlap: pick two separate columns.";
+    if (bodies[0].sheet === bodies[1].sheet && rectsOverlap(bodies[0].rect, bodies[1].rect))
+      return "The two ranges overlap: pick two separate columns.";
   }
   return null;
 }
@@ -149,13 +165,15 @@ export function referenceOptions(choices: readonly DataChoice[]): ReferenceOptio
   const loose = choices.filter((c) => c.range.place.kind !== "column");
   if (loose.length === 0) return { allTableColumns: true, table: { available: false }, open: { available: false } };
   let table: Availability = { available: true };
-  if (loose.some((c) => c.range.place.kind === "part")) table = { available: false, reason: "Part of the range is already inside a table." };
+  if (loose.some((c) => c.range.place.kind === "part"))
+    table = { available: false, reason: "Part of the range is already inside a table." };
   else if (loose.some((c) => !c.useHeader || c.range.header === null)) {
     table = { available: false, reason: "A table needs a first row with a name for each column." };
   }
   let open: Availability = { available: true };
   const bodies = choices.map(bodyOf);
-  if (loose.some((c) => c.range.place.kind === "part")) open = { available: false, reason: "The range is inside a table; refer to the table instead." };
+  if (loose.some((c) => c.range.place.kind === "part"))
+    open = { available: false, reason: "The range is inside a table; refer to the table instead." };
   else if (bodies.length === 2 && bodies[0].rect.top !== bodies[1].rect.top) {
     open = { available: false, reason: "Both ranges must start on the same row to run on to the end of the sheet together." };
   }
@@ -172,14 +190,29 @@ export function tablesToCreate(choices: readonly DataChoice[]): { sheet: string;
   const loose = choices.filter((c) => c.range.place.kind === "none").map((c) => ({ sheet: c.range.sheet, rect: c.range.rect }));
   if (loose.length === 2 && loose[0].sheet === loose[1].sheet && adjacent(loose[0].rect, loose[1].rect)) {
     const [a, b] = loose;
-    return [{ sheet: a.sheet, rect: { top: a.rect.top, bottom: a.rect.bottom, left: Math.min(a.rect.left, b.rect.left), right: Math.max(a.rect.right, b.rect.right) } }];
+    return [
+      {
+        sheet: a.sheet,
+        rect: {
+          top: a.rect.top,
+          bottom: a.rect.bottom,
+          left: Math.min(a.rect.left, b.rect.left),
+          right: Math.max(a.rect.right, b.rect.right),
+        },
+      },
+    ];
   }
   return loose;
 }
 
 function createdColumn(range: AnalyzedRange, created: readonly TableInfo[]): { table: TableInfo; column: string } | null {
   for (const table of created) {
-    if (table.sheet === range.sheet && table.rect.top === range.rect.top && range.rect.left >= table.rect.left && range.rect.right <= table.rect.right) {
+    if (
+      table.sheet === range.sheet &&
+      table.rect.top === range.rect.top &&
+      range.rect.left >= table.rect.left &&
+      range.rect.right <= table.rect.right
+    ) {
       return { table, column: table.columns[range.rect.left - table.rect.left] };
     }
   }
@@ -209,7 +242,12 @@ export function referenceFor(choice: DataChoice, reference: ReferenceChoice, cre
  * @example
  * blockRefs([{ range, useHeader: true }], "exact", [], "Paint line"); // { data: "$B$2:$B$25" }
  */
-export function blockRefs(choices: readonly DataChoice[], reference: ReferenceChoice, created: readonly TableInfo[], formulaSheet: string): BlockRefs {
+export function blockRefs(
+  choices: readonly DataChoice[],
+  reference: ReferenceChoice,
+  created: readonly TableInfo[],
+  formulaSheet: string,
+): BlockRefs {
   const data = referenceFor(choices[0], reference, created, formulaSheet);
   return choices.length === 2 ? { data, second: referenceFor(choices[1], reference, created, formulaSheet) } : { data };
 }
@@ -278,7 +316,10 @@ export function chartSource(choices: readonly DataChoice[], created: readonly Ta
   if (rects.length === 1) return rects[0];
   const [a, b] = rects;
   if (a.sheet !== b.sheet || !adjacent(a.rect, b.rect)) return null;
-  return { sheet: a.sheet, rect: { top: a.rect.top, bottom: a.rect.bottom, left: Math.min(a.rect.left, b.rect.left), right: Math.max(a.rect.right, b.rect.right) } };
+  return {
+    sheet: a.sheet,
+    rect: { top: a.rect.top, bottom: a.rect.bottom, left: Math.min(a.rect.left, b.rect.left), right: Math.max(a.rect.right, b.rect.right) },
+  };
 }
 
 /** What the person was shown and agreed to replace: the cells of the place (and of the earlier block it replaces) as they were listed. */
@@ -322,7 +363,13 @@ export type WriteOutcome =
 function headerRow(choices: readonly DataChoice[], table: SheetRect): string[] {
   const columns: string[] = [];
   for (let c = table.rect.left; c <= table.rect.right; c++) {
-    const owner = choices.find((choice) => choice.range.sheet === table.sheet && choice.range.rect.top === table.rect.top && c >= choice.range.rect.left && c <= choice.range.rect.right);
+    const owner = choices.find(
+      (choice) =>
+        choice.range.sheet === table.sheet &&
+        choice.range.rect.top === table.rect.top &&
+        c >= choice.range.rect.left &&
+        c <= choice.range.rect.right,
+    );
     const cell = owner?.range.values[0]?.[c - owner.range.rect.left];
     columns.push(cell === undefined || cell === null ? "" : String(cell));
   }
@@ -344,7 +391,11 @@ function sameSheet(a: string, b: string): boolean {
  * planWrite(plan, ["Table1"], []); // { ok: true, write: { tables: [], blockName: "Evensplit_block_1", ... } }
  * planWrite({ ...plan, target: { sheet, rect: { top: 0, left: 16383, bottom: 19, right: 16384 } } }, [], []); // { ok: false, message: "The block does not fit ..." }
  */
-export function planWrite(plan: WritePlan, taken: readonly string[], earlier: readonly BlockMark[]): { ok: true; write: PlannedWrite } | { ok: false; message: string } {
+export function planWrite(
+  plan: WritePlan,
+  taken: readonly string[],
+  earlier: readonly BlockMark[],
+): { ok: true; write: PlannedWrite } | { ok: false; message: string } {
   const { target } = plan;
   const names = [...taken];
   const tables: TableInfo[] = [];
@@ -366,9 +417,18 @@ export function planWrite(plan: WritePlan, taken: readonly string[], earlier: re
   const source = plan.chart ? chartSource(plan.choices, tables) : null;
   let chart: PlannedChart | null = null;
   if (source) {
-    const titles = plan.choices.map((c) => bodyOf(c).name).filter((n): n is string => n !== undefined).map((n) => wordingName(n));
+    const titles = plan.choices
+      .map((c) => bodyOf(c).name)
+      .filter((n): n is string => n !== undefined)
+      .map((n) => wordingName(n));
     const area = { top: target.rect.top, left: target.rect.right + 2, bottom: target.rect.top + 14, right: target.rect.right + 8 };
-    chart = { sheet: source.sheet, source: source.rect, title: titles.length > 0 ? titles.join(" and ") : "Data", area, name: freeName("Evensplit chart ", names) };
+    chart = {
+      sheet: source.sheet,
+      source: source.rect,
+      title: titles.length > 0 ? titles.join(" and ") : "Data",
+      area,
+      name: freeName("Evensplit chart ", names),
+    };
   }
   const replaces = earlier.filter((b) => sameSheet(b.sheet, target.sheet) && rectsOverlap(b.rect, target.rect));
   const write: PlannedWrite = { tables, refs, rows, block, chart, blockName, replaces };
@@ -397,7 +457,10 @@ function sameContents(a: Consent, b: Consent): boolean {
 }
 
 function sameRegion(a: Consent, b: Consent): boolean {
-  return a.region.length === b.region.length && a.region.every((r, i) => sameSheet(r.sheet, b.region[i].sheet) && formatAddress(r.rect) === formatAddress(b.region[i].rect));
+  return (
+    a.region.length === b.region.length &&
+    a.region.every((r, i) => sameSheet(r.sheet, b.region[i].sheet) && formatAddress(r.rect) === formatAddress(b.region[i].rect))
+  );
 }
 
 /**
@@ -408,7 +471,10 @@ function sameRegion(a: Consent, b: Consent): boolean {
  */
 function undoneMessage(reason: string, left: readonly string[], unmade: readonly TableInfo[]): string {
   const tables = unmade.map((t) => formatAddress(t.rect, t.sheet)).join(" and ");
-  const look = unmade.length === 0 ? "" : ` The table made from ${tables} was turned back into plain cells; Excel may leave the table's colours on them.`;
+  const look =
+    unmade.length === 0
+      ? ""
+      : ` The table made from ${tables} was turned back into plain cells; Excel may leave the table's colours on them.`;
   if (left.length === 0) {
     const what = unmade.length === 0 ? "the sheet holds exactly what it held before" : "every cell holds exactly what it held before";
     return `Excel refused part of the write (${reason}). Everything this write had changed was put back: ${what}, with no new table, chart or name.${look}`;
@@ -430,14 +496,22 @@ function undoneMessage(reason: string, left: readonly string[], unmade: readonly
 export async function writeResult(host: Host, plan: WritePlan): Promise<WriteOutcome> {
   const { target } = plan;
   if (!onSheet(target.rect)) {
-    return { kind: "refused", message: "The block does not fit on the sheet there (1,048,576 rows, columns A to XFD): pick a top-left cell further up or to the left." };
+    return {
+      kind: "refused",
+      message:
+        "The block does not fit on the sheet there (1,048,576 rows, columns A to XFD): pick a top-left cell further up or to the left.",
+    };
   }
   const covered = plan.choices.some((c) => sameSheet(c.range.sheet, target.sheet) && rectsOverlap(c.range.rect, target.rect));
   if (covered) return { kind: "refused", message: "The block would cover the data. Pick a place beside it." };
   const place = await host.read(formatAddress(target.rect, target.sheet));
   if (!place) return { kind: "refused", message: "The place for the block could not be read: check the sheet name." };
   const sheets = [...new Set([place.sheet, ...plan.choices.map((c) => c.range.sheet)])];
-  const planned = planWrite({ ...plan, target: { sheet: place.sheet, rect: place.rect } }, await host.takenNames(sheets), await host.blocks());
+  const planned = planWrite(
+    { ...plan, target: { sheet: place.sheet, rect: place.rect } },
+    await host.takenNames(sheets),
+    await host.blocks(),
+  );
   if (!planned.ok) return { kind: "refused", message: planned.message };
   const { write } = planned;
   const region: SheetRect[] = [{ sheet: place.sheet, rect: place.rect }, ...write.replaces.map((b) => ({ sheet: b.sheet, rect: b.rect }))];
@@ -451,7 +525,16 @@ export async function writeResult(host: Host, plan: WritePlan): Promise<WriteOut
   if (listing.filled.length > 0 && !agreed) return { kind: "confirm", consent: listing, changed: plan.consent !== null };
   const report = await host.applyWrite(write, region, (current) => sameContents(consentFor(region, current), listing));
   if (report.kind === "changed") return { kind: "confirm", consent: consentFor(region, report.current), changed: true };
-  if (report.kind === "undone") return { kind: "undone", message: undoneMessage(report.reason, report.left, report.unmade), clean: report.left.length === 0 };
+  if (report.kind === "undone")
+    return { kind: "undone", message: undoneMessage(report.reason, report.left, report.unmade), clean: report.left.length === 0 };
   const chartAt = write.chart ? formatAddress({ ...write.chart.area, bottom: write.chart.area.top, right: write.chart.area.left }) : null;
-  return { kind: "written", address: formatAddress(place.rect, place.sheet), refs: write.refs, created: write.tables, rows: write.rows, chartAt, replaced: write.replaces };
+  return {
+    kind: "written",
+    address: formatAddress(place.rect, place.sheet),
+    refs: write.refs,
+    created: write.tables,
+    rows: write.rows,
+    chartAt,
+    replaced: write.replaces,
+  };
 }

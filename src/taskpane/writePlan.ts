@@ -114,7 +114,14 @@ export function cellContentProblem(content: string): string | null {
  * onSheet({ top: 0, left: 16383, bottom: 19, right: 16384 }); // false: the block's second column would be past XFD
  */
 export function onSheet(rect: CellRect): boolean {
-  return rect.top >= 0 && rect.left >= 0 && rect.bottom <= LAST_ROW && rect.right <= LAST_COLUMN && rect.top <= rect.bottom && rect.left <= rect.right;
+  return (
+    rect.top >= 0 &&
+    rect.left >= 0 &&
+    rect.bottom <= LAST_ROW &&
+    rect.right <= LAST_COLUMN &&
+    rect.top <= rect.bottom &&
+    rect.left <= rect.right
+  );
 }
 
 /**

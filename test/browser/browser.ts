@@ -52,7 +52,16 @@ export async function startSession(): Promise<Session> {
   const context = await chromium.launchPersistentContext(profile, {
     executablePath: CHROMIUM,
     headless: true,
-    args: ["--headless", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"],
+    args: [
+      "--headless",
+      "--no-sandbox",
+      "--disable-gpu",
+      "--disable-quic",
+      "--no-first-run",
+      "--disable-background-networking",
+      "--disable-component-update",
+      "--disable-sync",
+    ],
     viewport: { width: 1440, height: 1600 },
   });
   const requests: string[] = [];
@@ -120,7 +129,10 @@ export function cellText(page: Page, row: number, column: number): Promise<strin
 /** The row (0-based) in column `column` whose cell shows `label`, searching the first 60 rows. */
 export async function rowOfLabel(page: Page, column: number, label: string | RegExp): Promise<number> {
   for (let r = 0; r < 60; r++) {
-    const text = await page.locator(`#demo-cell-${r}-${column}`).innerText().catch(() => "");
+    const text = await page
+      .locator(`#demo-cell-${r}-${column}`)
+      .innerText()
+      .catch(() => "");
     if (typeof label === "string" ? text === label : label.test(text)) return r;
   }
   throw new Error(`no row labelled ${String(label)}`);
@@ -167,6 +179,8 @@ export async function recordViolations(context: BrowserContext): Promise<void> {
   await context.addInitScript(() => {
     const found: Violation[] = [];
     (window as unknown as { cspViolations: Violation[] }).cspViolations = found;
-    document.addEventListener("securitypolicyviolation", (e) => found.push({ directive: e.effectiveDirective, blocked: e.blockedURI, source: e.sourceFile }));
+    document.addEventListener("securitypolicyviolation", (e) =>
+      found.push({ directive: e.effectiveDirective, blocked: e.blockedURI, source: e.sourceFile }),
+    );
   });
 }

@@ -93,7 +93,7 @@ describe.runIf(run)("the demo sheet", () => {
     await expect.poll(() => cellText(page, 9, 0)).toBe("Thickness");
     expect(await cellText(page, 0, 0)).toContain("Invented data");
     await selectCells(page, "O2");
-    await page.keyboard.type("=EVENSPLIT.COUNTPVALUE(18, 7, \"greater\")");
+    await page.keyboard.type('=EVENSPLIT.COUNTPVALUE(18, 7, "greater")');
     await page.keyboard.press("Enter");
     // The README gives 0.0216 for this example.
     await expect.poll(async () => Number(await cellText(page, 1, 14)).toFixed(4)).toBe("0.0216");

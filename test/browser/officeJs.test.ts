@@ -36,7 +36,9 @@ function violations(page: Page): Promise<Violation[]> {
 }
 
 function registeredIds(page: Page): Promise<string[]> {
-  return page.evaluate(() => Object.keys((window as unknown as { CustomFunctions: { _association: { mappings: object } } }).CustomFunctions._association.mappings));
+  return page.evaluate(() =>
+    Object.keys((window as unknown as { CustomFunctions: { _association: { mappings: object } } }).CustomFunctions._association.mappings),
+  );
 }
 
 describe.skipIf(!run)("taskpane.html under the real Office.js", () => {
@@ -73,14 +75,25 @@ describe.skipIf(!run)("taskpane.html under the real Office.js", () => {
     const pageErrors: string[] = [];
     page.on("pageerror", (e) => pageErrors.push(e.message));
     await page.goto(`${session.origin}/taskpane.html${AS_EXCEL_ON_THE_WEB}`);
-    await page.waitForFunction(() => typeof (window as unknown as { CustomFunctions: { Error?: unknown } }).CustomFunctions.Error === "function", undefined, {
-      timeout: 15_000,
-    });
+    await page.waitForFunction(
+      () => typeof (window as unknown as { CustomFunctions: { Error?: unknown } }).CustomFunctions.Error === "function",
+      undefined,
+      {
+        timeout: 15_000,
+      },
+    );
     expect(asked.some((url) => url.endsWith("/excel-web-16.00.js"))).toBe(true);
-    expect((await registeredIds(page)).sort()).toEqual(metadataIds().map((id) => id.toUpperCase()).sort());
+    expect((await registeredIds(page)).sort()).toEqual(
+      metadataIds()
+        .map((id) => id.toUpperCase())
+        .sort(),
+    );
     const answers = await page.evaluate(() => {
-      const runtime = (window as unknown as { CustomFunctions: { Error: new () => object; _association: { mappings: Record<string, (...a: unknown[]) => unknown> } } })
-        .CustomFunctions;
+      const runtime = (
+        window as unknown as {
+          CustomFunctions: { Error: new () => object; _association: { mappings: Record<string, (...a: unknown[]) => unknown> } };
+        }
+      ).CustomFunctions;
       const pvalue = runtime._association.mappings.PVALUE;
       const describe = (value: unknown) => ({
         isHostError: value instanceof runtime.Error,
@@ -94,7 +107,12 @@ describe.skipIf(!run)("taskpane.html under the real Office.js", () => {
     });
     // The shape Excel's host script gives an error value (excel-web-16.00.debug.js, CustomFunctionError.toJSON).
     expect(answers.badArgument.isHostError).toBe(true);
-    expect(answers.badArgument.json).toMatchObject({ valueType: "CustomFunctionError", code: "#VALUE!", basicValue: "#VALUE!", errorType: "Value" });
+    expect(answers.badArgument.json).toMatchObject({
+      valueType: "CustomFunctionError",
+      code: "#VALUE!",
+      basicValue: "#VALUE!",
+      errorType: "Value",
+    });
     expect((answers.badArgument.json as { message: string }).message).toMatch(/hypothesized_median/);
     expect(answers.allTies.isHostError).toBe(true);
     expect(answers.allTies.json).toMatchObject({ valueType: "CustomFunctionError", code: "#N/A", errorType: "NotAvailable" });
@@ -109,7 +127,9 @@ describe.skipIf(!run)("taskpane.html under the real Office.js", () => {
     const page = await session.context.newPage();
     // Internet Explorer 11's user agent as webviews report it (Microsoft's page on older webviews looks for "Trident").
     await page.addInitScript(() =>
-      Object.defineProperty(navigator, "userAgent", { get: () => "Mozilla/5.0 (Windows NT 10.0; WOW64; Trident/7.0; .NET4.0C; .NET4.0E; rv:11.0) like Gecko" }),
+      Object.defineProperty(navigator, "userAgent", {
+        get: () => "Mozilla/5.0 (Windows NT 10.0; WOW64; Trident/7.0; .NET4.0C; .NET4.0E; rv:11.0) like Gecko",
+      }),
     );
     await page.goto(`${session.origin}/taskpane.html`);
     await page.getByRole("heading", { name: "Evensplit needs a newer Office" }).waitFor();

@@ -60,7 +60,11 @@ async function tabTo(page: Page, matches: (name: string, tag: string) => boolean
 
 /** The value the preview shows on the row labelled exactly `label`. */
 function previewValue(page: Page, label: string): Promise<string> {
-  return page.locator(".es-preview tbody tr").filter({ has: page.getByRole("rowheader", { name: label, exact: true }) }).locator("td").innerText();
+  return page
+    .locator(".es-preview tbody tr")
+    .filter({ has: page.getByRole("rowheader", { name: label, exact: true }) })
+    .locator("td")
+    .innerText();
 }
 
 async function statusText(page: Page): Promise<string> {
@@ -124,7 +128,10 @@ describe.skipIf(!run)("the pane on the demo page", () => {
     expect(await chart.innerText()).toContain("of 'Paint line'!B1:B25");
     const pLine = await rowOfLabel(page, 4, "p-value");
     expect(await cellText(page, pLine, 5)).toBe(expected);
-    const formula = await page.evaluate(([sheet, row]) => window.evensplitDemo?.workbook.entry(sheet as string, row as number, 5), [SHEET, pLine]);
+    const formula = await page.evaluate(
+      ([sheet, row]) => window.evensplitDemo?.workbook.entry(sheet as string, row as number, 5),
+      [SHEET, pLine],
+    );
     expect(formula).toBe('=EVENSPLIT.PVALUE(Table1[[Thickness (µm)]],50,"greater","drop","exact")');
     await snap(page, "05-one-sample-written", true);
 

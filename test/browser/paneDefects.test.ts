@@ -34,7 +34,11 @@ function twoSided(k: number, n: number): string {
 const status = (page: Page): Promise<string> => page.locator(".es-status").innerText();
 
 function previewValue(page: Page, label: string): Promise<string> {
-  return page.locator(".es-preview tbody tr").filter({ has: page.getByRole("rowheader", { name: label, exact: true }) }).locator("td").innerText();
+  return page
+    .locator(".es-preview tbody tr")
+    .filter({ has: page.getByRole("rowheader", { name: label, exact: true }) })
+    .locator("td")
+    .innerText();
 }
 
 async function typeRange(page: Page, label: string, address: string): Promise<void> {
@@ -132,7 +136,13 @@ describe.skipIf(!browserAvailable())("the pane's defects, on the demo page", () 
     const focus = await page.evaluate(() => {
       const active = document.activeElement as HTMLElement;
       const box = active.getBoundingClientRect();
-      return { tag: active.tagName.toLowerCase(), text: active.textContent ?? "", top: box.top, bottom: box.bottom, height: window.innerHeight };
+      return {
+        tag: active.tagName.toLowerCase(),
+        text: active.textContent ?? "",
+        top: box.top,
+        bottom: box.bottom,
+        height: window.innerHeight,
+      };
     });
     expect(focus.tag).not.toBe("body");
     expect(focus.text).toContain("The block was written");
@@ -154,7 +164,14 @@ describe.skipIf(!browserAvailable())("the pane's defects, on the demo page", () 
       const l = label.getBoundingClientRect();
       const a = axis.getBoundingClientRect();
       const figure = svg.closest("figure");
-      return { left: l.left - s.left, right: s.right - l.right, labelBottom: l.bottom, axisTop: a.top, caption: figure?.querySelector("figcaption")?.textContent ?? "", plots: figure?.querySelectorAll(".es-plot").length ?? 0 };
+      return {
+        left: l.left - s.left,
+        right: s.right - l.right,
+        labelBottom: l.bottom,
+        axisTop: a.top,
+        caption: figure?.querySelector("figcaption")?.textContent ?? "",
+        plots: figure?.querySelectorAll(".es-plot").length ?? 0,
+      };
     });
     expect(geometry.left).toBeGreaterThanOrEqual(0);
     expect(geometry.right).toBeGreaterThanOrEqual(0);

@@ -53,7 +53,10 @@ describe.skipIf(!browserAvailable())("results out of the pane", () => {
     await page.evaluate(() => {
       window.addEventListener("copy", (event) => {
         const data = (event as ClipboardEvent).clipboardData;
-        (window as unknown as { copied: { text: string; html: string } }).copied = { text: data?.getData("text/plain") ?? "", html: data?.getData("text/html") ?? "" };
+        (window as unknown as { copied: { text: string; html: string } }).copied = {
+          text: data?.getData("text/plain") ?? "",
+          html: data?.getData("text/html") ?? "",
+        };
       });
     });
     await page.getByRole("button", { name: "Copy as text" }).click();

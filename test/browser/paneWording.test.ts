@@ -60,10 +60,13 @@ describe.skipIf(!browserAvailable())("the pane's wording, on the demo page", () 
       expect(headers).not.toContain("Row");
       expect(headers).not.toContain("Value");
       await page.locator(".es-details summary").click();
-      const breaking = await page.locator(".es-formulas code").first().evaluate((code) => {
-        const style = getComputedStyle(code);
-        return { wordBreak: style.wordBreak, wrap: style.overflowWrap, chances: code.querySelectorAll("wbr").length };
-      });
+      const breaking = await page
+        .locator(".es-formulas code")
+        .first()
+        .evaluate((code) => {
+          const style = getComputedStyle(code);
+          return { wordBreak: style.wordBreak, wrap: style.overflowWrap, chances: code.querySelectorAll("wbr").length };
+        });
       expect(breaking.wordBreak).not.toBe("break-all");
       expect(breaking.wrap).not.toBe("anywhere");
       expect(breaking.chances).toBeGreaterThan(0);

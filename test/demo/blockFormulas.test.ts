@@ -82,14 +82,18 @@ describe("the block's formulas in the demo sheet agree with REPORT's direct eval
   it.each(ONE_SAMPLE.map((r) => [`${r.test} ${r.alternative}`, r] as const))("one sample, exact cells: %s", (_, request) => {
     const workbook = sheetWithData();
     const values = sheetValues(workbook, request, { data: "$B$2:$B$25" });
-    resultBlockRows(request).forEach((row, i) => expectSame(values[i], blockValue(row.value, { data: column(1) }, callFunction), row.label));
+    resultBlockRows(request).forEach((row, i) =>
+      expectSame(values[i], blockValue(row.value, { data: column(1) }, callFunction), row.label),
+    );
   });
 
   it.each(ONE_SAMPLE.map((r) => [`${r.test} ${r.alternative}`, r] as const))("one sample, table column: %s", (_, request) => {
     const workbook = sheetWithData();
     workbook.addTable(DEMO_SHEET, { top: 0, left: 0, bottom: 24, right: 2 });
     const values = sheetValues(workbook, request, { data: "Table1[Thickness (µm)]" });
-    resultBlockRows(request).forEach((row, i) => expectSame(values[i], blockValue(row.value, { data: column(1) }, callFunction), row.label));
+    resultBlockRows(request).forEach((row, i) =>
+      expectSame(values[i], blockValue(row.value, { data: column(1) }, callFunction), row.label),
+    );
   });
 
   it.each(PAIRED.map((r) => [`${r.test} ${r.alternative}`, r] as const))("pairs, exact cells and table columns: %s", (_, request) => {

@@ -7,8 +7,18 @@ import { chartColumns } from "../../src/demo/chartColumns";
 
 describe("chartColumns", () => {
   it("draws one column per row while the rows are few, text and blanks without a bar", () => {
-    expect(chartColumns([[51.8, 50.2], ["note", null], [49.6, 49.1]])).toEqual({
-      columns: [[51.8, 50.2], [null, null], [49.6, 49.1]],
+    expect(
+      chartColumns([
+        [51.8, 50.2],
+        ["note", null],
+        [49.6, 49.1],
+      ]),
+    ).toEqual({
+      columns: [
+        [51.8, 50.2],
+        [null, null],
+        [49.6, 49.1],
+      ],
       rowsPerColumn: 1,
       highest: 51.8,
     });

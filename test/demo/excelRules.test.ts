@@ -25,14 +25,18 @@ describe("references to a sheet that is not there", () => {
   });
 });
 
-describe("a new table's header row (Microsoft, \"Overview of Excel tables\"; numbering of repeats from memory)", () => {
+describe('a new table\'s header row (Microsoft, "Overview of Excel tables"; numbering of repeats from memory)', () => {
   it("turns numbers into text, names blanks ColumnN and makes repeated names unique", () => {
     expect(tableHeaders(["Thickness", "thickness", 2024, null, true])).toEqual(["Thickness", "thickness2", "2024", "Column4", "TRUE"]);
   });
 
   it("writes those names into the sheet, so a structured reference must use them", () => {
     const w = new Workbook([S]);
-    w.writeEntries(S, 0, 0, [["Thickness", "Thickness", 2024, ""], [1, 2, 3, 4], [5, 6, 7, 8]]);
+    w.writeEntries(S, 0, 0, [
+      ["Thickness", "Thickness", 2024, ""],
+      [1, 2, 3, 4],
+      [5, 6, 7, 8],
+    ]);
     w.addTable(S, { top: 0, left: 0, bottom: 2, right: 3 });
     expect(w.tableColumns(w.tables[0])).toEqual(["Thickness", "Thickness2", "2024", "Column4"]);
     expect(w.entry(S, 0, 2)).toBe("2024");
@@ -105,7 +109,7 @@ describe("the Excel stand-in refuses what Excel refuses", () => {
   });
 });
 
-describe("the used range (Microsoft, \"Excel.Worksheet class\", getUsedRangeOrNullObject(valuesOnly))", () => {
+describe('the used range (Microsoft, "Excel.Worksheet class", getUsedRangeOrNullObject(valuesOnly))', () => {
   it("counts cells that only carry a format unless asked for values only", async () => {
     const w = new Workbook([S]);
     w.writeEntries(S, 0, 0, [["Thickness"], [50]]);
@@ -138,8 +142,8 @@ describe("proxies belong to their own Excel.run (office-js CommonUtility.validat
   });
 });
 
-describe("null and empty text in what the API writes (Microsoft, \"Blank and null values in Excel add-ins\")", () => {
-  it("leaves a cell given null as it is and clears a cell given \"\"", async () => {
+describe('null and empty text in what the API writes (Microsoft, "Blank and null values in Excel add-ins")', () => {
+  it('leaves a cell given null as it is and clears a cell given ""', async () => {
     const w = new Workbook([S]);
     w.writeEntries(S, 0, 0, [["keep", "clear", "old"]]);
     w.setFormat(S, { top: 0, left: 0, bottom: 0, right: 2 }, { numberFormat: "0.00" });
@@ -162,7 +166,7 @@ describe("null and empty text in what the API writes (Microsoft, \"Blank and nul
   });
 });
 
-describe("spilling (Microsoft, \"How to correct a #SPILL! error\")", () => {
+describe('spilling (Microsoft, "How to correct a #SPILL! error")', () => {
   const pair: CustomFunction = { fn: () => [[1, 2]], shapes: [], result: "matrix" };
 
   it("is #SPILL! for an array formula inside a table or one whose spill would reach into a table", () => {
@@ -187,7 +191,7 @@ describe("spilling (Microsoft, \"How to correct a #SPILL! error\")", () => {
   });
 });
 
-describe("defined names (Microsoft, \"Define and use names in formulas\")", () => {
+describe('defined names (Microsoft, "Define and use names in formulas")', () => {
   it("refuses names that read as a cell in either reference style", async () => {
     for (const name of ["R1C1", "R2", "C3", "RC", "AB12", "has space"]) {
       const w = new Workbook([S]);
@@ -207,7 +211,7 @@ describe("defined names (Microsoft, \"Define and use names in formulas\")", () =
   });
 });
 
-describe("payload of one sync (Microsoft, \"Resource limits and performance optimization for Office Add-ins\": 5 MB on the web)", () => {
+describe('payload of one sync (Microsoft, "Resource limits and performance optimization for Office Add-ins": 5 MB on the web)', () => {
   it("refuses to load the values of a whole column in one sync, and loads a used range", async () => {
     const w = new Workbook([S]);
     w.writeEntries(S, 0, 0, [["Thickness"], [50]]);
@@ -242,7 +246,7 @@ describe("payload of one sync (Microsoft, \"Resource limits and performance opti
   });
 });
 
-describe("functions Excel knows only through their metadata (Microsoft, \"Manually create JSON metadata for custom functions\")", () => {
+describe('functions Excel knows only through their metadata (Microsoft, "Manually create JSON metadata for custom functions")', () => {
   it("leaves out a registered function the metadata does not declare, and reads each answer's declared shape", () => {
     const registered = new Map([
       ["PVALUE", () => 0.5],
@@ -259,7 +263,7 @@ describe("functions Excel knows only through their metadata (Microsoft, \"Manual
 });
 
 describe("blank cells handed to a function as 0, as some Excel builds do (office-js issues 5262, 1951)", () => {
-  it("passes \"\" by default and 0 once switched, and the block's blank check then warns", async () => {
+  it('passes "" by default and 0 once switched, and the block\'s blank check then warns', async () => {
     const seen: unknown[] = [];
     const echo: CustomFunction = { fn: (cells: unknown) => (seen.push(cells), 1), shapes: ["matrix"], result: "scalar" };
     const w = new Workbook([S]);
@@ -274,10 +278,27 @@ describe("blank cells handed to a function as 0, as some Excel builds do (office
       sheet.writeEntries(DEMO_SHEET, 0, 0, demoRows());
       sheet.setFunctions(functions);
       sheet.setBlanksAsZeros(zeros);
-      const request: BlockRequest = { test: "sign", paired: false, center: 50, alternative: "two-sided", alpha: 0.05, confidence: 0.95, dataName: "Thickness (µm)" };
+      const request: BlockRequest = {
+        test: "sign",
+        paired: false,
+        center: 50,
+        alternative: "two-sided",
+        alpha: 0.05,
+        confidence: 0.95,
+        dataName: "Thickness (µm)",
+      };
       const rows = resultBlockRows(request);
-      sheet.writeEntries(DEMO_SHEET, 0, 5, rows.map((row) => [blockFormula(row.value, { data: "$B$2:$B$26" })]));
-      return sheet.value(DEMO_SHEET, rows.findIndex((r) => r.key === "blanks"), 5);
+      sheet.writeEntries(
+        DEMO_SHEET,
+        0,
+        5,
+        rows.map((row) => [blockFormula(row.value, { data: "$B$2:$B$26" })]),
+      );
+      return sheet.value(
+        DEMO_SHEET,
+        rows.findIndex((r) => r.key === "blanks"),
+        5,
+      );
     };
     const functions = await catalogueFunctions();
     expect([block(false), block(true)]).toEqual([BLANK_CHECK_WORDS.agree, BLANK_CHECK_WORDS.differ]);

@@ -36,10 +36,13 @@ function context(functions: Record<string, CustomFunction> = {}): EvaluationCont
       return rows;
     },
     tableColumn: (table, column) =>
-      table === "T" && column === "Value" ? { kind: "reference", sheet: "S", rect: { top: 0, left: 0, bottom: 4, right: 0 } } : errorValue("#REF!", "no such column"),
+      table === "T" && column === "Value"
+        ? { kind: "reference", sheet: "S", rect: { top: 0, left: 0, bottom: 4, right: 0 } }
+        : errorValue("#REF!", "no such column"),
     customFunction: (id) => functions[id],
     // One defined name, "firstTwo", for A1:A2.
-    definedName: (name) => (name.toLowerCase() === "firsttwo" ? { kind: "reference", sheet: "S", rect: { top: 0, left: 0, bottom: 1, right: 0 } } : undefined),
+    definedName: (name) =>
+      name.toLowerCase() === "firsttwo" ? { kind: "reference", sheet: "S", rect: { top: 0, left: 0, bottom: 1, right: 0 } } : undefined,
   };
 }
 
@@ -60,7 +63,18 @@ describe("tokenize", () => {
   });
 
   it("refuses structured references Excel refuses: special characters in single brackets, bad escapes, unclosed brackets", () => {
-    for (const text of ["T[Temp. °C]", "T[pH-value]", "T[A/B]", "T[Weight, g]", "T[Lot #3]", "T[a[1]", "T[[it's]]", "T[[x]", "T[[A]:[B]]", "T[]"]) {
+    for (const text of [
+      "T[Temp. °C]",
+      "T[pH-value]",
+      "T[A/B]",
+      "T[Weight, g]",
+      "T[Lot #3]",
+      "T[a[1]",
+      "T[[it's]]",
+      "T[[x]",
+      "T[[A]:[B]]",
+      "T[]",
+    ]) {
       expect(() => tokenize(text), text).toThrow(FormulaSyntaxError);
     }
   });
@@ -109,7 +123,11 @@ describe("evaluate: operators", () => {
 
 describe("evaluate: built-in functions", () => {
   it("INDEX picks a cell of a range or a list; outside it is #REF!", () => {
-    expect(evaluate(parseFormula("INDEX(A1:B2,1,2)"), context())).toEqual({ kind: "reference", sheet: "S", rect: { top: 0, left: 1, bottom: 0, right: 1 } });
+    expect(evaluate(parseFormula("INDEX(A1:B2,1,2)"), context())).toEqual({
+      kind: "reference",
+      sheet: "S",
+      rect: { top: 0, left: 1, bottom: 0, right: 1 },
+    });
     expect(calc("INDEX(A1:B2,1,2)+0")).toBe(10);
     expect((calc("INDEX(A1:B2,3,1)") as { code: string }).code).toBe("#REF!");
   });
@@ -132,7 +150,7 @@ describe("evaluate: built-in functions", () => {
     expect((calc('IF(1/0,"a","b")') as { code: string }).code).toBe("#DIV/0!");
   });
 
-  it("refuses more than 255 arguments or calls nested deeper than 64 (Microsoft, \"Excel specifications and limits\")", () => {
+  it('refuses more than 255 arguments or calls nested deeper than 64 (Microsoft, "Excel specifications and limits")', () => {
     const nested = (depth: number): string => `${"IF(TRUE,".repeat(depth)}1${")".repeat(depth)}`;
     expect(calc(nested(64))).toBe(1);
     expect(() => parseFormula(nested(65))).toThrow(FormulaSyntaxError);
@@ -146,7 +164,7 @@ describe("evaluate: built-in functions", () => {
     expect((calc("nosuch+1") as { code: string }).code).toBe("#NAME?");
   });
 
-  it("a defined name stands for its cells, in any case (Microsoft, \"Define and use names in formulas\")", () => {
+  it('a defined name stands for its cells, in any case (Microsoft, "Define and use names in formulas")', () => {
     expect(calc("COUNT(FirstTwo)")).toBe(2);
     expect(calc("INDEX(firsttwo,2,1)*3")).toBe(6);
     expect(() => parseFormula("A1+")).toThrow(FormulaSyntaxError);
@@ -164,7 +182,7 @@ describe("evaluate: custom functions", () => {
     result: "matrix",
   };
 
-  it("passes a range as a matrix with \"\" for blanks, a one-cell reference as its value, an omitted argument as null", () => {
+  it('passes a range as a matrix with "" for blanks, a one-cell reference as its value, an omitted argument as null', () => {
     seen.length = 0;
     const result = calc("EVENSPLIT.ECHO(A1:A4,B1,)", { ECHO: echo });
     expect(seen[0]).toEqual([[[1], [2], [""], [4]], 10, null]);
@@ -173,12 +191,16 @@ describe("evaluate: custom functions", () => {
   });
 
   it("turns error objects a function answers with into cell errors, and a missing function into #NAME?", () => {
-    const failing: CustomFunction = { fn: () => ({ code: "#N/A", message: "No numbers in the range." }), shapes: ["matrix"], result: "scalar" };
+    const failing: CustomFunction = {
+      fn: () => ({ code: "#N/A", message: "No numbers in the range." }),
+      shapes: ["matrix"],
+      result: "scalar",
+    };
     expect(calc("EVENSPLIT.FAIL(A1:A4)", { FAIL: failing })).toEqual(errorValue("#N/A", "No numbers in the range."));
     expect((calc("EVENSPLIT.MISSING(A1)") as { code: string }).code).toBe("#NAME?");
   });
 
-  it("holds a number below 2.2251E-308 as 0 (Microsoft, \"Excel specifications and limits\"; the flush to zero from memory)", () => {
+  it('holds a number below 2.2251E-308 as 0 (Microsoft, "Excel specifications and limits"; the flush to zero from memory)', () => {
     const tiny: CustomFunction = { fn: () => [[1e-320, 2.5e-308]], shapes: [], result: "matrix" };
     expect(calc("EVENSPLIT.TINY()", { TINY: tiny })).toEqual({ kind: "matrix", rows: [[0, 2.5e-308]] });
     expect(calc("1E-200*1E-200")).toBe(0);
@@ -202,7 +224,7 @@ describe("evaluate: custom functions", () => {
     expect(calc("EVENSPLIT.HOLES()", { HOLES: withNull })).toEqual({ kind: "matrix", rows: [[1, 0, ""]] });
   });
 
-  it("does not call the function when a range argument holds an error cell (Microsoft, \"Handle and return errors from your custom function\")", () => {
+  it('does not call the function when a range argument holds an error cell (Microsoft, "Handle and return errors from your custom function")', () => {
     seen.length = 0;
     const withError: EvaluationContext = { ...context({ ECHO: echo }), read: () => [[1], [errorValue("#N/A", "no value")], [3]] };
     expect(evaluate(parseFormula("EVENSPLIT.ECHO(A1:A3,1)"), withError)).toEqual(errorValue("#N/A", "no value"));

@@ -70,7 +70,11 @@ describe("entries and recalculation", () => {
 
 describe("tables", () => {
   it("names tables Table1, Table2, ... and refuses overlapping ones", () => {
-    const w = sheetWith([["x", "y"], [1, 2], [3, 4]]);
+    const w = sheetWith([
+      ["x", "y"],
+      [1, 2],
+      [3, 4],
+    ]);
     expect(w.addTable(S, { top: 0, left: 0, bottom: 2, right: 0 }).name).toBe("Table1");
     expect(w.addTable(S, { top: 0, left: 1, bottom: 2, right: 1 }).name).toBe("Table2");
     expect(() => w.addTable(S, { top: 0, left: 0, bottom: 1, right: 1 })).toThrow(/overlap/);
@@ -88,7 +92,7 @@ describe("tables", () => {
     expect(w.tables[0].rect.bottom).toBe(3);
   });
 
-  it("grows by every row of a paste just below it, down to the last row with an entry (Microsoft, \"Overview of Excel tables\")", () => {
+  it('grows by every row of a paste just below it, down to the last row with an entry (Microsoft, "Overview of Excel tables")', () => {
     const w = sheetWith([["Value"], [1], [2]]);
     w.addTable(S, { top: 0, left: 0, bottom: 2, right: 0 });
     w.writeEntries(S, 3, 0, [["4"], ["5"], ["6"], [""]], true);
@@ -98,7 +102,14 @@ describe("tables", () => {
   it("keeps a chart made on a table's columns linked to the table as it grows", () => {
     const w = sheetWith([["Value"], [1], [2]]);
     w.addTable(S, { top: 0, left: 0, bottom: 2, right: 0 });
-    const chart = w.addChart({ type: "ColumnClustered", sheet: S, source: { top: 0, left: 0, bottom: 2, right: 0 }, title: "", from: "C1", to: "H10" });
+    const chart = w.addChart({
+      type: "ColumnClustered",
+      sheet: S,
+      source: { top: 0, left: 0, bottom: 2, right: 0 },
+      title: "",
+      from: "C1",
+      to: "H10",
+    });
     w.writeEntries(S, 3, 0, [[3]], true);
     expect(w.chartSource(chart)).toEqual({ top: 0, left: 0, bottom: 3, right: 0 });
   });
@@ -158,7 +169,9 @@ describe("the Excel stand-in", () => {
     expect(await host.usedRect(S)).toEqual({ top: 0, left: 0, bottom: 3, right: 0 });
     expect(await host.tables(S)).toEqual([]);
     w.addTable(S, { top: 0, left: 0, bottom: 3, right: 0 });
-    expect(await host.tables(S)).toEqual([{ name: "Table1", sheet: S, rect: { top: 0, left: 0, bottom: 3, right: 0 }, columns: ["Thickness"] }]);
+    expect(await host.tables(S)).toEqual([
+      { name: "Table1", sheet: S, rect: { top: 0, left: 0, bottom: 3, right: 0 }, columns: ["Thickness"] },
+    ]);
     expect(await createHost(fakeRun(new Workbook([S]))).usedRect(S)).toBeNull();
   });
 });
@@ -182,7 +195,11 @@ describe("recalculating only what depends on a change", () => {
 
   it("calls again only the functions whose ranges hold the changed cell, and gets the same answers as a full recalculation", () => {
     const sum = counted();
-    const w = sheetWith([[1, 10, "=EVENSPLIT.SUM(A1:A3)", "=EVENSPLIT.SUM(B1:B3)"], [2, 20], [3, 30]]);
+    const w = sheetWith([
+      [1, 10, "=EVENSPLIT.SUM(A1:A3)", "=EVENSPLIT.SUM(B1:B3)"],
+      [2, 20],
+      [3, 30],
+    ]);
     w.setFunctions(new Map([["SUM", sum.fn]]));
     const before = sum.calls();
     w.writeEntries(S, 1, 0, [[5]], true);
@@ -209,7 +226,13 @@ describe("recalculating only what depends on a change", () => {
   it("gets many dependents right too, where it recalculates everything instead of tracing them", () => {
     const rows = Array.from({ length: 600 }, (_, r) => [r, `=A${r + 1}+1`]);
     const w = sheetWith(rows);
-    w.writeEntries(S, 0, 0, rows.map((_, r) => [r * 2]), true);
+    w.writeEntries(
+      S,
+      0,
+      0,
+      rows.map((_, r) => [r * 2]),
+      true,
+    );
     // Exact arithmetic: B600 = A600 + 1 = 599 × 2 + 1.
     expect(w.value(S, 599, 1)).toBe(1199);
     w.writeEntries(S, 0, 0, [[-5]], true);

@@ -49,7 +49,6 @@ function expectClose(actual: unknown, expected: number, what: string): void {
   expect(error <= TOLERANCE * Math.abs(expected), `${what}: got ${actual as number}, expected ${expected}`).toBe(true);
 }
 
-
 function shuffle<T>(items: T[], next: () => number): T[] {
   for (let i = items.length - 1; i > 0; i--) {
     const j = Math.floor(next() * (i + 1));
@@ -82,7 +81,11 @@ describe("sign test through the bundle matches R", () => {
       const data = thicknesses(c.below, c.above, i % 4, TARGET, i + 1);
       const check = (alternative: string, method: string, expected: number | null) => {
         if (expected === null) return;
-        expectClose(bundle.call("PVALUE", data, TARGET, alternative, null, method), expected, `PVALUE ${c.below}/${c.above} ${alternative} ${method}`);
+        expectClose(
+          bundle.call("PVALUE", data, TARGET, alternative, null, method),
+          expected,
+          `PVALUE ${c.below}/${c.above} ${alternative} ${method}`,
+        );
       };
       check("greater", "exact", c.greater);
       check("less", "exact", c.less);
@@ -163,7 +166,9 @@ describe("order-statistic bounds through the bundle match R's ranks and coverage
 });
 
 describe("signed-rank test and Hodges–Lehmann through the bundle match R", () => {
-  const signedRank = JSON.parse(readFileSync(new URL("../fixtures/signedRank.json", import.meta.url), "utf8")) as { cases: SignedRankCase[] };
+  const signedRank = JSON.parse(readFileSync(new URL("../fixtures/signedRank.json", import.meta.url), "utf8")) as {
+    cases: SignedRankCase[];
+  };
 
   it("SIGNRANK (exact and normal), SIGNRANKSTATISTIC and HODGESLEHMANN", () => {
     expect(signedRank.cases.length).toBeGreaterThan(300);
@@ -183,7 +188,11 @@ describe("signed-rank test and Hodges–Lehmann through the bundle match R", () 
           for (const cell of row.slice(1)) expect((cell as StandInError).code, label).toBe("#N/A");
           const walsh = c.x.flatMap((a, i) => c.x.slice(i).map((b) => (a + b) / 2)).sort((a, b) => a - b);
           const m = walsh.length;
-          expectClose(row[0], m % 2 ? walsh[(m - 1) / 2] : (walsh[m / 2 - 1] + walsh[m / 2]) / 2, `${label} estimate (all Walsh averages, brute force)`);
+          expectClose(
+            row[0],
+            m % 2 ? walsh[(m - 1) / 2] : (walsh[m / 2 - 1] + walsh[m / 2]) / 2,
+            `${label} estimate (all Walsh averages, brute force)`,
+          );
           return;
         }
         expectClose(row[0], interval.estimate, `${label} estimate`);

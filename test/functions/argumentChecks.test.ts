@@ -60,20 +60,27 @@ describe("fractionArgument", () => {
   });
 
   it("refuses 0, 1 and beyond, and suggests the fraction for a percentage", () => {
-    for (const x of [0, 1, -0.1, 1.5, 100]) expect(refusal(() => fractionArgument("confidence", x, 0.95))).toMatch(/strictly between 0 and 1/);
+    for (const x of [0, 1, -0.1, 1.5, 100])
+      expect(refusal(() => fractionArgument("confidence", x, 0.95))).toMatch(/strictly between 0 and 1/);
     expect(refusal(() => fractionArgument("confidence", 95, 0.95))).toBe(
       "Argument confidence must lie strictly between 0 and 1, such as 0.95; got 95. For 95% write 0.95.",
     );
-    expect(refusal(() => fractionArgument("quantile", null, undefined, "0.9"))).toMatch(/^Argument quantile is missing\. Give a number, such as 0\.9,/);
+    expect(refusal(() => fractionArgument("quantile", null, undefined, "0.9"))).toMatch(
+      /^Argument quantile is missing\. Give a number, such as 0\.9,/,
+    );
   });
 });
 
 describe("probabilityArgument", () => {
   it("accepts 0 to 1 inclusive and refuses the rest", () => {
     for (const x of [0, 0.75, 1]) expect(probabilityArgument("p_above", x, "0.75")).toBe(x);
-    expect(refusal(() => probabilityArgument("p_above", 75, "0.75"))).toBe("Argument p_above must lie between 0 and 1, such as 0.75; got 75. For 75% write 0.75.");
+    expect(refusal(() => probabilityArgument("p_above", 75, "0.75"))).toBe(
+      "Argument p_above must lie between 0 and 1, such as 0.75; got 75. For 75% write 0.75.",
+    );
     expect(refusal(() => probabilityArgument("p_above", -0.1, "0.75"))).toMatch(/^Argument p_above must lie between 0 and 1/);
-    expect(refusal(() => probabilityArgument("p_above", null, "0.75"))).toMatch(/^Argument p_above is missing\. Give a number, such as 0\.75,/);
+    expect(refusal(() => probabilityArgument("p_above", null, "0.75"))).toMatch(
+      /^Argument p_above is missing\. Give a number, such as 0\.75,/,
+    );
   });
 });
 
@@ -81,13 +88,17 @@ describe("sampleSizeArgument", () => {
   it("accepts whole numbers from 1 to 1e9 only", () => {
     expect(sampleSizeArgument("n", 1)).toBe(1);
     expect(sampleSizeArgument("n", LARGEST_N)).toBe(1e9);
-    for (const x of [0, -3, 2.5, 1e9 + 1]) expect(refusal(() => sampleSizeArgument("n", x))).toMatch(/^Argument n must be a whole number from 1/);
+    for (const x of [0, -3, 2.5, 1e9 + 1])
+      expect(refusal(() => sampleSizeArgument("n", x))).toMatch(/^Argument n must be a whole number from 1/);
   });
 });
 
 describe("range arguments", () => {
   it("takes a matrix as it is and a single value as a one-cell range", () => {
-    const m = [[1, 2], [3, 4]];
+    const m = [
+      [1, 2],
+      [3, 4],
+    ];
     expect(cellsArgument("data", m)).toBe(m);
     expect(cellsArgument("data", 7)).toEqual([[7]]);
     expect(cellsArgument("data", null)).toEqual([[null]]);

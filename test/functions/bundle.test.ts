@@ -61,7 +61,10 @@ describe("dist/functions.js", () => {
 
   it("marks the catalogue's optional arguments as optional, in the catalogue's order", () => {
     const signature = (id: string) =>
-      metadata.functions.find((f) => f.id === id)!.parameters.map((p) => (p.optional ? `[${p.name}]` : p.name)).join(", ");
+      metadata.functions
+        .find((f) => f.id === id)!
+        .parameters.map((p) => (p.optional ? `[${p.name}]` : p.name))
+        .join(", ");
     expect(signature("PVALUE")).toBe("data, hypothesized_median, [alternative], [ties], [method]");
     expect(signature("PAIRED")).toBe("first, second, [shift], [alternative], [ties], [method]");
     expect(signature("QUANTILEPVALUE")).toBe("data, value, quantile, [alternative]");
@@ -82,10 +85,15 @@ describe("dist/functions.js", () => {
   });
 
   it("answers a bad word with #VALUE! listing what is accepted", () => {
-    expectError(bundle.call("PVALUE", col(1, 2), 0, "upwards"), "#VALUE!", /For alternative, "upwards" is not accepted\. Use two-sided .*greater .*less/);
+    expectError(
+      bundle.call("PVALUE", col(1, 2), 0, "upwards"),
+      "#VALUE!",
+      /For alternative, "upwards" is not accepted\. Use two-sided .*greater .*less/,
+    );
     const row = (bundle.call("BOUNDS", col(1, 2), 0.95, "middle") as unknown[][])[0];
     expect(row).toHaveLength(3);
-    for (const cell of row) expectError(cell, "#VALUE!", /^For side, "middle" is not accepted\. Use two-sided \(the default\), lower or upper\.$/);
+    for (const cell of row)
+      expectError(cell, "#VALUE!", /^For side, "middle" is not accepted\. Use two-sided \(the default\), lower or upper\.$/);
   });
 
   it("answers data that cannot give a result with #N/A and the reason", () => {

@@ -67,7 +67,12 @@ describe("mapping failures", () => {
   });
 
   it("never shows the text of any other exception", () => {
-    for (const thrown of [new TypeError("Cannot read properties of undefined (reading 'length')"), new RangeError("countSigns: value 3 is NaN"), "boom", 42]) {
+    for (const thrown of [
+      new TypeError("Cannot read properties of undefined (reading 'length')"),
+      new RangeError("countSigns: value 3 is NaN"),
+      "boom",
+      42,
+    ]) {
       const e = errorFor(thrown);
       expect(e).toEqual({ code: "#VALUE!", message: GENERIC_MESSAGE });
       expect(e.message).not.toMatch(/undefined|countSigns|boom|42/);
@@ -91,7 +96,16 @@ describe("mapping failures", () => {
   it("fills the whole row with the error, so every INDEX into it shows it", () => {
     const na = cellError("#N/A", "too few");
     expect(oneRow(4, () => na)).toEqual([[na, na, na, na]]);
-    expect(oneRow(2, () => { throw new BadArgument("side"); })).toEqual([[{ code: "#VALUE!", message: "side" }, { code: "#VALUE!", message: "side" }]]);
+    expect(
+      oneRow(2, () => {
+        throw new BadArgument("side");
+      }),
+    ).toEqual([
+      [
+        { code: "#VALUE!", message: "side" },
+        { code: "#VALUE!", message: "side" },
+      ],
+    ]);
     expect(oneRow(3, () => [1, "", 0.95])).toEqual([[1, "", 0.95]]);
   });
 });

@@ -124,7 +124,11 @@ describe("signed-rank and Hodges–Lehmann functions", () => {
 
   it("refuse the exact method beyond the size the core enumerates, instead of quietly approximating", () => {
     const big = col(...Array.from({ length: 1500 }, (_, i) => 50 + (i % 2 === 0 ? 1 : -1) * (1 + i / 1000)));
-    expectError(signrank(big, 50, "two-sided", "exact"), "#N/A", /exact signed-rank p-value is worked out for up to \d+ non-zero differences; these have 1500/);
+    expectError(
+      signrank(big, 50, "two-sided", "exact"),
+      "#N/A",
+      /exact signed-rank p-value is worked out for up to \d+ non-zero differences; these have 1500/,
+    );
     expect(typeof signrank(big, 50, "two-sided", "auto")).toBe("number");
   });
 
@@ -163,7 +167,20 @@ describe("planning functions", () => {
 describe("ADJUST", () => {
   it("adjusts by hand-checked rules, keeps the shape, leaves blank cells blank", () => {
     // Holm: sorted 0.01, 0.03, 0.04 -> 3×0.01, max(0.03, 2×0.03), max(0.06, 1×0.04).
-    expect(adjust([[0.01, null], [0.04, ""], [0.03, null]], "holm")).toEqual([[0.03, ""], [0.06, ""], [0.06, ""]]);
+    expect(
+      adjust(
+        [
+          [0.01, null],
+          [0.04, ""],
+          [0.03, null],
+        ],
+        "holm",
+      ),
+    ).toEqual([
+      [0.03, ""],
+      [0.06, ""],
+      [0.06, ""],
+    ]);
     expect(adjust(col(0.01, 0.04, 0.5), "bonferroni")).toEqual(col(0.03, 0.12, 1));
   });
 
@@ -197,14 +214,37 @@ describe("REPORT and calling by id", () => {
   });
 
   it("reaches every catalogue function by id and refuses unknown ids", () => {
-    expect([...FUNCTION_IDS].sort()).toEqual(
-      [
-        "ADJUST", "BOUNDS", "BYGROUP", "COUNTPVALUE", "COUNTS", "GROUPS", "HODGESLEHMANN", "ORDERRANKS", "PAIRED",
-        "PAIREDBOUNDS", "PAIREDCOUNTS", "PAIREDHODGESLEHMANN", "PAIREDSIGNRANK", "PAIREDSIGNRANKSTATISTIC",
-        "PAIREDSTATISTIC", "POWER", "PVALUE", "QUANTILEBOUNDS", "QUANTILEPVALUE", "REPORT", "SAMPLESIZE", "SHIFT",
-        "SIGNRANK", "SIGNRANKSTATISTIC", "SPRT", "STATISTIC", "TWOGROUPS", "WATCHBOUNDS", "WATCHPVALUE",
-      ],
-    );
+    expect([...FUNCTION_IDS].sort()).toEqual([
+      "ADJUST",
+      "BOUNDS",
+      "BYGROUP",
+      "COUNTPVALUE",
+      "COUNTS",
+      "GROUPS",
+      "HODGESLEHMANN",
+      "ORDERRANKS",
+      "PAIRED",
+      "PAIREDBOUNDS",
+      "PAIREDCOUNTS",
+      "PAIREDHODGESLEHMANN",
+      "PAIREDSIGNRANK",
+      "PAIREDSIGNRANKSTATISTIC",
+      "PAIREDSTATISTIC",
+      "POWER",
+      "PVALUE",
+      "QUANTILEBOUNDS",
+      "QUANTILEPVALUE",
+      "REPORT",
+      "SAMPLESIZE",
+      "SHIFT",
+      "SIGNRANK",
+      "SIGNRANKSTATISTIC",
+      "SPRT",
+      "STATISTIC",
+      "TWOGROUPS",
+      "WATCHBOUNDS",
+      "WATCHPVALUE",
+    ]);
     expect(callFunction("COUNTS", [col(52, 49, 55), 50])).toEqual([[1, 0, 2, 3]]);
     expect(() => callFunction("toString", [])).toThrow(RangeError);
     expect(() => callFunction("MEDIAN", [])).toThrow(RangeError);

@@ -13,7 +13,15 @@ import { tmpdir } from "node:os";
 import { dirname, join } from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { generateCustomFunctionsMetadata } from "custom-functions-metadata";
-import { helpFiles, helpPage, helpStyleSheet, helpUrlFor, jsDocExtras, vocabularyFor, type FunctionMetadata } from "../../scripts/helpPages";
+import {
+  helpFiles,
+  helpPage,
+  helpStyleSheet,
+  helpUrlFor,
+  jsDocExtras,
+  vocabularyFor,
+  type FunctionMetadata,
+} from "../../scripts/helpPages";
 import { staticHandler } from "../../scripts/staticFiles";
 import { ALTERNATIVE, SIGNED_RANK_METHOD, SIGN_METHOD, TIES } from "../../src/functions/vocabulary";
 
@@ -83,15 +91,39 @@ describe("the help pages", () => {
   it("list every word an argument accepts, the default marked", async () => {
     const { body } = await served(helpUrlFor("PVALUE"));
     for (const vocabulary of [ALTERNATIVE, TIES, SIGN_METHOD]) {
-      for (const choice of vocabulary.choices) for (const word of choice.words) expect(body, word).toContain(`<code>${word.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;")}</code>`);
+      for (const choice of vocabulary.choices)
+        for (const word of choice.words)
+          expect(body, word).toContain(`<code>${word.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;")}</code>`);
     }
     expect(body).toContain("<code>two-sided</code> (the default)");
   });
 
   it("find a vocabulary in vocabulary.ts for every argument of the catalogue whose help quotes words", () => {
     // Words defined elsewhere (a vocabulary private to functions.ts) are shown as the help text quotes them.
-    const catalogue = ["COUNTS", "PVALUE", "STATISTIC", "PAIRED", "PAIREDCOUNTS", "BOUNDS", "QUANTILEPVALUE", "QUANTILEBOUNDS", "SIGNRANK", "PAIREDSIGNRANK"];
-    const more = ["HODGESLEHMANN", "PAIREDHODGESLEHMANN", "POWER", "SAMPLESIZE", "ADJUST", "REPORT", "PAIREDSTATISTIC", "PAIREDBOUNDS", "SIGNRANKSTATISTIC", "PAIREDSIGNRANKSTATISTIC"];
+    const catalogue = [
+      "COUNTS",
+      "PVALUE",
+      "STATISTIC",
+      "PAIRED",
+      "PAIREDCOUNTS",
+      "BOUNDS",
+      "QUANTILEPVALUE",
+      "QUANTILEBOUNDS",
+      "SIGNRANK",
+      "PAIREDSIGNRANK",
+    ];
+    const more = [
+      "HODGESLEHMANN",
+      "PAIREDHODGESLEHMANN",
+      "POWER",
+      "SAMPLESIZE",
+      "ADJUST",
+      "REPORT",
+      "PAIREDSTATISTIC",
+      "PAIREDBOUNDS",
+      "SIGNRANKSTATISTIC",
+      "PAIREDSIGNRANKSTATISTIC",
+    ];
     const ids = new Set([...catalogue, ...more]);
     for (const fn of functions.filter((f) => ids.has(f.id))) {
       for (const p of fn.parameters.filter((q) => /"[^"]+"/.test(q.description ?? ""))) {
@@ -105,7 +137,10 @@ describe("the help pages", () => {
   it("follow the system's dark preference with the pane's own dark palette", () => {
     const css = helpStyleSheet(paneCss);
     const dark = /:root\[data-theme="dark"\]\s*\{([^}]*)\}/.exec(paneCss)![1];
-    const declarations = dark.split(";").map((d) => d.trim()).filter((d) => d !== "");
+    const declarations = dark
+      .split(";")
+      .map((d) => d.trim())
+      .filter((d) => d !== "");
     expect(declarations.length).toBeGreaterThan(5);
     const media = /@media \(prefers-color-scheme: dark\) \{\s*:root \{([^}]*)\}/.exec(css);
     expect(media).not.toBeNull();
@@ -119,7 +154,10 @@ describe("the help pages", () => {
     for (const fn of functions) {
       const found = extras.get(fn.id);
       expect(found, fn.id).toBeDefined();
-      expect(found!.examples.some((e) => e.includes(`=EVENSPLIT.${fn.name}(`)), `${fn.id}: add an @example using =EVENSPLIT.${fn.name}(...)`).toBe(true);
+      expect(
+        found!.examples.some((e) => e.includes(`=EVENSPLIT.${fn.name}(`)),
+        `${fn.id}: add an @example using =EVENSPLIT.${fn.name}(...)`,
+      ).toBe(true);
       expect(found!.references.length, `${fn.id}: add a @see with the method's reference`).toBeGreaterThan(0);
       expect(source, `${fn.id}: add @helpurl ${helpUrlFor(fn.id)}`).toContain(`@helpurl ${helpUrlFor(fn.id)}`);
     }
@@ -132,7 +170,7 @@ describe("the help pages", () => {
       " * @customfunction ADDUP",
       " * @returns The sum,",
       " *   on two lines.",
-      ' * @example =EVENSPLIT.ADDUP(Panels[Thickness]) adds the invented thicknesses.',
+      " * @example =EVENSPLIT.ADDUP(Panels[Thickness]) adds the invented thicknesses.",
       " * @see W. J. Dixon and A. M. Mood (1946), The statistical sign test.",
       " */",
       "export function addup(x: number): number {",
@@ -149,6 +187,8 @@ describe("the help pages", () => {
     expect(page).toMatch(/<h2>Example<\/h2><p class="es-help-note">Invented data: coating thickness of painted panels/);
     expect(page).toContain("<p>=EVENSPLIT.ADDUP(Panels[Thickness]) adds the invented thicknesses.</p>");
     expect(page).toContain("<h2>Method</h2><ul><li>W. J. Dixon and A. M. Mood (1946), The statistical sign test.</li></ul>");
-    expect(helpPage({ id: "X", name: "X", description: "<b>", parameters: [] }, { examples: [], references: [] })).toContain("<p>&lt;b&gt;</p>");
+    expect(helpPage({ id: "X", name: "X", description: "<b>", parameters: [] }, { examples: [], references: [] })).toContain(
+      "<p>&lt;b&gt;</p>",
+    );
   });
 });

@@ -120,7 +120,11 @@ describe("manifest.xml", () => {
 
   it("names only URLs on the development server, each a file the build emits", () => {
     // Namespace declarations (xmlns, xmlns:bt, ...) name schemas, not resources.
-    const values = all.flatMap((e) => Object.entries(e.attributes).filter(([name]) => !/^xmlns(:|$)/.test(name)).map(([, v]) => v));
+    const values = all.flatMap((e) =>
+      Object.entries(e.attributes)
+        .filter(([name]) => !/^xmlns(:|$)/.test(name))
+        .map(([, v]) => v),
+    );
     const named = [...values, ...all.map((e) => e.text)].filter((v) => /^[a-z]+:\/\//i.test(v));
     expect(named.length).toBeGreaterThan(5);
     for (const url of named) expect(existsSync(distFileFor(url)), url).toBe(true);
@@ -133,12 +137,35 @@ describe("manifest.xml", () => {
   it("matches the ids in functions.json to the catalogue", () => {
     expect(new Set(metadataIds())).toEqual(
       new Set([
-        "COUNTS", "PVALUE", "STATISTIC", "PAIRED", "PAIREDCOUNTS", "BOUNDS", "QUANTILEPVALUE", "QUANTILEBOUNDS",
-        "SIGNRANK", "PAIREDSIGNRANK", "HODGESLEHMANN", "PAIREDHODGESLEHMANN", "POWER", "SAMPLESIZE", "ADJUST", "REPORT",
-        "PAIREDSTATISTIC", "PAIREDBOUNDS", "SIGNRANKSTATISTIC", "PAIREDSIGNRANKSTATISTIC",
-        "WATCHPVALUE", "WATCHBOUNDS", "SPRT",
-        "TWOGROUPS", "SHIFT", "GROUPS", "BYGROUP",
-        "COUNTPVALUE", "ORDERRANKS",
+        "COUNTS",
+        "PVALUE",
+        "STATISTIC",
+        "PAIRED",
+        "PAIREDCOUNTS",
+        "BOUNDS",
+        "QUANTILEPVALUE",
+        "QUANTILEBOUNDS",
+        "SIGNRANK",
+        "PAIREDSIGNRANK",
+        "HODGESLEHMANN",
+        "PAIREDHODGESLEHMANN",
+        "POWER",
+        "SAMPLESIZE",
+        "ADJUST",
+        "REPORT",
+        "PAIREDSTATISTIC",
+        "PAIREDBOUNDS",
+        "SIGNRANKSTATISTIC",
+        "PAIREDSIGNRANKSTATISTIC",
+        "WATCHPVALUE",
+        "WATCHBOUNDS",
+        "SPRT",
+        "TWOGROUPS",
+        "SHIFT",
+        "GROUPS",
+        "BYGROUP",
+        "COUNTPVALUE",
+        "ORDERRANKS",
       ]),
     );
   });

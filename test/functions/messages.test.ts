@@ -41,11 +41,19 @@ describe("messages", () => {
   });
 
   it("give an example that fits the missing argument, named as the function picker spells it", () => {
-    expect(firstMessage(callFunction("POWER", [null, 0.75]))).toBe("Argument n is missing. Give a number, such as 30, or a cell that holds one.");
+    expect(firstMessage(callFunction("POWER", [null, 0.75]))).toBe(
+      "Argument n is missing. Give a number, such as 30, or a cell that holds one.",
+    );
     expect(firstMessage(callFunction("SAMPLESIZE", [null]))).toMatch(/^Argument p_above is missing\. Give a number, such as 0\.75,/);
-    expect(firstMessage(callFunction("QUANTILEBOUNDS", [DATA, null]))).toMatch(/^Argument quantile is missing\. Give a number, such as 0\.9,/);
-    expect(firstMessage(callFunction("QUANTILEPVALUE", [DATA, null, 0.9]))).toMatch(/^Argument value is missing\. Give a number, such as 58,/);
-    expect(firstMessage(callFunction("PVALUE", [DATA, null]))).toMatch(/^Argument hypothesized_median is missing\. Give a number, such as 50,/);
+    expect(firstMessage(callFunction("QUANTILEBOUNDS", [DATA, null]))).toMatch(
+      /^Argument quantile is missing\. Give a number, such as 0\.9,/,
+    );
+    expect(firstMessage(callFunction("QUANTILEPVALUE", [DATA, null, 0.9]))).toMatch(
+      /^Argument value is missing\. Give a number, such as 58,/,
+    );
+    expect(firstMessage(callFunction("PVALUE", [DATA, null]))).toMatch(
+      /^Argument hypothesized_median is missing\. Give a number, such as 50,/,
+    );
   });
 
   it("do not read confidence 1.5 as a percent, but do read 95 as one", () => {
@@ -56,10 +64,18 @@ describe("messages", () => {
   });
 
   it("start with a capital or a count, for every function on arbitrary arguments", () => {
-    const scalar = fc.oneof(fc.constantFrom(null, "", "sideways", 1.5, 95, -1, 0, 1, 1e-300, 0.5, "mid-p", true), fc.double({ noNaN: true, noDefaultInfinity: true }));
+    const scalar = fc.oneof(
+      fc.constantFrom(null, "", "sideways", 1.5, 95, -1, 0, 1, 1e-300, 0.5, "mid-p", true),
+      fc.double({ noNaN: true, noDefaultInfinity: true }),
+    );
     fc.assert(
       fc.property(fc.constantFrom(...FUNCTION_IDS), fc.array(scalar, { maxLength: 6 }), fc.boolean(), (id, rest, withData) => {
-        const args = id === "POWER" || id === "SAMPLESIZE" ? rest : id.startsWith("PAIRED") ? [DATA, withData ? DATA : col(1), ...rest] : [withData ? DATA : col(), ...rest];
+        const args =
+          id === "POWER" || id === "SAMPLESIZE"
+            ? rest
+            : id.startsWith("PAIRED")
+              ? [DATA, withData ? DATA : col(1), ...rest]
+              : [withData ? DATA : col(), ...rest];
         for (const message of messagesOf(callFunction(id, args))) expect(message, `${id}(${JSON.stringify(args)})`).toMatch(/^[A-Z0-9]/);
       }),
       { numRuns: 600 },
@@ -73,7 +89,9 @@ describe("the block's own words are accepted back", () => {
     expect(p("≠", "mid-p")).toBe(p("two-sided", "midp"));
     expect(p("different from", "exact binomial")).toBe(p("two-sided", "exact"));
     expect(p("two-sided", "normal approximation")).toBe(p("two-sided", "normal"));
-    expect(callFunction("SIGNRANK", [DATA, 50, "greater", "normal approximation"])).toBe(callFunction("SIGNRANK", [DATA, 50, "greater", "normal"]));
+    expect(callFunction("SIGNRANK", [DATA, 50, "greater", "normal approximation"])).toBe(
+      callFunction("SIGNRANK", [DATA, 50, "greater", "normal"]),
+    );
   });
 });
 

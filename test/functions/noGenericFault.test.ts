@@ -24,8 +24,37 @@ const number = fc.oneof(
 );
 
 const word = fc.constantFrom(
-  "two-sided", "greater", "less", "above", "below", "<>", ">", "<", "drop", "split", "conservative", "exact", "midp", "mid-p",
-  "normal", "auto", "pratt", "lower", "upper", "hettmansperger-sheather", "interpolated", "holm", "bonferroni", "hochberg", "bh", "by", "", " ", "GREATER ", "x", "50",
+  "two-sided",
+  "greater",
+  "less",
+  "above",
+  "below",
+  "<>",
+  ">",
+  "<",
+  "drop",
+  "split",
+  "conservative",
+  "exact",
+  "midp",
+  "mid-p",
+  "normal",
+  "auto",
+  "pratt",
+  "lower",
+  "upper",
+  "hettmansperger-sheather",
+  "interpolated",
+  "holm",
+  "bonferroni",
+  "hochberg",
+  "bh",
+  "by",
+  "",
+  " ",
+  "GREATER ",
+  "x",
+  "50",
 );
 
 const cell = fc.oneof(
@@ -41,9 +70,11 @@ const cell = fc.oneof(
 /** A range of one shape, as rows of cells; sometimes one value repeated (many ties). */
 function range(rows: number, columns: number): fc.Arbitrary<unknown[][]> {
   const filled = fc.array(fc.array(cell, { minLength: columns, maxLength: columns }), { minLength: rows, maxLength: rows });
-  const tied = fc.tuple(number, fc.boolean()).map(([x, withBlank]) =>
-    Array.from({ length: rows }, (_, r) => Array.from({ length: columns }, (_, c) => (withBlank && r === 0 && c === 0 ? null : x))),
-  );
+  const tied = fc
+    .tuple(number, fc.boolean())
+    .map(([x, withBlank]) =>
+      Array.from({ length: rows }, (_, r) => Array.from({ length: columns }, (_, c) => (withBlank && r === 0 && c === 0 ? null : x))),
+    );
   return fc.oneof({ weight: 4, arbitrary: filled }, { weight: 1, arbitrary: tied });
 }
 
@@ -62,11 +93,13 @@ function argumentsFor(id: string): fc.Arbitrary<unknown[]> {
   const rest = fc.array(scalar, { minLength: 0, maxLength: 6 });
   if (id === "POWER" || id === "SAMPLESIZE") return rest;
   if (id === "REPORT") {
-    return fc.tuple(anyRange, fc.array(scalar, { minLength: 0, maxLength: 4 }), fc.option(anyRange)).map(([data, middle, second]) => [
-      data,
-      ...middle,
-      ...(second === null ? [] : [...Array(Math.max(0, 4 - middle.length)).fill(null), second]),
-    ]);
+    return fc
+      .tuple(anyRange, fc.array(scalar, { minLength: 0, maxLength: 4 }), fc.option(anyRange))
+      .map(([data, middle, second]) => [
+        data,
+        ...middle,
+        ...(second === null ? [] : [...Array(Math.max(0, 4 - middle.length)).fill(null), second]),
+      ]);
   }
   if (id.startsWith("PAIRED")) return fc.tuple(twoRanges, rest).map(([[a, b], r]) => [a, b, ...r]);
   return fc.tuple(anyRange, rest).map(([a, r]) => [a, ...r]);
@@ -98,10 +131,34 @@ describe("every function on adversarial arguments", () => {
     ["BOUNDS", [[[1], [2], [3]], 1e-11, "upper"]],
     ["QUANTILEBOUNDS", [[[1], [2], [3]], 0.5, 1e-11, "upper"]],
     ["QUANTILEBOUNDS", [[[1], [2], [3]], 0.5, 1e-11, "lower"]],
-    ["PAIREDBOUNDS", [[[-LARGEST], [0], [1]], [[LARGEST], [1], [2]]]],
-    ["PAIREDSIGNRANK", [[[-LARGEST], [0], [1]], [[LARGEST], [1], [2]]]],
-    ["PAIREDHODGESLEHMANN", [[[-LARGEST], [0], [1]], [[LARGEST], [1], [2]]]],
-    ["PAIRED", [[[-LARGEST], [0], [1]], [[LARGEST], [1], [2]]]],
+    [
+      "PAIREDBOUNDS",
+      [
+        [[-LARGEST], [0], [1]],
+        [[LARGEST], [1], [2]],
+      ],
+    ],
+    [
+      "PAIREDSIGNRANK",
+      [
+        [[-LARGEST], [0], [1]],
+        [[LARGEST], [1], [2]],
+      ],
+    ],
+    [
+      "PAIREDHODGESLEHMANN",
+      [
+        [[-LARGEST], [0], [1]],
+        [[LARGEST], [1], [2]],
+      ],
+    ],
+    [
+      "PAIRED",
+      [
+        [[-LARGEST], [0], [1]],
+        [[LARGEST], [1], [2]],
+      ],
+    ],
     ["SIGNRANK", [[[LARGEST], [-LARGEST], [1]], 0]],
     ["HODGESLEHMANN", [[[LARGEST], [LARGEST], [1]], 0.5]],
   ] as const)("%s on the cases named in the issue answers with what went wrong", (id, args) => {

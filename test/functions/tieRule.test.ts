@@ -6,7 +6,18 @@
  * while 0.31, 0.32 and 0.29 differ from 0.3 in the second decimal.
  */
 import { describe, expect, it } from "vitest";
-import { callFunction, counts, pairedcounts, paired, pairedsignrankstatistic, pvalue, quantilepvalue, report, signrankstatistic, statistic } from "../../src/functions/functions";
+import {
+  callFunction,
+  counts,
+  pairedcounts,
+  paired,
+  pairedsignrankstatistic,
+  pvalue,
+  quantilepvalue,
+  report,
+  signrankstatistic,
+  statistic,
+} from "../../src/functions/functions";
 import { blockPreview } from "../../src/taskpane/preview";
 import type { BlockRequest } from "../../src/report/resultBlock";
 
@@ -43,7 +54,15 @@ describe("one tie rule for every function and the pane", () => {
   it("REPORT and the pane's preview count two ties", () => {
     const tiesRow = (rows: unknown[][]) => rows.find((r) => String(r[0]).includes("(ties)"));
     expect(tiesRow(report(values, 0.3, "greater"))?.[1]).toBe(2);
-    const request: BlockRequest = { test: "sign", paired: false, center: 0.3, alternative: "greater", alpha: 0.05, confidence: 0.95, dataName: "Thickness" };
+    const request: BlockRequest = {
+      test: "sign",
+      paired: false,
+      center: 0.3,
+      alternative: "greater",
+      alpha: 0.05,
+      confidence: 0.95,
+      dataName: "Thickness",
+    };
     const preview = blockPreview(request, { data: values }, { data: "A2:A6" }, callFunction);
     expect(preview.find((r) => r.key === "tied")?.value).toBe(2);
   });

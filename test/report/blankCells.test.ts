@@ -21,7 +21,15 @@ const THICKNESS: (number | null)[] = [51.2, 48.7, 53.1, null, 50.4, 52.9, null, 
 /** A second invented measurement of the same panels, with its own blank (row 9). */
 const AFTER: (number | null)[] = [50.1, 48.2, 52.0, 50.3, 49.9, 52.1, 51.0, 49.0, null, 50.5];
 
-const ONE_SAMPLE: BlockRequest = { test: "sign", paired: false, center: 50, alternative: "greater", alpha: 0.05, confidence: 0.95, dataName: "Thickness" };
+const ONE_SAMPLE: BlockRequest = {
+  test: "sign",
+  paired: false,
+  center: 50,
+  alternative: "greater",
+  alpha: 0.05,
+  confidence: 0.95,
+  dataName: "Thickness",
+};
 const PAIRED: BlockRequest = { ...ONE_SAMPLE, paired: true, center: 0, alternative: "two-sided", secondName: "After" };
 
 let honest: Map<string, CustomFunction>;
@@ -91,7 +99,9 @@ describe("the same check in REPORT (direct evaluation)", () => {
   it("warns when cells arrive as 0, since inside one cell a blank passed as 0 looks like a measured 0", () => {
     const words = checkOf(callFunction("REPORT", [zeroCells, 50, "greater"]) as unknown[][]);
     // Two cells arrived as 0; 10 numbers were read (hand count of zeroCells).
-    expect(words).toMatch(/^Cannot be checked inside REPORT: 2 cells arrived as 0\. If the sheet's COUNT of the range is less than 10, this Excel passed blank cells as zeros; use a table column/);
+    expect(words).toMatch(
+      /^Cannot be checked inside REPORT: 2 cells arrived as 0\. If the sheet's COUNT of the range is less than 10, this Excel passed blank cells as zeros; use a table column/,
+    );
   });
 
   it("in the pane's preview, which reads the sheet itself (a blank is empty there), measured zeros raise no question", () => {

@@ -48,7 +48,14 @@ describe("coverage", () => {
 
 describe("the block's wording of the confidence", () => {
   it("never rounds a confidence below 1 up to 100%", () => {
-    const labels = resultBlockRows({ test: "sign", paired: false, center: 50, alternative: "two-sided", alpha: 0.05, confidence: 0.999999999 }).map((r) => r.label);
+    const labels = resultBlockRows({
+      test: "sign",
+      paired: false,
+      center: 50,
+      alternative: "two-sided",
+      alpha: 0.05,
+      confidence: 0.999999999,
+    }).map((r) => r.label);
     expect(labels.join(" ")).not.toMatch(/100%/);
     expect(labels).toContain("0.999999999 bounds for the median: lower");
   });

@@ -12,7 +12,15 @@ import { blockFormula, blockValue, resultBlockRows, type BlockRequest, type Call
 import { EXACT_AUTO_LIMIT, signedRankTest } from "../../src/stats/signedRank";
 import { catalogueFunctions } from "../demo/catalogue";
 
-const AUTO: BlockRequest = { test: "signed-rank", paired: false, center: 50, alternative: "greater", alpha: 0.05, confidence: 0.95, method: "auto" };
+const AUTO: BlockRequest = {
+  test: "signed-rank",
+  paired: false,
+  center: 50,
+  alternative: "greater",
+  alpha: 0.05,
+  confidence: 0.95,
+  method: "auto",
+};
 
 /** n invented thicknesses around 50, none equal to it: n non-zero differences. */
 function column(n: number): number[][] {
@@ -31,8 +39,12 @@ beforeAll(async () => {
 
 describe("the method row states the method that ran", () => {
   it("exact at the auto limit, normal one past it", () => {
-    expect(methodOf(AUTO, column(EXACT_AUTO_LIMIT))).toMatch(/^Wilcoxon signed-rank test, exact \(conditional on ties\), as there are at most 400 non-zero/);
-    expect(methodOf(AUTO, column(EXACT_AUTO_LIMIT + 1))).toMatch(/^Wilcoxon signed-rank test, normal approximation .*, as there are more than 400 non-zero/);
+    expect(methodOf(AUTO, column(EXACT_AUTO_LIMIT))).toMatch(
+      /^Wilcoxon signed-rank test, exact \(conditional on ties\), as there are at most 400 non-zero/,
+    );
+    expect(methodOf(AUTO, column(EXACT_AUTO_LIMIT + 1))).toMatch(
+      /^Wilcoxon signed-rank test, normal approximation .*, as there are more than 400 non-zero/,
+    );
     expect(methodOf(AUTO, column(1492))).toMatch(/normal approximation/);
   });
 
@@ -44,14 +56,19 @@ describe("the method row states the method that ran", () => {
       const method = resultBlockRows(AUTO).find((r) => r.key === "method")!;
       workbook.writeEntries("Paint line", 0, 3, [[blockFormula(method.value, { data: `$A$2:$A$${n + 1}` })]]);
       expect(workbook.value("Paint line", 0, 3)).toBe(methodOf(AUTO, column(n)));
-      const core = signedRankTest(column(n).map(([x]) => x - 50), { method: "auto" });
+      const core = signedRankTest(
+        column(n).map(([x]) => x - 50),
+        { method: "auto" },
+      );
       expect(core.available && core.method).toBe(n <= EXACT_AUTO_LIMIT ? "exact" : "normal");
       expect(methodOf(AUTO, column(n))).toMatch(n <= EXACT_AUTO_LIMIT ? /, exact / : /, normal /);
     }
   });
 
   it("states exact or normal plainly when that was asked", () => {
-    expect(methodOf({ ...AUTO, method: "exact" }, column(5))).toMatch(/^Wilcoxon signed-rank test, exact \(conditional on ties\); zero differences left out$/);
+    expect(methodOf({ ...AUTO, method: "exact" }, column(5))).toMatch(
+      /^Wilcoxon signed-rank test, exact \(conditional on ties\); zero differences left out$/,
+    );
     expect(methodOf({ ...AUTO, method: "normal", zeros: "pratt" }, column(5))).toMatch(/normal approximation.*Pratt/);
   });
 });
@@ -66,7 +83,9 @@ describe("signed-rank bounds follow the question's side", () => {
     expect(sideOf(AUTO)).toEqual({ text: "lower" });
     expect(sideOf({ ...AUTO, alternative: "less" })).toEqual({ text: "upper" });
     expect(sideOf({ ...AUTO, alternative: "two-sided" })).toEqual({ text: "two-sided" });
-    const labels = resultBlockRows(AUTO).filter((r) => r.key === "lower" || r.key === "upper").map((r) => r.label);
+    const labels = resultBlockRows(AUTO)
+      .filter((r) => r.key === "lower" || r.key === "upper")
+      .map((r) => r.label);
     expect(labels).toEqual(["95% lower bound for the centre (one-sided)", "Upper bound (none: one-sided)"]);
   });
 

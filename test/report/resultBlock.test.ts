@@ -1,12 +1,5 @@
 import { describe, expect, it } from "vitest";
-import {
-  blockFormula,
-  blockValue,
-  NUMBER_FORMATS,
-  resultBlockRows,
-  type BlockRequest,
-  type CallValue,
-} from "../../src/report/resultBlock";
+import { blockFormula, blockValue, NUMBER_FORMATS, resultBlockRows, type BlockRequest, type CallValue } from "../../src/report/resultBlock";
 
 const oneSample: BlockRequest = {
   test: "sign",
@@ -76,7 +69,11 @@ describe("resultBlockRows", () => {
 
   it("passes the tie rule, method and alternative into the p-value call", () => {
     const p = resultBlockRows({ ...oneSample, ties: "split", method: "midp" }).find((r) => r.key === "pvalue")!.value;
-    expect(p).toEqual({ kind: "call", fn: "PVALUE", args: [{ ref: "data" }, { number: 50 }, { text: "greater" }, { text: "split" }, { text: "midp" }] });
+    expect(p).toEqual({
+      kind: "call",
+      fn: "PVALUE",
+      args: [{ ref: "data" }, { number: 50 }, { text: "greater" }, { text: "split" }, { text: "midp" }],
+    });
   });
 
   it("pairs a one-sided alternative with the matching one-sided bound", () => {
@@ -108,12 +105,17 @@ describe("blockFormula", () => {
     expect(blockFormula({ kind: "call", fn: "COUNTS", args: [{ ref: "data" }, { number: 50 }], column: 3 }, refs)).toBe(
       "=INDEX(EVENSPLIT.COUNTS(Panels[Before],50),1,3)",
     );
-    expect(blockFormula({ kind: "call", fn: "PAIRED", args: [{ ref: "data" }, { ref: "second" }, { number: -0.25 }, { text: "less" }] }, refs)).toBe(
-      '=EVENSPLIT.PAIRED(Panels[Before],Panels[After],-0.25,"less")',
-    );
+    expect(
+      blockFormula({ kind: "call", fn: "PAIRED", args: [{ ref: "data" }, { ref: "second" }, { number: -0.25 }, { text: "less" }] }, refs),
+    ).toBe('=EVENSPLIT.PAIRED(Panels[Before],Panels[After],-0.25,"less")');
     expect(blockFormula({ kind: "numbers", of: "data" }, { data: "A2:A9" })).toBe("=COUNT(A2:A9)");
     expect(blockFormula({ kind: "skipped", of: "data" }, { data: "A2:A9" })).toBe("=COUNTA(A2:A9)-COUNT(A2:A9)");
-    const counts = (column: number): CallValue => ({ kind: "call", fn: "PAIREDCOUNTS", args: [{ ref: "data" }, { ref: "second" }], column });
+    const counts = (column: number): CallValue => ({
+      kind: "call",
+      fn: "PAIREDCOUNTS",
+      args: [{ ref: "data" }, { ref: "second" }],
+      column,
+    });
     expect(blockFormula({ kind: "sum", terms: [counts(2), counts(4)] }, refs)).toBe(
       "=INDEX(EVENSPLIT.PAIREDCOUNTS(Panels[Before],Panels[After]),1,2)+INDEX(EVENSPLIT.PAIREDCOUNTS(Panels[Before],Panels[After]),1,4)",
     );
@@ -174,14 +176,22 @@ describe("blockValue", () => {
   it("decides at alpha and passes an error through the decision", () => {
     const decide = (center: number) =>
       blockValue(
-        { kind: "decision", pValue: { kind: "call", fn: "PVALUE", args: [{ ref: "data" }, { number: center }] }, alpha: 0.05, reject: "R", keep: "K" },
+        {
+          kind: "decision",
+          pValue: { kind: "call", fn: "PVALUE", args: [{ ref: "data" }, { number: center }] },
+          alpha: 0.05,
+          reject: "R",
+          keep: "K",
+        },
         { data: cells },
         run,
       );
     expect(decide(50)).toBe("R");
     expect(decide(40)).toBe("K");
     const failing = { kind: "call", fn: "BOUNDS", args: [{ ref: "data" }] } as const;
-    expect(blockValue({ kind: "decision", pValue: failing, alpha: 0.05, reject: "R", keep: "K" }, { data: cells }, run)).toEqual({ code: "#N/A" });
+    expect(blockValue({ kind: "decision", pValue: failing, alpha: 0.05, reject: "R", keep: "K" }, { data: cells }, run)).toEqual({
+      code: "#N/A",
+    });
   });
 });
 
@@ -192,7 +202,10 @@ describe("bound labels", () => {
         .filter((r) => r.key === "lower" || r.key === "upper")
         .map((r) => r.label);
     expect(labels(oneSample)).toEqual(["95% lower bound for the median (one-sided)", "Upper bound (none: one-sided)"]);
-    expect(labels({ ...oneSample, alternative: "less", confidence: 0.9 })).toEqual(["Lower bound (none: one-sided)", "90% upper bound for the median (one-sided)"]);
+    expect(labels({ ...oneSample, alternative: "less", confidence: 0.9 })).toEqual([
+      "Lower bound (none: one-sided)",
+      "90% upper bound for the median (one-sided)",
+    ]);
     expect(labels(paired)).toEqual(["95% bounds for the median difference: lower", "95% bounds for the median difference: upper"]);
   });
 });

@@ -26,13 +26,21 @@ describe("the manifest for a deployment", () => {
     const after = addresses(moved);
     expect(after).toEqual(before.map((url) => url.replace(DEVELOPMENT_ORIGIN, "https://addins.example.org/evensplit/")));
     expect(moved).not.toMatch(/localhost/i);
-    expect(moved.length - manifest.length).toBe(before.length * ("https://addins.example.org/evensplit/".length - DEVELOPMENT_ORIGIN.length));
+    expect(moved.length - manifest.length).toBe(
+      before.length * ("https://addins.example.org/evensplit/".length - DEVELOPMENT_ORIGIN.length),
+    );
   });
 
   it("takes an https folder, with or without its last slash, and refuses anything Excel could not load", () => {
     expect(deploymentBase("https://addins.example.org/evensplit")).toEqual({ base: "https://addins.example.org/evensplit/" });
     expect(deploymentBase(" https://addins.example.org/ ")).toEqual({ base: "https://addins.example.org/" });
-    for (const bad of ["http://addins.example.org/", "addins.example.org/evensplit", "https://addins.example.org/?v=2", "https://user:pw@addins.example.org/", ""]) {
+    for (const bad of [
+      "http://addins.example.org/",
+      "addins.example.org/evensplit",
+      "https://addins.example.org/?v=2",
+      "https://user:pw@addins.example.org/",
+      "",
+    ]) {
       expect(deploymentBase(bad), bad).toHaveProperty("problem");
     }
   });

@@ -8,7 +8,13 @@ import { execFileSync } from "node:child_process";
 import { describe, expect, it } from "vitest";
 import { lackingPackages, planInstall } from "../../scripts/ensure-deps.mjs";
 
-const everything = { hasPackages: true, wantBrowser: true, hasChromium: true, chromium: "/usr/bin/chromium", canInstallSystemPackages: true };
+const everything = {
+  hasPackages: true,
+  wantBrowser: true,
+  hasChromium: true,
+  chromium: "/usr/bin/chromium",
+  canInstallSystemPackages: true,
+};
 
 describe("the install plan", () => {
   it("is empty when everything is present, even for root", () => {
@@ -22,10 +28,22 @@ describe("the install plan", () => {
   });
 
   it("reinstalls when node_modules lacks a package the lock file names at its version, naming it", () => {
-    const lock = JSON.stringify({ packages: { "": {}, "node_modules/a": { version: "1.0.0" }, "node_modules/b/node_modules/c": { version: "2.0.0" }, "node_modules/win-only": { version: "3.0.0", optional: true } } });
+    const lock = JSON.stringify({
+      packages: {
+        "": {},
+        "node_modules/a": { version: "1.0.0" },
+        "node_modules/b/node_modules/c": { version: "2.0.0" },
+        "node_modules/win-only": { version: "3.0.0", optional: true },
+      },
+    });
     const installed = JSON.stringify({ packages: { "node_modules/a": { version: "0.9.0" } } });
     expect(lackingPackages(lock, installed)).toEqual(["a@1.0.0", "c@2.0.0"]);
-    expect(lackingPackages(lock, JSON.stringify({ packages: { "node_modules/a": { version: "1.0.0" }, "node_modules/b/node_modules/c": { version: "2.0.0" } } }))).toEqual([]);
+    expect(
+      lackingPackages(
+        lock,
+        JSON.stringify({ packages: { "node_modules/a": { version: "1.0.0" }, "node_modules/b/node_modules/c": { version: "2.0.0" } } }),
+      ),
+    ).toEqual([]);
     const { steps } = planInstall({ ...everything, lacking: ["a@1.0.0", "c@2.0.0"] });
     expect(steps.map((s) => s.commands)).toEqual([["npm ci --no-audit --no-fund"]]);
     expect(steps[0].why).toMatch(/lacks a@1.0.0, c@2.0.0 at the locked version: package-lock.json changed/);

@@ -22,7 +22,9 @@ describe("the test summary", () => {
       numPassedTests: 2,
       numPendingTests: 1,
       numTotalTests: 3,
-      testResults: [{ name: "/p/a.test.ts", status: "passed", assertionResults: [{ status: "passed" }, { status: "passed" }, { status: "skipped" }] }],
+      testResults: [
+        { name: "/p/a.test.ts", status: "passed", assertionResults: [{ status: "passed" }, { status: "passed" }, { status: "skipped" }] },
+      ],
     };
     expect(summarise(report, [])).toEqual({ lines: ["Tests: 2 passed, 0 failed, 1 skipped"], green: true });
   });
@@ -33,20 +35,33 @@ describe("the test summary", () => {
       numPassedTests: 2,
       numTotalTests: 5,
       testResults: [
-        { name: "/p/died.test.ts", status: "passed", assertionResults: [{ status: "pending" }, { status: "pending" }, { status: "pending" }] },
+        {
+          name: "/p/died.test.ts",
+          status: "passed",
+          assertionResults: [{ status: "pending" }, { status: "pending" }, { status: "pending" }],
+        },
         { name: "/p/ok.test.ts", status: "passed", assertionResults: [{ status: "passed" }, { status: "passed" }] },
       ],
     };
     const { lines, green } = summarise(report, []);
     expect(green).toBe(false);
-    expect(lines).toEqual(["Tests: 2 passed, 0 failed, 0 skipped, 3 never ran", "3 tests of /p/died.test.ts never ran: its worker stopped before them."]);
+    expect(lines).toEqual([
+      "Tests: 2 passed, 0 failed, 0 skipped, 3 never ran",
+      "3 tests of /p/died.test.ts never ran: its worker stopped before them.",
+    ]);
   });
 
   it("reads the report Node writes when a worker runs out of heap, with its cause", () => {
     const folder = mkdtempSync(join(tmpdir(), "evensplit-fatal-"));
     try {
       const before = Date.now();
-      const args = ["--max-old-space-size=16", "--report-on-fatalerror", `--report-directory=${folder}`, "-e", "const a = []; for (;;) a.push(new Array(1e5).fill(1));"];
+      const args = [
+        "--max-old-space-size=16",
+        "--report-on-fatalerror",
+        `--report-directory=${folder}`,
+        "-e",
+        "const a = []; for (;;) a.push(new Array(1e5).fill(1));",
+      ];
       expect(() => execFileSync(process.execPath, args, { stdio: "ignore" })).toThrow();
       const found = fatalReportsIn(folder, before);
       expect(found).toHaveLength(1);
@@ -55,7 +70,9 @@ describe("the test summary", () => {
       expect(fatalReportsIn(folder, Date.now() + 60_000)).toEqual([]);
       const { lines, green } = summarise({ ...counts, numPassedTests: 1, numTotalTests: 1, testResults: [] }, found);
       expect(green).toBe(false);
-      expect(lines[1]).toMatch(/^A test worker died \(Allocation failed - JavaScript heap out of memory\) with \d+ MB of heap in use: see /);
+      expect(lines[1]).toMatch(
+        /^A test worker died \(Allocation failed - JavaScript heap out of memory\) with \d+ MB of heap in use: see /,
+      );
     } finally {
       rmSync(folder, { recursive: true, force: true });
     }

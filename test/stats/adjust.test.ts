@@ -86,7 +86,7 @@ function byDefinition(p: number[], method: AdjustMethod): number[] {
 describe("adjustPValues on large sets, against the definitions applied literally", () => {
   it("agrees exactly on 20,000 p-values with ties, zeros, -0, ones, tiny values and blanks", () => {
     let seed = 7;
-    const next = () => ((seed = (Math.imul(seed, 1103515245) + 12345) >>> 0) / 2 ** 32);
+    const next = () => (seed = (Math.imul(seed, 1103515245) + 12345) >>> 0) / 2 ** 32;
     const p = Array.from({ length: 20000 }, (_, i) =>
       i % 97 === 0 ? NaN : i % 89 === 0 ? -0 : i % 83 === 0 ? 1 : i % 79 === 0 ? 1e-300 * next() : i % 7 === 0 ? 0.05 : next(),
     );

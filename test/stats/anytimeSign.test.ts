@@ -112,7 +112,7 @@ describe("anytime sign test: evidence against exact rational arithmetic (BigInt)
         const u = next();
         return u < 0.15 ? 0 : u < 0.15 + 0.85 * lean ? 1 : -1;
       });
-      const values = signs.map((s) => 50 + s * (1 + Math.floor(next() * 9)) / 10);
+      const values = signs.map((s) => 50 + (s * (1 + Math.floor(next() * 9))) / 10);
       const alternative = ALTERNATIVES[k % 3];
       const ties = (["drop", "split", "conservative"] as const)[Math.floor(k / 3) % 3];
       const steps = stepsOf(signs, alternative, ties);
@@ -253,7 +253,9 @@ describe("anytime sign test: the one-sided version under the composite hypothesi
     };
     const underNull = rate(0.45, 45);
     const underAlternative = rate(0.6, 60);
-    console.log(`one-sided watched p-value, ${runs} runs of 500 rows: rejects in ${(100 * underNull).toFixed(1)}% at P(above) = 0.45, ${(100 * underAlternative).toFixed(1)}% at 0.6`);
+    console.log(
+      `one-sided watched p-value, ${runs} runs of 500 rows: rejects in ${(100 * underNull).toFixed(1)}% at P(above) = 0.45, ${(100 * underAlternative).toFixed(1)}% at 0.6`,
+    );
     expect(underNull).toBeLessThanOrEqual(alpha);
     expect(underAlternative).toBeGreaterThan(0.5);
   });

@@ -215,13 +215,18 @@ describe("binomial identities (property-based, common practice)", () => {
 
   it("reflection X -> n - X swaps the tails when 1 - p is exact (p a multiple of 2^-20)", () => {
     fc.assert(
-      fc.property(fc.integer({ min: 1, max: 2000 }), fc.integer({ min: 1, max: 2 ** 20 - 1 }), fc.double({ min: 0, max: 1, noNaN: true }), (n, m, u) => {
-        const p = m / 2 ** 20;
-        const k = Math.floor(u * n);
-        // The two sides take different paths (log1p(-p) vs log(1 - p), ...); exp of a log near -700 carries ~700 ulps.
-        expect(relativeError(binomialLowerTail(k, n, p), binomialUpperTail(n - k, n, 1 - p))).toBeLessThan(5e-13);
-        expect(relativeError(binomialPmf(k, n, p), binomialPmf(n - k, n, 1 - p))).toBeLessThan(5e-13);
-      }),
+      fc.property(
+        fc.integer({ min: 1, max: 2000 }),
+        fc.integer({ min: 1, max: 2 ** 20 - 1 }),
+        fc.double({ min: 0, max: 1, noNaN: true }),
+        (n, m, u) => {
+          const p = m / 2 ** 20;
+          const k = Math.floor(u * n);
+          // The two sides take different paths (log1p(-p) vs log(1 - p), ...); exp of a log near -700 carries ~700 ulps.
+          expect(relativeError(binomialLowerTail(k, n, p), binomialUpperTail(n - k, n, 1 - p))).toBeLessThan(5e-13);
+          expect(relativeError(binomialPmf(k, n, p), binomialPmf(n - k, n, 1 - p))).toBeLessThan(5e-13);
+        },
+      ),
       { numRuns: 300 },
     );
   });

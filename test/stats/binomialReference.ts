@@ -127,7 +127,14 @@ function lnFixed(num: bigint, den: bigint): bigint {
 
 // Bernoulli numbers B_2 .. B_16 as [numerator, denominator].
 const BERNOULLI: [bigint, bigint][] = [
-  [1n, 6n], [-1n, 30n], [1n, 42n], [-1n, 30n], [5n, 66n], [-691n, 2730n], [7n, 6n], [-3617n, 510n],
+  [1n, 6n],
+  [-1n, 30n],
+  [1n, 42n],
+  [-1n, 30n],
+  [5n, 66n],
+  [-691n, 2730n],
+  [7n, 6n],
+  [-3617n, 510n],
 ];
 
 /** ln(m!) in fixed point: exact for m < 2000, Stirling's series beyond (error far below 2^-200). */

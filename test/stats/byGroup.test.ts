@@ -21,13 +21,19 @@ describe("groupCells", () => {
 
   it("keeps a label whose values are all skipped as a group without numbers; error labels are counted", () => {
     const g = groupCells([["a"], [3], [4]], [["G"], [{ code: "#N/A" }], ["H"]]);
-    expect(g.groups.map((x) => [x.label, x.values.length])).toEqual([["G", 0], ["H", 1]]);
+    expect(g.groups.map((x) => [x.label, x.values.length])).toEqual([
+      ["G", 0],
+      ["H", 1],
+    ]);
     expect(g.labelErrors).toBe(1);
   });
 
   it("tells apart labels that share a cache slot (same length, same last two characters), and still folds case", () => {
     const labels = ["Line 10", "Fine 10", "line 10", "Fine 10", "LINE 10", "Mine 10"];
-    const g = groupCells(labels.map((_, i) => [i]), labels.map((l) => [l]));
+    const g = groupCells(
+      labels.map((_, i) => [i]),
+      labels.map((l) => [l]),
+    );
     expect(g.groups.map((x) => [x.label, Array.from(x.values)])).toEqual([
       ["Line 10", [0, 2, 4]],
       ["Fine 10", [1, 3]],
@@ -42,7 +48,9 @@ describe("groupCells", () => {
 
 describe("summariseGroups", () => {
   it("gives the documented example (exact arithmetic: 2/64 and Holm's 2 x 2/64)", () => {
-    const r = summariseGroups([Float64Array.of(51, 52, 53, 54, 55, 56), Float64Array.of(48, 49, 50.5, 47, 49.5, 46)], 50, { confidence: 0.9 });
+    const r = summariseGroups([Float64Array.of(51, 52, 53, 54, 55, 56), Float64Array.of(48, 49, 50.5, 47, 49.5, 46)], 50, {
+      confidence: 0.9,
+    });
     expect(r.rows[0]).toEqual({ n: 6, median: 53.5, lower: 51, upper: 56, coverage: 1 - 2 / 64, pValue: 2 / 64, adjustedPValue: 4 / 64 });
     expect(r.rows[1].pValue).toBe(14 / 64); // 1 above, 5 below: 2 P(Bin(6, 1/2) <= 1) = 2 x 7/64
   });
@@ -56,7 +64,11 @@ describe("summariseGroups", () => {
         fc.constantFrom("holm", "bh", "bonferroni" as const),
         (lists, alternative, adjust) => {
           const groups = lists.map((l) => Float64Array.from(l));
-          const r = summariseGroups(groups.map((g) => g.slice()), 50, { alternative, adjust, confidence: 0.9 });
+          const r = summariseGroups(
+            groups.map((g) => g.slice()),
+            50,
+            { alternative, adjust, confidence: 0.9 },
+          );
           const side = alternative === "greater" ? "lower" : alternative === "less" ? "upper" : "two-sided";
           const ps = groups.map((g) => {
             const t = signTest(countSigns(g, 50), { alternative });

@@ -1,6 +1,13 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import { boundedNumbersFromCells, cellsFromValues, numbersFromCells, pairsFromCells, signCountsFromCells, type SkippedCells } from "../../src/stats/cells";
+import {
+  boundedNumbersFromCells,
+  cellsFromValues,
+  numbersFromCells,
+  pairsFromCells,
+  signCountsFromCells,
+  type SkippedCells,
+} from "../../src/stats/cells";
 import { compareAsShown } from "../../src/stats/differences";
 
 /**
@@ -30,7 +37,9 @@ const anyCell = fc.oneof(
   { weight: 1, arbitrary: fc.constantFrom(undefined, "", " ", "12", "text", true, false, {}, new Error("#N/A"), [1]) },
 );
 const matrix = (width: fc.Arbitrary<number>) =>
-  fc.tuple(fc.integer({ min: 0, max: 60 }), width).chain(([rows, w]) => fc.array(fc.array(anyCell, { minLength: w, maxLength: w }), { minLength: rows, maxLength: rows }));
+  fc
+    .tuple(fc.integer({ min: 0, max: 60 }), width)
+    .chain(([rows, w]) => fc.array(fc.array(anyCell, { minLength: w, maxLength: w }), { minLength: rows, maxLength: rows }));
 
 describe("numbersFromCells", () => {
   it("classifies every kind of cell (worked by hand)", () => {
@@ -69,7 +78,15 @@ describe("numbersFromCells", () => {
 
 describe("signCountsFromCells", () => {
   it("counts as the sheet shows the numbers, in the one pass over the cells (exact decimals, worked by hand)", () => {
-    const r = signCountsFromCells([[0.1 + 0.2, 0.7 - 0.4], [0.31, "0.3"], [null, true], [0.29, 0.32]], 0.3);
+    const r = signCountsFromCells(
+      [
+        [0.1 + 0.2, 0.7 - 0.4],
+        [0.31, "0.3"],
+        [null, true],
+        [0.29, 0.32],
+      ],
+      0.3,
+    );
     expect(r.counts).toEqual({ below: 1, tied: 2, above: 2 });
     expect(r.cells).toBe(8);
     expect(r.skipped).toEqual({ blank: 1, text: 1, boolean: 1, other: 0 });
@@ -98,11 +115,29 @@ describe("signCountsFromCells", () => {
 
 describe("boundedNumbersFromCells and cellsFromValues", () => {
   it("reads numbers in bounds and blanks, and stops at the first other cell (worked by hand)", () => {
-    const read = boundedNumbersFromCells([[0.01, null], [undefined, ""], [1, 0]], 0, 1);
+    const read = boundedNumbersFromCells(
+      [
+        [0.01, null],
+        [undefined, ""],
+        [1, 0],
+      ],
+      0,
+      1,
+    );
     expect(Array.from(read.values)).toEqual([0.01, NaN, NaN, NaN, 1, 0]);
     expect(read.refused).toBeNull();
     for (const bad of ["0.02", true, 1.5, -0.1, NaN, Infinity, { code: "#N/A" }]) {
-      expect(boundedNumbersFromCells([[0.01, 0.2], [0.3, bad], ["x", 0.4]], 0, 1).refused).toEqual({ row: 1, column: 1, cell: bad });
+      expect(
+        boundedNumbersFromCells(
+          [
+            [0.01, 0.2],
+            [0.3, bad],
+            ["x", 0.4],
+          ],
+          0,
+          1,
+        ).refused,
+      ).toEqual({ row: 1, column: 1, cell: bad });
     }
   });
 
@@ -134,9 +169,13 @@ describe("pairsFromCells", () => {
   it("matches the definition on random ranges of one shape", () => {
     fc.assert(
       fc.property(
-        fc.tuple(fc.integer({ min: 0, max: 400 }), fc.integer({ min: 1, max: 3 })).chain(([rows, w]) =>
-          fc.tuple(...[0, 1].map(() => fc.array(fc.array(anyCell, { minLength: w, maxLength: w }), { minLength: rows, maxLength: rows }))),
-        ),
+        fc
+          .tuple(fc.integer({ min: 0, max: 400 }), fc.integer({ min: 1, max: 3 }))
+          .chain(([rows, w]) =>
+            fc.tuple(
+              ...[0, 1].map(() => fc.array(fc.array(anyCell, { minLength: w, maxLength: w }), { minLength: rows, maxLength: rows })),
+            ),
+          ),
         ([a, b]) => {
           const p = pairsFromCells(a, b);
           const fa = a.flat();

@@ -167,7 +167,10 @@ describe("confidence sequence: the running intersection against a plain referenc
   });
 
   it("rows that shift far enough leave no common median: Unavailable, saying why", () => {
-    const values = [...Array.from({ length: 200 }, (_, i) => 40 + (i % 10) / 10), ...Array.from({ length: 400 }, (_, i) => 60 + (i % 10) / 10)];
+    const values = [
+      ...Array.from({ length: 200 }, (_, i) => 40 + (i % 10) / 10),
+      ...Array.from({ length: 400 }, (_, i) => 60 + (i % 10) / 10),
+    ];
     const r = confidenceSequence(values);
     expect(r.available).toBe(false);
     if (!r.available) expect(r.message).toMatch(/shift/);
@@ -208,7 +211,9 @@ describe("confidence sequence: Monte Carlo coverage (seeded xorshift32), watched
       }
       const rate = covered / runs;
       const se = Math.sqrt((0.05 * 0.95) / runs);
-      console.log(`confidence sequence, quantile ${q}, ${runs} runs of ${n} rows, 95%: covered at every row in ${(100 * rate).toFixed(1)}% of runs (simulation error ${(100 * se).toFixed(2)} points)`);
+      console.log(
+        `confidence sequence, quantile ${q}, ${runs} runs of ${n} rows, 95%: covered at every row in ${(100 * rate).toFixed(1)}% of runs (simulation error ${(100 * se).toFixed(2)} points)`,
+      );
       expect(rate).toBeGreaterThanOrEqual(0.95 - 3 * se);
     }
   });

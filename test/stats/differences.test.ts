@@ -54,7 +54,10 @@ describe("spreadsheetDifference", () => {
   });
 
   it("stays exact for tiny operands (scaled up in several exact steps)", () => {
-    const tiny = fc.record({ units: fc.bigInt({ min: -(10n ** 11n) + 1n, max: 10n ** 11n - 1n }), places: fc.integer({ min: 12, max: 40 }) });
+    const tiny = fc.record({
+      units: fc.bigInt({ min: -(10n ** 11n) + 1n, max: 10n ** 11n - 1n }),
+      places: fc.integer({ min: 12, max: 40 }),
+    });
     fc.assert(
       fc.property(tiny, tiny, (a, b) => {
         fc.pre(fits(a, b));

@@ -19,7 +19,10 @@ function reference(sample: number[]): { values: number[]; counts: number[] } {
 
 describe("distinctValues", () => {
   it("matches sorting and counting runs, with many repeats (hash table) and with few (full sort)", () => {
-    const repeated = fc.array(fc.integer({ min: -30, max: 30 }).map((k) => k / 4), { maxLength: 3000 });
+    const repeated = fc.array(
+      fc.integer({ min: -30, max: 30 }).map((k) => k / 4),
+      { maxLength: 3000 },
+    );
     const spread = fc.array(fc.double({ min: -1e6, max: 1e6, noNaN: true }), { maxLength: 3000 });
     fc.assert(
       fc.property(fc.oneof(repeated, spread), (sample) => {

@@ -72,7 +72,9 @@ describe("hodgesLehmann against R 4.2 wilcox.test(conf.int = TRUE) (fixture test
       expect(r.upper).toBe(want.upper);
       worst = Math.max(worst, relative(r.estimate, want.estimate as number), relative(r.achievedConfidence, want.achieved as number));
     }
-    console.log(`Hodges-Lehmann exact vs R: ${reachable} intervals, bounds identical, worst relative error (estimate, level) ${worst.toExponential(2)}`);
+    console.log(
+      `Hodges-Lehmann exact vs R: ${reachable} intervals, bounds identical, worst relative error (estimate, level) ${worst.toExponential(2)}`,
+    );
     expect(reachable).toBeGreaterThan(200);
     expect(worst).toBeLessThan(1e-14);
   });
@@ -112,7 +114,9 @@ describe("hodgesLehmann against R 4.2 wilcox.test(conf.int = TRUE) (fixture test
       const lowerGap = Math.abs(rankOf(want.rLower) - r.boundRank);
       const upperGap = Math.abs(rankOf(want.rUpper) - (w.length - r.boundRank));
       const exactGap = want.exactK === null ? "n/a" : String(Math.abs(want.exactK - r.boundRank));
-      lines.push(`n=${c.x.length}: R bounds ${lowerGap}/${upperGap} ranks off, estimate rel. diff ${relative(r.estimate, want.rEstimate).toExponential(1)}, exact-vs-normal rank gap ${exactGap}`);
+      lines.push(
+        `n=${c.x.length}: R bounds ${lowerGap}/${upperGap} ranks off, estimate rel. diff ${relative(r.estimate, want.rEstimate).toExponential(1)}, exact-vs-normal rank gap ${exactGap}`,
+      );
       expect(lowerGap).toBeLessThanOrEqual(40);
       expect(upperGap).toBeLessThanOrEqual(40);
       expect(relative(r.estimate, want.rEstimate)).toBeLessThan(1e-3);
@@ -125,7 +129,10 @@ describe("Walsh-average selection against brute force (all averages sorted)", ()
   it("every rank of small samples, with heavy ties, and sampled ranks up to n = 300", () => {
     fc.assert(
       fc.property(
-        fc.array(fc.oneof(fc.integer({ min: -3, max: 3 }), fc.double({ min: -1e6, max: 1e6, noNaN: true })), { minLength: 1, maxLength: 300 }),
+        fc.array(fc.oneof(fc.integer({ min: -3, max: 3 }), fc.double({ min: -1e6, max: 1e6, noNaN: true })), {
+          minLength: 1,
+          maxLength: 300,
+        }),
         fc.array(fc.double({ min: 0, max: 1, noNaN: true, maxExcluded: true }), { minLength: 1, maxLength: 4 }),
         (x, fractions) => {
           const w = walshAverages(x);
@@ -166,7 +173,10 @@ describe("hodgesLehmann: duality with the signed-rank test, coverage, data condi
           const k = r.boundRank;
           const alpha = 1 - confidence;
           const p = (mu: number) => {
-            const t = signedRankTest(x.map((v) => v - mu), { method: "exact" });
+            const t = signedRankTest(
+              x.map((v) => v - mu),
+              { method: "exact" },
+            );
             if (!t.available) throw new Error("unavailable");
             return t.pValue;
           };
@@ -183,15 +193,19 @@ describe("hodgesLehmann: duality with the signed-rank test, coverage, data condi
 
   it("shifts and positive scalings carry over exactly (dyadic data)", () => {
     fc.assert(
-      fc.property(fc.array(fc.integer({ min: -1000, max: 1000 }), { minLength: 6, maxLength: 60 }), fc.integer({ min: -50, max: 50 }), (ints, shift) => {
-        const x = ints.map((v) => v / 8);
-        const a = run(x);
-        const b = run(x.map((v) => 4 * v + shift));
-        expect(b.estimate).toBe(4 * a.estimate + shift);
-        expect(b.lower).toBe(4 * a.lower! + shift);
-        expect(b.upper).toBe(4 * a.upper! + shift);
-        expect(b.achievedConfidence).toBe(a.achievedConfidence);
-      }),
+      fc.property(
+        fc.array(fc.integer({ min: -1000, max: 1000 }), { minLength: 6, maxLength: 60 }),
+        fc.integer({ min: -50, max: 50 }),
+        (ints, shift) => {
+          const x = ints.map((v) => v / 8);
+          const a = run(x);
+          const b = run(x.map((v) => 4 * v + shift));
+          expect(b.estimate).toBe(4 * a.estimate + shift);
+          expect(b.lower).toBe(4 * a.lower! + shift);
+          expect(b.upper).toBe(4 * a.upper! + shift);
+          expect(b.achievedConfidence).toBe(a.achievedConfidence);
+        },
+      ),
       { numRuns: 100 },
     );
   });
@@ -236,7 +250,10 @@ describe("hodgesLehmann: duality with the signed-rank test, coverage, data condi
           if (cumulative > limit) break;
           k = x + 1;
         }
-        const r = hodgesLehmann(Array.from({ length: n }, (_, i) => i * 1.5 - 7), { confidence });
+        const r = hodgesLehmann(
+          Array.from({ length: n }, (_, i) => i * 1.5 - 7),
+          { confidence },
+        );
         if (k === 0) expect(r).toMatchObject({ available: false, reason: "unreachable" });
         else expect(r).toMatchObject({ available: true, boundRank: k, method: "exact" });
       }
@@ -284,13 +301,17 @@ describe("one-sided Hodges–Lehmann bounds", () => {
 
   it("is the end of the two-sided bounds at confidence 2γ − 1 (the same tail allowance)", () => {
     fc.assert(
-      fc.property(fc.array(fc.integer({ min: -500, max: 500 }), { minLength: 6, maxLength: 80 }), fc.constantFrom(0.9, 0.95, 0.975, 0.99), (ints, level) => {
-        const data = ints.map((v) => v / 4);
-        const one = hodgesLehmann(data, { confidence: level, side: "lower" });
-        const two = hodgesLehmann(data, { confidence: 2 * level - 1 });
-        expect(one.available).toBe(two.available);
-        if (one.available && two.available) expect(one.lower).toBe(two.lower);
-      }),
+      fc.property(
+        fc.array(fc.integer({ min: -500, max: 500 }), { minLength: 6, maxLength: 80 }),
+        fc.constantFrom(0.9, 0.95, 0.975, 0.99),
+        (ints, level) => {
+          const data = ints.map((v) => v / 4);
+          const one = hodgesLehmann(data, { confidence: level, side: "lower" });
+          const two = hodgesLehmann(data, { confidence: 2 * level - 1 });
+          expect(one.available).toBe(two.available);
+          if (one.available && two.available) expect(one.lower).toBe(two.lower);
+        },
+      ),
       { numRuns: 100 },
     );
   });

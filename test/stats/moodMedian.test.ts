@@ -64,38 +64,79 @@ describe("Fisher's exact test and the hypergeometric draw", () => {
 
 describe("Mood's median test", () => {
   it("two groups: the documented example gives 1/70 (Fisher, exact arithmetic)", () => {
-    const r = available(moodMedianTest([[1, 2, 3, 4], [5, 6, 7, 8]], { alternative: "greater" }));
+    const r = available(
+      moodMedianTest(
+        [
+          [1, 2, 3, 4],
+          [5, 6, 7, 8],
+        ],
+        { alternative: "greater" },
+      ),
+    );
     expect(r.pooledMedian).toBe(4.5);
     expect(r.method).toBe("fisher");
     expect(r.pValue).toBeCloseTo(1 / 70, 15);
   });
 
   it("puts values equal to the pooled median where the chosen rule says, and says how many there were", () => {
-    const groups = [[1, 2, 5, 5], [5, 8, 9]]; // pooled median 5, three values equal to it
+    const groups = [
+      [1, 2, 5, 5],
+      [5, 8, 9],
+    ]; // pooled median 5, three values equal to it
     const lower = available(moodMedianTest(groups));
     expect([lower.above, lower.notAbove, lower.equal]).toEqual([[0, 2], [4, 1], 3]);
     const upper = available(moodMedianTest(groups, { ties: "join-upper" }));
-    expect([upper.above, upper.notAbove]).toEqual([[2, 3], [2, 0]]);
+    expect([upper.above, upper.notAbove]).toEqual([
+      [2, 3],
+      [2, 0],
+    ]);
     const out = available(moodMedianTest(groups, { ties: "leave-out" }));
-    expect([out.above, out.notAbove]).toEqual([[0, 2], [2, 0]]);
+    expect([out.above, out.notAbove]).toEqual([
+      [0, 2],
+      [2, 0],
+    ]);
   });
 
   it("counts 0.1 + 0.2 as equal to a pooled median of 0.3, as the sheet shows them", () => {
-    const r = available(moodMedianTest([[0.1 + 0.2, 0.1], [0.3, 0.5, 0.6]], { ties: "leave-out" }));
+    const r = available(
+      moodMedianTest(
+        [
+          [0.1 + 0.2, 0.1],
+          [0.3, 0.5, 0.6],
+        ],
+        { ties: "leave-out" },
+      ),
+    );
     expect(r.pooledMedian).toBeCloseTo(0.3, 15); // 0.1 + 0.2 itself, 0.30000000000000004
     expect(r.equal).toBe(2);
   });
 
   it("k groups with small expected counts: the seeded Monte Carlo p-value is within 4 standard errors of the exact one (enumeration)", () => {
     const cases = [
-      [[1, 2, 3], [4, 5, 6, 7], [8, 9, 10]],
-      [[1, 9, 2, 8], [3, 7, 4], [5, 6, 10, 11, 12]],
-      [[1, 2], [3, 4, 5, 6, 7, 8], [9, 10, 11], [2.5, 12]],
+      [
+        [1, 2, 3],
+        [4, 5, 6, 7],
+        [8, 9, 10],
+      ],
+      [
+        [1, 9, 2, 8],
+        [3, 7, 4],
+        [5, 6, 10, 11, 12],
+      ],
+      [
+        [1, 2],
+        [3, 4, 5, 6, 7, 8],
+        [9, 10, 11],
+        [2.5, 12],
+      ],
     ];
     for (const groups of cases) {
       const r = available(moodMedianTest(groups));
       expect(r.method).toBe("monte-carlo");
-      const exact = exactP(r.above, r.above.map((a, j) => a + r.notAbove[j]));
+      const exact = exactP(
+        r.above,
+        r.above.map((a, j) => a + r.notAbove[j]),
+      );
       const se = Math.sqrt((exact * (1 - exact)) / REPLICATES);
       expect(Math.abs(r.pValue - exact)).toBeLessThan(4 * se + 1 / REPLICATES);
       expect(available(moodMedianTest(groups)).pValue).toBe(r.pValue); // seeded: the same on recalculation
@@ -121,15 +162,27 @@ describe("Mood's median test", () => {
 
 describe("Kruskal-Wallis", () => {
   it("gives H = 7.2 on three separated groups of three (exact arithmetic: 12/90 (36 + 225 + 576)/3 - 30)", () => {
-    const r = kruskalWallisTest([[1, 2, 3], [4, 5, 6], [7, 8, 9]]);
+    const r = kruskalWallisTest([
+      [1, 2, 3],
+      [4, 5, 6],
+      [7, 8, 9],
+    ]);
     if (!r.available) throw new Error(r.message);
     expect(r.statistic).toBeCloseTo(7.2, 12);
     expect(r.pValue).toBeCloseTo(Math.exp(-3.6), 14); // chi-square with 2 df: e^(-x/2)
   });
 
   it("does not depend on the order of the groups or of the values within them", () => {
-    const a = kruskalWallisTest([[3, 1, 2, 2], [9, 5], [4, 4, 7]]);
-    const b = kruskalWallisTest([[4, 7, 4], [2, 2, 1, 3], [5, 9]]);
+    const a = kruskalWallisTest([
+      [3, 1, 2, 2],
+      [9, 5],
+      [4, 4, 7],
+    ]);
+    const b = kruskalWallisTest([
+      [4, 7, 4],
+      [2, 2, 1, 3],
+      [5, 9],
+    ]);
     if (!a.available || !b.available) throw new Error("unavailable");
     expect(b.statistic).toBeCloseTo(a.statistic, 13);
   });

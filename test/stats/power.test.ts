@@ -60,14 +60,24 @@ describe("sign-test power against brute-force enumeration with exact BigInt arit
   it("power, attained alpha and rejection region for n <= 40", () => {
     let worst = 0;
     for (let n = 0; n <= 40; n++) {
-      for (const [a, c] of [[4, 5], [3, 5], [1, 3], [1, 2], [19, 20]] as const) {
+      for (const [a, c] of [
+        [4, 5],
+        [3, 5],
+        [1, 3],
+        [1, 2],
+        [19, 20],
+      ] as const) {
         for (const alpha of [0.01, 0.05, 0.2]) {
           for (const alternative of ALTERNATIVES) {
             const ours = signTestPower(n, a / c, { alpha, alternative });
             const exact = bruteForce(n, a, c, alpha, alternative);
             const region: number[] = [];
             for (let k = 0; k <= n; k++) {
-              if ((ours.rejectAtOrAbove !== null && k >= ours.rejectAtOrAbove) || (ours.rejectAtOrBelow !== null && k <= ours.rejectAtOrBelow)) region.push(k);
+              if (
+                (ours.rejectAtOrAbove !== null && k >= ours.rejectAtOrAbove) ||
+                (ours.rejectAtOrBelow !== null && k <= ours.rejectAtOrBelow)
+              )
+                region.push(k);
             }
             expect(region, `n=${n} p=${a}/${c} alpha=${alpha} ${alternative}`).toEqual(exact.rejected);
             if (exact.power === 0) expect(ours.power).toBe(0);
@@ -91,7 +101,10 @@ describe("sign-test power against R 4.2 pbinom (fixture test/fixtures/power.R)",
       const label = JSON.stringify(c);
       expect(ours.rejectAtOrAbove, label).toBe(c.rejectAtOrAbove);
       expect(ours.rejectAtOrBelow, label).toBe(c.rejectAtOrBelow);
-      for (const [mine, theirs] of [[ours.power, c.power], [ours.attainedAlpha, c.attainedAlpha]]) {
+      for (const [mine, theirs] of [
+        [ours.power, c.power],
+        [ours.attainedAlpha, c.attainedAlpha],
+      ]) {
         if (theirs < 1e-300) expect(mine, label).toBeLessThan(1e-300);
         else worst = Math.max(worst, relativeError(mine, theirs));
       }
@@ -197,7 +210,12 @@ describe("sign-test power: examples, unavailable results and argument checks", (
   });
 
   it("unreachable targets are Unavailable, not errors", () => {
-    for (const [pAbove, alternative] of [[0.5, "two-sided"], [0.3, "greater"], [0.7, "less"], [0.5, "greater"]] as const) {
+    for (const [pAbove, alternative] of [
+      [0.5, "two-sided"],
+      [0.3, "greater"],
+      [0.7, "less"],
+      [0.5, "greater"],
+    ] as const) {
       const r = signTestSampleSize(pAbove, { alternative });
       expect(r.available).toBe(false);
       if (!r.available) expect(r.reason).toBe("unreachable");

@@ -32,7 +32,8 @@ function lcg(seed: number): () => number {
 function exactConfidence(confidence: number): Fraction {
   const percent = confidence * 100;
   const rounded = Math.round(percent * 1e6) / 1e6;
-  if (Math.abs(percent - rounded) < 1e-9 && Number.isInteger(rounded * 1e6)) return { num: BigInt(Math.round(rounded * 1e6)), den: 100_000_000n };
+  if (Math.abs(percent - rounded) < 1e-9 && Number.isInteger(rounded * 1e6))
+    return { num: BigInt(Math.round(rounded * 1e6)), den: 100_000_000n };
   return fromNumber(confidence);
 }
 
@@ -71,7 +72,6 @@ const RATIONAL_Q: readonly [number, number][] = [
   [3, 20],
 ];
 
-
 describe("boundRanks against R 4.2 pbinom/qbinom (test/fixtures/signTest.R)", () => {
   const cases = fixtures.bounds;
   it(`gives the same ranks and coverage in ${cases.length} generated cases up to n = 1e6`, () => {
@@ -96,12 +96,26 @@ describe("boundRanks against exact BigInt arithmetic", () => {
           for (let n = 1; n <= 90; n++) {
             const want = exactRanks(n, a, b, confidence, side);
             const got = boundRanks(n, a / b, confidence, side);
-            expect({ n, a, b, confidence, side, available: got.available }).toEqual({ n, a, b, confidence, side, available: want.available });
+            expect({ n, a, b, confidence, side, available: got.available }).toEqual({
+              n,
+              a,
+              b,
+              confidence,
+              side,
+              available: want.available,
+            });
             if (!got.available) {
               expect(got.minimumN).toBeGreaterThan(n);
               continue;
             }
-            expect({ n, a, b, side, lower: got.lowerRank, upper: got.upperRank }).toEqual({ n, a, b, side, lower: want.lower, upper: want.upper });
+            expect({ n, a, b, side, lower: got.lowerRank, upper: got.upperRank }).toEqual({
+              n,
+              a,
+              b,
+              side,
+              lower: want.lower,
+              upper: want.upper,
+            });
             worst = Math.max(worst, Math.abs(got.achievedConfidence - toNumber(want.coverage)));
           }
         }
@@ -229,9 +243,9 @@ describe("quantileBounds on data", () => {
       expect(few.message).toBe("5 values are too few for 95% two-sided bounds for the median: at least 6 are needed.");
     }
     const one = quantileBounds([1], { quantile: 0.9, side: "upper", confidence: 0.8 });
-    expect(one.available === false && one.minimumN === 16 && /1 value is too few .* upper bound for the 0.9 quantile/.test(one.message)).toBe(
-      true,
-    );
+    expect(
+      one.available === false && one.minimumN === 16 && /1 value is too few .* upper bound for the 0.9 quantile/.test(one.message),
+    ).toBe(true);
     const none = quantileBounds([]);
     expect(none.available === false && none.reason === "no-data" && none.minimumN === 6).toBe(true);
   });
@@ -420,17 +434,23 @@ describe("quantileBounds properties (fast-check)", () => {
 
   it("coverage grows with the confidence asked (monotone ranks)", () => {
     fc.assert(
-      fc.property(fc.integer({ min: 1, max: 500 }), fc.double({ min: 0.02, max: 0.98, noNaN: true }), confidence, confidence, (n, q, c1, c2) => {
-        const [lo, hi] = c1 <= c2 ? [c1, c2] : [c2, c1];
-        const a = boundRanks(n, q, lo, "two-sided");
-        const b = boundRanks(n, q, hi, "two-sided");
-        if (!b.available) return;
-        expect(a.available).toBe(true);
-        if (!a.available) return;
-        expect(b.lowerRank as number).toBeLessThanOrEqual(a.lowerRank as number);
-        expect(b.upperRank as number).toBeGreaterThanOrEqual(a.upperRank as number);
-        expect(b.achievedConfidence).toBeGreaterThanOrEqual(a.achievedConfidence - 1e-15);
-      }),
+      fc.property(
+        fc.integer({ min: 1, max: 500 }),
+        fc.double({ min: 0.02, max: 0.98, noNaN: true }),
+        confidence,
+        confidence,
+        (n, q, c1, c2) => {
+          const [lo, hi] = c1 <= c2 ? [c1, c2] : [c2, c1];
+          const a = boundRanks(n, q, lo, "two-sided");
+          const b = boundRanks(n, q, hi, "two-sided");
+          if (!b.available) return;
+          expect(a.available).toBe(true);
+          if (!a.available) return;
+          expect(b.lowerRank as number).toBeLessThanOrEqual(a.lowerRank as number);
+          expect(b.upperRank as number).toBeGreaterThanOrEqual(a.upperRank as number);
+          expect(b.achievedConfidence).toBeGreaterThanOrEqual(a.achievedConfidence - 1e-15);
+        },
+      ),
     );
   });
 });

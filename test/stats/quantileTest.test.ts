@@ -4,7 +4,18 @@ import { signTestFixture as fixtures, type QuantileCase as QuantileFixture } fro
 import { quantileTest, type QuantileTestResult, type TwoSidedRule } from "../../src/stats/quantileTest";
 import { signTest } from "../../src/stats/signTest";
 import type { Alternative } from "../../src/stats/types";
-import { add, compare, exactBinomial, exactLower, exactPmf, exactUpper, fromNumber, relativeError, times, type Fraction } from "./signFamilyExact";
+import {
+  add,
+  compare,
+  exactBinomial,
+  exactLower,
+  exactPmf,
+  exactUpper,
+  fromNumber,
+  relativeError,
+  times,
+  type Fraction,
+} from "./signFamilyExact";
 
 /** A sample with the given counts below and above `value` = 1 (and ties at 1). */
 function sample(below: number, above: number, tied = 0): Float64Array {
@@ -12,7 +23,12 @@ function sample(below: number, above: number, tied = 0): Float64Array {
   return values.fill(1, below, below + tied);
 }
 
-function run(values: ArrayLike<number>, value: number, quantile: number, options: Parameters<typeof quantileTest>[3] = {}): QuantileTestResult {
+function run(
+  values: ArrayLike<number>,
+  value: number,
+  quantile: number,
+  options: Parameters<typeof quantileTest>[3] = {},
+): QuantileTestResult {
   const r = quantileTest(values, value, quantile, options);
   if (!r.available) throw new Error(`unexpectedly unavailable: ${r.message}`);
   return r;
@@ -21,7 +37,6 @@ function run(values: ArrayLike<number>, value: number, quantile: number, options
 function relErr(a: number, b: number): number {
   return a === b ? 0 : Math.abs(a - b) / Math.abs(b);
 }
-
 
 describe("quantileTest against R 4.2 binom.test (test/fixtures/signTest.R)", () => {
   const cases = fixtures.quantile;
@@ -160,10 +175,16 @@ describe("quantileTest properties (fast-check)", () => {
 
   it("p lies in [0, 1]", () => {
     fc.assert(
-      fc.property(counts, quantile, fc.constantFrom<Alternative>("greater", "less", "two-sided"), rule, ([b, a], q, alternative, twoSidedRule) => {
-        const p = run(sample(b, a), 1, q, { alternative, twoSidedRule }).pValue;
-        expect(p >= 0 && p <= 1).toBe(true);
-      }),
+      fc.property(
+        counts,
+        quantile,
+        fc.constantFrom<Alternative>("greater", "less", "two-sided"),
+        rule,
+        ([b, a], q, alternative, twoSidedRule) => {
+          const p = run(sample(b, a), 1, q, { alternative, twoSidedRule }).pValue;
+          expect(p >= 0 && p <= 1).toBe(true);
+        },
+      ),
     );
   });
 

@@ -36,7 +36,10 @@ function bruteForceP(first: number[], second: number[], alternative: Alternative
   let all = 0;
   for (const chosen of subsets(pooled.length, n)) {
     const set = new Set(chosen);
-    const u = uOf(pooled.filter((_, i) => !set.has(i)), chosen.map((i) => pooled[i]));
+    const u = uOf(
+      pooled.filter((_, i) => !set.has(i)),
+      chosen.map((i) => pooled[i]),
+    );
     all++;
     if (u <= observed + 1e-9) below++;
     if (u >= observed - 1e-9) above++;
@@ -142,10 +145,22 @@ describe("rankSumTest", () => {
         (x, y, shift, method) => {
           const forward = available(rankSumTest(x, y, { shift, alternative: "greater", method }));
           // second − first > shift  <=>  first − second < −shift; moving first by −shift is moving second by +shift
-          const back = available(rankSumTest(y.map((v) => v - shift), x, { alternative: "less", method }));
+          const back = available(
+            rankSumTest(
+              y.map((v) => v - shift),
+              x,
+              { alternative: "less", method },
+            ),
+          );
           expect(back.pValue).toBeCloseTo(forward.pValue, 12);
           const two = available(rankSumTest(x, y, { shift, method }));
-          const twoBack = available(rankSumTest(y.map((v) => v - shift), x, { method }));
+          const twoBack = available(
+            rankSumTest(
+              y.map((v) => v - shift),
+              x,
+              { method },
+            ),
+          );
           expect(twoBack.pValue).toBeCloseTo(two.pValue, 12);
         },
       ),

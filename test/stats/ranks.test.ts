@@ -35,7 +35,7 @@ describe("sortFloat64", () => {
     );
     // Radix path: long arrays of several shapes (random doubles, two-decimal data that skip low digits, mixed signs).
     let seed = 7;
-    const next = () => ((seed = (Math.imul(seed, 1103515245) + 12345) >>> 0) / 2 ** 32);
+    const next = () => (seed = (Math.imul(seed, 1103515245) + 12345) >>> 0) / 2 ** 32;
     const shapes = [
       () => (next() - 0.5) * 1e6,
       () => Math.round(next() * 20000) / 100,

@@ -55,18 +55,14 @@ const patterns: Record<string, (n: number) => Float64Array> = {
 describe("selectInPlace", () => {
   it("places the k-th smallest and partitions around it, for small arrays (property)", () => {
     fc.assert(
-      fc.property(
-        fc.array(fc.double({ noNaN: true, noDefaultInfinity: false }), { minLength: 1, maxLength: 80 }),
-        fc.nat(),
-        (xs, k0) => {
-          const data = Float64Array.from(xs);
-          const k = k0 % data.length;
-          const sorted = sortedCopy(data);
-          expectSame(selectInPlace(data, k), sorted[k]);
-          expectPlaced(data, k, sorted);
-          expectSameList(sortedCopy(data), sorted); // a permutation of the input
-        },
-      ),
+      fc.property(fc.array(fc.double({ noNaN: true, noDefaultInfinity: false }), { minLength: 1, maxLength: 80 }), fc.nat(), (xs, k0) => {
+        const data = Float64Array.from(xs);
+        const k = k0 % data.length;
+        const sorted = sortedCopy(data);
+        expectSame(selectInPlace(data, k), sorted[k]);
+        expectPlaced(data, k, sorted);
+        expectSameList(sortedCopy(data), sorted); // a permutation of the input
+      }),
     );
   });
 
@@ -110,7 +106,10 @@ describe("selectManyInPlace", () => {
           const data = Float64Array.from(xs);
           const indices = raw.map((i) => i % data.length);
           const sorted = sortedCopy(data);
-          expectSameList(selectManyInPlace(data, indices), indices.map((i) => sorted[i]));
+          expectSameList(
+            selectManyInPlace(data, indices),
+            indices.map((i) => sorted[i]),
+          );
           // Every requested position is placed, so each stretch between them holds its sorted values.
           for (const i of indices) expectPlaced(data, i, sorted);
         },
@@ -144,12 +143,12 @@ describe("valuesAtRanks (read-only, bracketed on long arrays)", () => {
   const n = 40_000; // above the length from which the bracket is tried
   const shapes: Record<string, (i: number) => number> = {
     "scrambled two-decimal values": (i) => Math.round(((i * 7919) % 10007) * 1.3) / 100,
-    "sorted": (i) => i / 7,
-    "reversed": (i) => -i,
+    sorted: (i) => i / 7,
+    reversed: (i) => -i,
     "organ pipe": (i) => Math.abs(i - n / 2),
     "period equal to the sample spacing": (i) => (i % 34 === 0 ? 0 : 1 + (i % 5)),
     "five distinct values": (i) => i % 5,
-    "constant": () => 3,
+    constant: () => 3,
   };
   for (const [name, shape] of Object.entries(shapes)) {
     it(`agrees with a full sort and leaves the input as it was: ${name}`, () => {

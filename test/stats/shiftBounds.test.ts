@@ -22,17 +22,22 @@ describe("differenceOrderStatistic against the sorted list of every difference (
   it("gives every rank, with and without ties, small and large enough to take the sampling rounds", () => {
     const value = fc.oneof(fc.integer({ min: -20, max: 20 }), fc.double({ min: -1e3, max: 1e3, noNaN: true }));
     fc.assert(
-      fc.property(fc.array(value, { minLength: 1, maxLength: 250 }), fc.array(value, { minLength: 1, maxLength: 250 }), fc.nat(), (x, y, seed) => {
-        const d = allDifferences(x, y);
-        const matrix = differenceMatrix(sorted(x), sorted(y));
-        const ranks = [1, d.length, 1 + (seed % d.length), Math.ceil(d.length / 2)];
-        for (const k of ranks) expect(differenceOrderStatistic(matrix, k)).toBe(d[k - 1]);
-        // Several at once, as SHIFT asks for them: close together around the middle, and spread out.
-        const middle = Math.ceil(d.length / 2);
-        const near = [middle, Math.max(1, middle - 1 - (seed % 50)), Math.min(d.length, middle + 1 + (seed % 70))];
-        expect(differenceOrderStatistics(matrix, near)).toEqual(near.map((k) => d[k - 1]));
-        expect(differenceOrderStatistics(matrix, ranks)).toEqual(ranks.map((k) => d[k - 1]));
-      }),
+      fc.property(
+        fc.array(value, { minLength: 1, maxLength: 250 }),
+        fc.array(value, { minLength: 1, maxLength: 250 }),
+        fc.nat(),
+        (x, y, seed) => {
+          const d = allDifferences(x, y);
+          const matrix = differenceMatrix(sorted(x), sorted(y));
+          const ranks = [1, d.length, 1 + (seed % d.length), Math.ceil(d.length / 2)];
+          for (const k of ranks) expect(differenceOrderStatistic(matrix, k)).toBe(d[k - 1]);
+          // Several at once, as SHIFT asks for them: close together around the middle, and spread out.
+          const middle = Math.ceil(d.length / 2);
+          const near = [middle, Math.max(1, middle - 1 - (seed % 50)), Math.min(d.length, middle + 1 + (seed % 70))];
+          expect(differenceOrderStatistics(matrix, near)).toEqual(near.map((k) => d[k - 1]));
+          expect(differenceOrderStatistics(matrix, ranks)).toEqual(ranks.map((k) => d[k - 1]));
+        },
+      ),
       { numRuns: 200 },
     );
   });
@@ -85,13 +90,23 @@ describe("shiftBounds", () => {
   it("adding a constant to the second group moves the estimate and bounds by it (integers: exact arithmetic)", () => {
     const value = fc.integer({ min: -1000, max: 1000 });
     fc.assert(
-      fc.property(fc.array(value, { minLength: 5, maxLength: 60 }), fc.array(value, { minLength: 5, maxLength: 60 }), fc.integer({ min: -500, max: 500 }), (x, y, c) => {
-        const before = available(shiftBounds(x, y));
-        const after = available(shiftBounds(x, y.map((v) => v + c)));
-        expect(after.estimate).toBe(before.estimate + c);
-        expect(after.lower).toBe((before.lower as number) + c);
-        expect(after.upper).toBe((before.upper as number) + c);
-      }),
+      fc.property(
+        fc.array(value, { minLength: 5, maxLength: 60 }),
+        fc.array(value, { minLength: 5, maxLength: 60 }),
+        fc.integer({ min: -500, max: 500 }),
+        (x, y, c) => {
+          const before = available(shiftBounds(x, y));
+          const after = available(
+            shiftBounds(
+              x,
+              y.map((v) => v + c),
+            ),
+          );
+          expect(after.estimate).toBe(before.estimate + c);
+          expect(after.lower).toBe((before.lower as number) + c);
+          expect(after.upper).toBe((before.upper as number) + c);
+        },
+      ),
       { numRuns: 100 },
     );
   });
@@ -99,26 +114,30 @@ describe("shiftBounds", () => {
   it("bounds and test are dual: shifts just inside the bounds are not rejected at 1 − confidence, just outside they are", () => {
     const value = fc.integer({ min: 0, max: 1_000_000 }).map((v) => v / 1000);
     fc.assert(
-      fc.property(fc.uniqueArray(value, { minLength: 4, maxLength: 25 }), fc.uniqueArray(value, { minLength: 4, maxLength: 25 }), (x, y) => {
-        const d = allDifferences(x, y);
-        if (new Set(d).size !== d.length) return; // continuous case: no tied differences
-        const r = shiftBounds(x, y, { confidence: 0.9 });
-        if (!r.available) return;
-        const alpha = 1 - r.confidence;
-        const k = r.boundRank;
-        const p = (shift: number) => {
-          const t = rankSumTest(x, y, { shift, method: "exact" });
-          if (!t.available) throw new Error(t.message);
-          return t.pValue;
-        };
-        const lowInside = (d[k - 1] + d[k]) / 2;
-        const highInside = (d[d.length - k - 1] + d[d.length - k]) / 2;
-        expect(p(lowInside)).toBeGreaterThan(alpha);
-        expect(p(highInside)).toBeGreaterThan(alpha);
-        if (k >= 2) expect(p((d[k - 2] + d[k - 1]) / 2)).toBeLessThanOrEqual(alpha);
-        if (k >= 2) expect(p((d[d.length - k] + d[d.length - k + 1]) / 2)).toBeLessThanOrEqual(alpha);
-        expect(p(d[0] - 1)).toBeLessThanOrEqual(alpha);
-      }),
+      fc.property(
+        fc.uniqueArray(value, { minLength: 4, maxLength: 25 }),
+        fc.uniqueArray(value, { minLength: 4, maxLength: 25 }),
+        (x, y) => {
+          const d = allDifferences(x, y);
+          if (new Set(d).size !== d.length) return; // continuous case: no tied differences
+          const r = shiftBounds(x, y, { confidence: 0.9 });
+          if (!r.available) return;
+          const alpha = 1 - r.confidence;
+          const k = r.boundRank;
+          const p = (shift: number) => {
+            const t = rankSumTest(x, y, { shift, method: "exact" });
+            if (!t.available) throw new Error(t.message);
+            return t.pValue;
+          };
+          const lowInside = (d[k - 1] + d[k]) / 2;
+          const highInside = (d[d.length - k - 1] + d[d.length - k]) / 2;
+          expect(p(lowInside)).toBeGreaterThan(alpha);
+          expect(p(highInside)).toBeGreaterThan(alpha);
+          if (k >= 2) expect(p((d[k - 2] + d[k - 1]) / 2)).toBeLessThanOrEqual(alpha);
+          if (k >= 2) expect(p((d[d.length - k] + d[d.length - k + 1]) / 2)).toBeLessThanOrEqual(alpha);
+          expect(p(d[0] - 1)).toBeLessThanOrEqual(alpha);
+        },
+      ),
       { numRuns: 60 },
     );
   });

@@ -40,7 +40,10 @@ describe("countSigns", () => {
         fc.integer({ min: -40, max: 40 }).map((k) => c + k * Math.abs(c) * 1e-14),
         fc.double({ noNaN: true, noDefaultInfinity: true, min: -1e6, max: 1e6 }),
       );
-    const centre = fc.oneof(fc.constantFrom(0, 0.3, 50, -7.25, 1e-9, 123456.789), fc.double({ noNaN: true, noDefaultInfinity: true, min: -1e9, max: 1e9 }));
+    const centre = fc.oneof(
+      fc.constantFrom(0, 0.3, 50, -7.25, 1e-9, 123456.789),
+      fc.double({ noNaN: true, noDefaultInfinity: true, min: -1e9, max: 1e9 }),
+    );
     fc.assert(
       fc.property(
         centre.chain((c) => fc.tuple(fc.constant(c), fc.array(near(c), { maxLength: 40 }))),

@@ -5,7 +5,19 @@ import { signTest, type SignTestResult } from "../../src/stats/signTest";
 import type { SignCounts } from "../../src/stats/signCounts";
 import type { Alternative, SignTestMethod } from "../../src/stats/types";
 import { TRIOLA_A7, TRIOLA_ALPHAS } from "./signFamilyTables";
-import { HALF, ONE, exactBinomial, exactLower, exactPmf, exactUpper, relativeError, subtract, times, toNumber, type Fraction } from "./signFamilyExact";
+import {
+  HALF,
+  ONE,
+  exactBinomial,
+  exactLower,
+  exactPmf,
+  exactUpper,
+  relativeError,
+  subtract,
+  times,
+  toNumber,
+  type Fraction,
+} from "./signFamilyExact";
 
 function run(counts: SignCounts, options: Parameters<typeof signTest>[1] = {}): SignTestResult {
   const r = signTest(counts, options);
@@ -19,7 +31,6 @@ function relErr(a: number, b: number): number {
 
 const ALTERNATIVES: readonly Alternative[] = ["two-sided", "greater", "less"];
 const METHODS: readonly SignTestMethod[] = ["exact", "midp", "normal"];
-
 
 describe("signTest against R 4.2 (test/fixtures/signTest.R: binom.test, pbinom/dbinom, prop.test)", () => {
   const cases = fixtures.sign;
@@ -83,7 +94,6 @@ describe("signTest against exact BigInt binomial sums", () => {
     }
   });
 });
-
 
 // Published source: M. F. Triola, "Elementary Statistics", Table A-7 (details beside the table in signFamilyTables.ts).
 describe("signTest against a published table of critical values (Triola, Table A-7)", () => {
@@ -277,11 +287,16 @@ describe("signTest properties (fast-check)", () => {
 
   it("exact p-values equal BigInt sums on random counts", () => {
     fc.assert(
-      fc.property(fc.nat({ max: 150 }), fc.nat({ max: 150 }), fc.constantFrom<Alternative>(...ALTERNATIVES), (below, above, alternative) => {
-        if (below + above === 0) return;
-        const got = run({ below, tied: 0, above }, { alternative }).pValue;
-        expect(relativeError(got, exactPValue(below, above, alternative, false))).toBeLessThan(1e-12);
-      }),
+      fc.property(
+        fc.nat({ max: 150 }),
+        fc.nat({ max: 150 }),
+        fc.constantFrom<Alternative>(...ALTERNATIVES),
+        (below, above, alternative) => {
+          if (below + above === 0) return;
+          const got = run({ below, tied: 0, above }, { alternative }).pValue;
+          expect(relativeError(got, exactPValue(below, above, alternative, false))).toBeLessThan(1e-12);
+        },
+      ),
     );
   });
 });

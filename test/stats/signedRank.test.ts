@@ -1,6 +1,13 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import { EXACT_AUTO_LIMIT, EXACT_LIMIT, signedRankLowerTail, signedRankNullCdf, signedRankTest, type SignedRankResult } from "../../src/stats/signedRank";
+import {
+  EXACT_AUTO_LIMIT,
+  EXACT_LIMIT,
+  signedRankLowerTail,
+  signedRankNullCdf,
+  signedRankTest,
+  type SignedRankResult,
+} from "../../src/stats/signedRank";
 import type { Alternative, ZeroRule } from "../../src/stats/types";
 import fixture from "../fixtures/signedRank.json";
 
@@ -112,7 +119,10 @@ describe("signedRankNullCdf against R 4.2 psignrank (fixture)", () => {
     let worst = 0;
     for (const { n, q, p } of nullCdf) {
       const cap = Math.max(...q);
-      const cdf = signedRankNullCdf(Array.from({ length: n }, (_, i) => i + 1), cap);
+      const cdf = signedRankNullCdf(
+        Array.from({ length: n }, (_, i) => i + 1),
+        cap,
+      );
       q.forEach((qi, i) => (worst = Math.max(worst, relative(cdf[qi], p[i]))));
     }
     console.log(`signedRankNullCdf vs R psignrank: worst relative error ${worst.toExponential(2)}`);
@@ -129,7 +139,10 @@ describe("signedRankNullCdf against R 4.2 psignrank (fixture)", () => {
 
   it("keeps full accuracy past 500 scores (rescaling) and deep in the tail", () => {
     // P(W <= 0) = 2^-600 exactly, P(W <= 1) = 2^-599 for the scores 1..600 (one subset sums to 1).
-    const cdf = signedRankNullCdf(Array.from({ length: 600 }, (_, i) => i + 1), 3);
+    const cdf = signedRankNullCdf(
+      Array.from({ length: 600 }, (_, i) => i + 1),
+      3,
+    );
     expect(cdf[0]).toBe(2 ** -600);
     expect(cdf[1]).toBe(2 ** -599);
     expect(relative(cdf[3], 5 * 2 ** -600)).toBeLessThan(1e-15); // sums 0, 1, 2, 3 (=3 or 1+2)
@@ -150,9 +163,13 @@ describe("signedRankLowerTail (two half-sets, lower halves only)", () => {
 
   it("equals brute-force enumeration on random score multisets (exact arithmetic, property)", () => {
     fc.assert(
-      fc.property(fc.array(fc.integer({ min: 1, max: 12 }), { minLength: 0, maxLength: 14 }), fc.integer({ min: -2, max: 90 }), (scores, q) => {
-        expect(signedRankLowerTail(scores, q)).toBe(enumerated(scores, q));
-      }),
+      fc.property(
+        fc.array(fc.integer({ min: 1, max: 12 }), { minLength: 0, maxLength: 14 }),
+        fc.integer({ min: -2, max: 90 }),
+        (scores, q) => {
+          expect(signedRankLowerTail(scores, q)).toBe(enumerated(scores, q));
+        },
+      ),
       { numRuns: 300 },
     );
   });
@@ -180,24 +197,32 @@ describe("signedRankLowerTail (two half-sets, lower halves only)", () => {
 });
 
 describe("signedRankTest against brute-force enumeration (exact arithmetic), n <= 12", () => {
-  const smallData = fc.array(fc.integer({ min: -4, max: 4 }).map((v) => v / 2), { minLength: 1, maxLength: 12 });
+  const smallData = fc.array(
+    fc.integer({ min: -4, max: 4 }).map((v) => v / 2),
+    { minLength: 1, maxLength: 12 },
+  );
   it("exact p-values, statistic, null mean and variance with ties and zeros, both zero rules", () => {
     fc.assert(
-      fc.property(smallData, fc.constantFrom<Alternative>("two-sided", "greater", "less"), fc.constantFrom<ZeroRule>("drop", "pratt"), (d, alternative, zeros) => {
-        const r = signedRankTest(d, { alternative, zeros, method: "exact" });
-        if (d.every((v) => v === 0)) {
-          expect(r.available).toBe(false);
-          return;
-        }
-        if (!r.available) throw new Error("unavailable");
-        const e = enumerate(d, zeros);
-        expect(r.statistic).toBe(e.statistic);
-        expect(relative(r.pValue, pick(e, alternative))).toBeLessThan(1e-14);
-        expect(relative(r.expected, e.expected)).toBeLessThan(1e-14);
-        expect(relative(r.variance, e.variance)).toBeLessThan(1e-12);
-        expect(r.n).toBe(zeros === "pratt" ? d.length : d.filter((v) => v !== 0).length);
-        expect(r.zeroCount).toBe(d.filter((v) => v === 0).length);
-      }),
+      fc.property(
+        smallData,
+        fc.constantFrom<Alternative>("two-sided", "greater", "less"),
+        fc.constantFrom<ZeroRule>("drop", "pratt"),
+        (d, alternative, zeros) => {
+          const r = signedRankTest(d, { alternative, zeros, method: "exact" });
+          if (d.every((v) => v === 0)) {
+            expect(r.available).toBe(false);
+            return;
+          }
+          if (!r.available) throw new Error("unavailable");
+          const e = enumerate(d, zeros);
+          expect(r.statistic).toBe(e.statistic);
+          expect(relative(r.pValue, pick(e, alternative))).toBeLessThan(1e-14);
+          expect(relative(r.expected, e.expected)).toBeLessThan(1e-14);
+          expect(relative(r.variance, e.variance)).toBeLessThan(1e-12);
+          expect(r.n).toBe(zeros === "pratt" ? d.length : d.filter((v) => v !== 0).length);
+          expect(r.zeroCount).toBe(d.filter((v) => v === 0).length);
+        },
+      ),
       { numRuns: 400 },
     );
   });
@@ -234,7 +259,10 @@ describe("signedRankTest by hand and properties", () => {
   });
 
   it(`auto is exact up to ${EXACT_AUTO_LIMIT} non-zero differences, exact is honoured up to ${EXACT_LIMIT}`, () => {
-    const data = (m: number, zeros: number) => [...Array.from({ length: m }, (_, i) => (i % 3 === 0 ? -1 : 1) * (i + 1)), ...Array(zeros).fill(0)];
+    const data = (m: number, zeros: number) => [
+      ...Array.from({ length: m }, (_, i) => (i % 3 === 0 ? -1 : 1) * (i + 1)),
+      ...Array(zeros).fill(0),
+    ];
     expect(run(data(EXACT_AUTO_LIMIT, 5), {}).method).toBe("exact");
     expect(run(data(EXACT_AUTO_LIMIT + 1, 0), {}).method).toBe("normal");
     const big = run(data(EXACT_LIMIT + 1, 0), { method: "exact" });
@@ -245,7 +273,10 @@ describe("signedRankTest by hand and properties", () => {
 
   it("exact and normal p-values agree within 1% at the auto limit for p >= 0.01 (supports the choice of limit)", () => {
     const n = EXACT_AUTO_LIMIT;
-    const cdf = signedRankNullCdf(Array.from({ length: n }, (_, i) => i + 1), (n * (n + 1)) / 4);
+    const cdf = signedRankNullCdf(
+      Array.from({ length: n }, (_, i) => i + 1),
+      (n * (n + 1)) / 4,
+    );
     for (const target of [0.01, 0.05, 0.2]) {
       let q = 0;
       while (cdf[q + 1] <= target) q++;
@@ -261,24 +292,38 @@ describe("signedRankTest by hand and properties", () => {
   });
 
   it("p in [0, 1]; mirror symmetry; two-sided = min(1, 2 x smaller one-sided); invariant to positive scaling", () => {
-    const data = fc.array(fc.oneof(fc.integer({ min: -6, max: 6 }), fc.double({ min: -10, max: 10, noNaN: true })), { minLength: 1, maxLength: 40 });
+    const data = fc.array(fc.oneof(fc.integer({ min: -6, max: 6 }), fc.double({ min: -10, max: 10, noNaN: true })), {
+      minLength: 1,
+      maxLength: 40,
+    });
     fc.assert(
-      fc.property(data, fc.constantFrom<ZeroRule>("drop", "pratt"), fc.constantFrom("exact", "normal") as fc.Arbitrary<"exact" | "normal">, (d, zeros, method) => {
-        if (d.every((v) => v === 0)) return;
-        const g = run(d, { alternative: "greater", zeros, method });
-        const l = run(d, { alternative: "less", zeros, method });
-        const t = run(d, { alternative: "two-sided", zeros, method });
-        for (const r of [g, l, t]) {
-          expect(r.pValue).toBeGreaterThanOrEqual(0);
-          expect(r.pValue).toBeLessThanOrEqual(1);
-        }
-        const mirrored = run(d.map((v) => -v), { alternative: "less", zeros, method });
-        expect(relative(mirrored.pValue, g.pValue)).toBeLessThan(1e-12);
-        if (method === "exact") expect(relative(t.pValue, Math.min(1, 2 * Math.min(g.pValue, l.pValue)))).toBeLessThan(1e-12);
-        else expect(t.pValue).toBeGreaterThanOrEqual(Math.min(g.pValue, l.pValue));
-        const scaled = run(d.map((v) => v * 8), { alternative: "greater", zeros, method });
-        expect(scaled.pValue).toBe(g.pValue);
-      }),
+      fc.property(
+        data,
+        fc.constantFrom<ZeroRule>("drop", "pratt"),
+        fc.constantFrom("exact", "normal") as fc.Arbitrary<"exact" | "normal">,
+        (d, zeros, method) => {
+          if (d.every((v) => v === 0)) return;
+          const g = run(d, { alternative: "greater", zeros, method });
+          const l = run(d, { alternative: "less", zeros, method });
+          const t = run(d, { alternative: "two-sided", zeros, method });
+          for (const r of [g, l, t]) {
+            expect(r.pValue).toBeGreaterThanOrEqual(0);
+            expect(r.pValue).toBeLessThanOrEqual(1);
+          }
+          const mirrored = run(
+            d.map((v) => -v),
+            { alternative: "less", zeros, method },
+          );
+          expect(relative(mirrored.pValue, g.pValue)).toBeLessThan(1e-12);
+          if (method === "exact") expect(relative(t.pValue, Math.min(1, 2 * Math.min(g.pValue, l.pValue)))).toBeLessThan(1e-12);
+          else expect(t.pValue).toBeGreaterThanOrEqual(Math.min(g.pValue, l.pValue));
+          const scaled = run(
+            d.map((v) => v * 8),
+            { alternative: "greater", zeros, method },
+          );
+          expect(scaled.pValue).toBe(g.pValue);
+        },
+      ),
       { numRuns: 300 },
     );
   });

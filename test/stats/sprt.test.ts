@@ -126,7 +126,9 @@ describe("SPRT: achieved error rates within Wald's bounds", () => {
     const achievedBeta = rate(pAbove, "accept");
     const exactAlpha = sprtCharacteristic(0.5, limits).reject;
     const exactBeta = sprtCharacteristic(pAbove, limits).accept;
-    console.log(`SPRT Monte Carlo, ${runs} runs: alpha ${achievedAlpha.toFixed(4)} (exact ${exactAlpha.toFixed(4)}), beta ${achievedBeta.toFixed(4)} (exact ${exactBeta.toFixed(4)})`);
+    console.log(
+      `SPRT Monte Carlo, ${runs} runs: alpha ${achievedAlpha.toFixed(4)} (exact ${exactAlpha.toFixed(4)}), beta ${achievedBeta.toFixed(4)} (exact ${exactBeta.toFixed(4)})`,
+    );
     const se = (x: number) => Math.sqrt((x * (1 - x)) / runs);
     expect(Math.abs(achievedAlpha - exactAlpha)).toBeLessThan(4 * se(exactAlpha));
     expect(Math.abs(achievedBeta - exactBeta)).toBeLessThan(4 * se(exactBeta));

@@ -12,8 +12,12 @@ import type { BlockRequest } from "../../src/report/resultBlock";
 import { blockAt, callArguments, readBlock } from "../../src/taskpane/blockEdit";
 import { blockPreview, blockWrite } from "../../src/taskpane/preview";
 
-const data = demoRows().slice(1).map((r) => [r[1]]);
-const second = demoRows().slice(1).map((r) => [r[2]]);
+const data = demoRows()
+  .slice(1)
+  .map((r) => [r[1]]);
+const second = demoRows()
+  .slice(1)
+  .map((r) => [r[2]]);
 
 function written(request: BlockRequest, refs: { data: string; second?: string }): string[][] {
   const rows = blockPreview(request, request.paired ? { data, second } : { data }, refs, callFunction);
@@ -37,7 +41,17 @@ describe("formula arguments", () => {
 
 describe("a block read back", () => {
   it("gives the sign test's question and settings", () => {
-    const request: BlockRequest = { test: "sign", paired: false, center: 50.5, alternative: "greater", alpha: 0.01, confidence: 0.9, ties: "conservative", method: "midp", dataName: "Thickness (µm)" };
+    const request: BlockRequest = {
+      test: "sign",
+      paired: false,
+      center: 50.5,
+      alternative: "greater",
+      alpha: 0.01,
+      confidence: 0.9,
+      ties: "conservative",
+      method: "midp",
+      dataName: "Thickness (µm)",
+    };
     expect(readBlock(written(request, { data: "Table1[[Thickness (µm)]]" }))).toMatchObject({
       test: "sign",
       paired: false,
@@ -52,7 +66,18 @@ describe("a block read back", () => {
   });
 
   it("gives the paired signed-rank test's two references and its zero rule", () => {
-    const request: BlockRequest = { test: "signed-rank", paired: true, center: -1, alternative: "less", alpha: 0.05, confidence: 0.95, method: "exact", zeros: "pratt", dataName: "A", secondName: "B" };
+    const request: BlockRequest = {
+      test: "signed-rank",
+      paired: true,
+      center: -1,
+      alternative: "less",
+      alpha: 0.05,
+      confidence: 0.95,
+      method: "exact",
+      zeros: "pratt",
+      dataName: "A",
+      secondName: "B",
+    };
     expect(readBlock(written(request, { data: "$B$2:$B$25", second: "$C$2:$C$25" }))).toMatchObject({
       test: "signed-rank",
       paired: true,
@@ -66,9 +91,28 @@ describe("a block read back", () => {
   });
 
   it("gives the quantile test's quantile, and refuses what is not a block", () => {
-    const request: BlockRequest = { test: "quantile", paired: false, center: 53, quantile: 0.9, alternative: "less", alpha: 0.05, confidence: 0.95, dataName: "A" };
-    expect(readBlock(written(request, { data: "$B$2:$B$1048576" }))).toMatchObject({ test: "quantile", quantile: 0.9, center: 53, references: ["$B$2:$B$1048576"] });
-    expect(readBlock([["Panel", "Thickness"], ["P-101", 51.8]])).toBeNull();
+    const request: BlockRequest = {
+      test: "quantile",
+      paired: false,
+      center: 53,
+      quantile: 0.9,
+      alternative: "less",
+      alpha: 0.05,
+      confidence: 0.95,
+      dataName: "A",
+    };
+    expect(readBlock(written(request, { data: "$B$2:$B$1048576" }))).toMatchObject({
+      test: "quantile",
+      quantile: 0.9,
+      center: 53,
+      references: ["$B$2:$B$1048576"],
+    });
+    expect(
+      readBlock([
+        ["Panel", "Thickness"],
+        ["P-101", 51.8],
+      ]),
+    ).toBeNull();
   });
 
   it("finds the block holding a selected cell, on its sheet only", () => {

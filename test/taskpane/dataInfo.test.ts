@@ -7,7 +7,12 @@ import { describe, expect, it } from "vitest";
 import { headerName, tablePlace, tallyCells } from "../../src/taskpane/dataInfo";
 import type { TableInfo } from "../../src/taskpane/host";
 
-const TABLE: TableInfo = { name: "Table1", sheet: "S", rect: { top: 0, left: 0, bottom: 24, right: 2 }, columns: ["Panel", "Thickness (µm)", "After"] };
+const TABLE: TableInfo = {
+  name: "Table1",
+  sheet: "S",
+  rect: { top: 0, left: 0, bottom: 24, right: 2 },
+  columns: ["Panel", "Thickness (µm)", "After"],
+};
 
 describe("tallyCells", () => {
   it("counts numbers and skipped cells by kind", () => {
@@ -22,7 +27,12 @@ describe("tallyCells", () => {
 describe("headerName", () => {
   it("takes a text first row over numbers as the name", () => {
     expect(headerName([["Thickness (µm)"], [51.8], [49.6]])).toBe("Thickness (µm)");
-    expect(headerName([["Before", "After"], [1, 2]])).toBe("Before / After");
+    expect(
+      headerName([
+        ["Before", "After"],
+        [1, 2],
+      ]),
+    ).toBe("Before / After");
   });
 
   it("does not take numbers, number-like text, blanks or a lone row as a name", () => {
@@ -37,8 +47,14 @@ describe("headerName", () => {
 describe("tablePlace", () => {
   it("recognises a whole table column, with or without its header cell", () => {
     const withHeader = tablePlace({ top: 0, left: 1, bottom: 24, right: 1 }, [TABLE]);
-    expect(withHeader).toMatchObject({ kind: "column", match: { column: "Thickness (µm)", headerIncluded: true, body: { top: 1, bottom: 24, left: 1, right: 1 } } });
-    expect(tablePlace({ top: 1, left: 1, bottom: 24, right: 1 }, [TABLE])).toMatchObject({ kind: "column", match: { headerIncluded: false } });
+    expect(withHeader).toMatchObject({
+      kind: "column",
+      match: { column: "Thickness (µm)", headerIncluded: true, body: { top: 1, bottom: 24, left: 1, right: 1 } },
+    });
+    expect(tablePlace({ top: 1, left: 1, bottom: 24, right: 1 }, [TABLE])).toMatchObject({
+      kind: "column",
+      match: { headerIncluded: false },
+    });
   });
 
   it("tells part of a table from a column, and a range outside any table", () => {

@@ -10,7 +10,6 @@ import { createHost, type HostContext, type RunBatch } from "../../src/taskpane/
 import type { PlannedWrite } from "../../src/taskpane/writePlan";
 import { itemsCollection, workbookMock } from "./officeMock";
 
-
 function plainTable(name: string, address: string, columns: string[]): Record<string, unknown> {
   return {
     name,
@@ -35,7 +34,6 @@ function nullable(address: string, isNullObject: boolean): Record<string, unknow
 function mockRun(mock: OfficeMockObject): RunBatch {
   return (batch) => (mock as unknown as { run: RunBatch }).run(batch);
 }
-
 
 describe("host over office-addin-mock", () => {
   it("reads the selection's address after load and sync", async () => {
@@ -93,7 +91,11 @@ describe("host over office-addin-mock", () => {
   it("lists every table of a sheet in two syncs, however many tables there are", async () => {
     const sheet = {
       name: "Paint line",
-      tables: itemsCollection([plainTable("Table1", "'Paint line'!A1:A5", ["Panel"]), plainTable("Table2", "'Paint line'!C1:D5", ["Before", "After"]), plainTable("Table3", "'Paint line'!F1:F9", ["Lot"])]),
+      tables: itemsCollection([
+        plainTable("Table1", "'Paint line'!A1:A5", ["Panel"]),
+        plainTable("Table2", "'Paint line'!C1:D5", ["Before", "After"]),
+        plainTable("Table3", "'Paint line'!F1:F9", ["Lot"]),
+      ]),
     };
     let syncs = 0;
     const counting: RunBatch = (batch) =>
@@ -108,9 +110,19 @@ describe("host over office-addin-mock", () => {
   });
 
   it("lists a sheet's tables with their ranges and column names", async () => {
-    const sheet = { name: "Paint line", tables: itemsCollection([plainTable("Table1", "'Paint line'!A1:C25", ["Panel", "Thickness (µm)", "After"])]) };
+    const sheet = {
+      name: "Paint line",
+      tables: itemsCollection([plainTable("Table1", "'Paint line'!A1:C25", ["Panel", "Thickness (µm)", "After"])]),
+    };
     const tables = await createHost(mockRun(workbookMock(sheet))).tables("Paint line");
-    expect(tables).toEqual([{ name: "Table1", sheet: "Paint line", rect: { top: 0, left: 0, bottom: 24, right: 2 }, columns: ["Panel", "Thickness (µm)", "After"] }]);
+    expect(tables).toEqual([
+      {
+        name: "Table1",
+        sheet: "Paint line",
+        rect: { top: 0, left: 0, bottom: 24, right: 2 },
+        columns: ["Panel", "Thickness (µm)", "After"],
+      },
+    ]);
   });
 
   it("finds the pane's earlier blocks by their defined names, skipping other names and names of no range", async () => {
@@ -119,9 +131,15 @@ describe("host over office-addin-mock", () => {
       const range = { address, isNullObject, load: () => undefined };
       return { name, load: () => undefined, getRangeOrNullObject: () => range };
     };
-    const names = [named("Evensplit_block_1", "'Paint line'!$E$1:$F$20"), named("Prices", "'Paint line'!$A$1"), named("Evensplit_block_2", "", true)];
+    const names = [
+      named("Evensplit_block_1", "'Paint line'!$E$1:$F$20"),
+      named("Prices", "'Paint line'!$A$1"),
+      named("Evensplit_block_2", "", true),
+    ];
     const host = createHost(mockRun(workbookMock({ name: "Paint line" }, undefined, names)));
-    expect(await host.blocks()).toEqual([{ name: "Evensplit_block_1", sheet: "Paint line", rect: { top: 0, left: 4, bottom: 19, right: 5 } }]);
+    expect(await host.blocks()).toEqual([
+      { name: "Evensplit_block_1", sheet: "Paint line", rect: { top: 0, left: 4, bottom: 19, right: 5 } },
+    ]);
   });
 
   it("lists the names a new table, chart or block must avoid: defined names, every table, charts of the sheets", async () => {
@@ -174,12 +192,24 @@ const PLAN: PlannedWrite = {
   block: {
     sheet: "Paint line",
     rect: { top: 0, left: 4, bottom: 1, right: 5 },
-    formulas: [["Evensplit result", "Sign test, one sample"], ["p-value", '=EVENSPLIT.PVALUE(Table1[[Thickness (µm)]],50,"greater")']],
-    numberFormats: [["General", "General"], ["General", "[<0.0001]0.00E+00;0.0000"]],
+    formulas: [
+      ["Evensplit result", "Sign test, one sample"],
+      ["p-value", '=EVENSPLIT.PVALUE(Table1[[Thickness (µm)]],50,"greater")'],
+    ],
+    numberFormats: [
+      ["General", "General"],
+      ["General", "[<0.0001]0.00E+00;0.0000"],
+    ],
     titleRows: [0],
     cautionRows: [1],
   },
-  chart: { sheet: "Paint line", source: { top: 0, left: 1, bottom: 24, right: 1 }, title: "Thickness (µm)", area: { top: 0, left: 7, bottom: 14, right: 13 }, name: "Evensplit chart 1" },
+  chart: {
+    sheet: "Paint line",
+    source: { top: 0, left: 1, bottom: 24, right: 1 },
+    title: "Thickness (µm)",
+    area: { top: 0, left: 7, bottom: 14, right: 13 },
+    name: "Evensplit chart 1",
+  },
   blockName: "Evensplit_block_1",
   replaces: [{ name: "Evensplit_block_0", sheet: "Paint line", rect: { top: 0, left: 4, bottom: 2, right: 5 } }],
 };
@@ -194,7 +224,8 @@ function regionAnswers(path: string): unknown {
   const height = rows ? Number(rows[1]) : 0;
   if (/getRange\("E1:F\d"\)\.(values|formulas)$/.test(path)) return Array.from({ length: height }, () => ["", ""]);
   if (/getRange\("E1:F\d"\)\.numberFormat$/.test(path)) return Array.from({ length: height }, () => ["General", "General"]);
-  if (/getCellProperties\(.*\)\.value$/.test(path)) return Array.from({ length: height }, () => [{ format: { font: { bold: false } } }, { format: { font: { bold: false } } }]);
+  if (/getCellProperties\(.*\)\.value$/.test(path))
+    return Array.from({ length: height }, () => [{ format: { font: { bold: false } } }, { format: { font: { bold: false } } }]);
   if (path.endsWith(".columns.items")) return [{ name: "Thickness (µm)" }];
   return undefined;
 }

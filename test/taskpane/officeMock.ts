@@ -17,7 +17,12 @@ export function itemsCollection(items: unknown[], extra: Record<string, unknown>
   };
 }
 
-export function workbookMock(sheet: Record<string, unknown>, selected = "'Paint line'!B1:B25", names: unknown[] = [], tables: unknown[] = []): OfficeMockObject {
+export function workbookMock(
+  sheet: Record<string, unknown>,
+  selected = "'Paint line'!B1:B25",
+  names: unknown[] = [],
+  tables: unknown[] = [],
+): OfficeMockObject {
   return new OfficeMockObject({
     context: {
       workbook: {

@@ -30,7 +30,10 @@ const OFFICE_CDN = "https://appsforoffice.microsoft.com";
 const OFFICE_LOGGING = "https://telemetryservice.firstpartyapps.oaspapps.com";
 
 describe.each([
-  ["src/taskpane/taskpane.html", { scripts: ["'self'", OFFICE_CDN], frames: [OFFICE_CDN, OFFICE_LOGGING], styleAttributes: ["'unsafe-inline'"] }],
+  [
+    "src/taskpane/taskpane.html",
+    { scripts: ["'self'", OFFICE_CDN], frames: [OFFICE_CDN, OFFICE_LOGGING], styleAttributes: ["'unsafe-inline'"] },
+  ],
   ["src/demo/demo.html", { scripts: ["'self'"], frames: undefined, styleAttributes: undefined }],
 ])("%s", (path, allowed) => {
   const html = page(path);

@@ -112,7 +112,16 @@ describe("colours written into the block's cells", () => {
   it("every fixed font colour reaches 4.5:1 (WCAG 2.1, 1.4.3) on both, cautions included", async () => {
     const { workbook, host } = demo();
     const state = setCenter(await withRange(initialState(), 0, "B1:B25", host), "50");
-    const request = { test: "sign", paired: false, center: 50, alternative: "two-sided", alpha: 0.05, confidence: 0.95, ties: "drop", method: "exact" } as const;
+    const request = {
+      test: "sign",
+      paired: false,
+      center: 50,
+      alternative: "two-sided",
+      alpha: 0.05,
+      confidence: 0.95,
+      ties: "drop",
+      method: "exact",
+    } as const;
     const outcome = await writeResult(host, {
       choices: choices(state),
       reference: "exact",

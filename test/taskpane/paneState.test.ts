@@ -10,7 +10,17 @@ import { fakeRun } from "../../src/demo/fakeExcel";
 import { DEMO_SHEET, demoRows } from "../../src/demo/inventedData";
 import { Workbook } from "../../src/demo/workbook";
 import { callFunction } from "../../src/functions/functions";
-import { choices, dataReady, dataStepProblem, dataView, setPaired, setReference, setUseHeader, slotFailed, slotRead } from "../../src/taskpane/dataState";
+import {
+  choices,
+  dataReady,
+  dataStepProblem,
+  dataView,
+  setPaired,
+  setReference,
+  setUseHeader,
+  slotFailed,
+  slotRead,
+} from "../../src/taskpane/dataState";
 import { createHost, type Host } from "../../src/taskpane/host";
 import { atStep, initialState, type PaneState } from "../../src/taskpane/paneState";
 import { currentRequest, questionStepProblem, questionView, setAlternative, setCenter, setTest } from "../../src/taskpane/questionState";

@@ -23,14 +23,18 @@ describe("ticks and scale", () => {
 
   it("covers every value and mark, in order", () => {
     fc.assert(
-      fc.property(fc.array(fc.double({ min: -1e6, max: 1e6, noNaN: true }), { minLength: 1, maxLength: 40 }), fc.double({ min: -1e6, max: 1e6, noNaN: true }), (values, mark) => {
-        const scale = lineScale(values, [mark], 10, 290);
-        for (const v of [...values, mark]) {
-          expect(scale.x(v)).toBeGreaterThanOrEqual(10);
-          expect(scale.x(v)).toBeLessThanOrEqual(290);
-        }
-        for (let i = 1; i < scale.ticks.length; i++) expect(scale.ticks[i]).toBeGreaterThan(scale.ticks[i - 1]);
-      }),
+      fc.property(
+        fc.array(fc.double({ min: -1e6, max: 1e6, noNaN: true }), { minLength: 1, maxLength: 40 }),
+        fc.double({ min: -1e6, max: 1e6, noNaN: true }),
+        (values, mark) => {
+          const scale = lineScale(values, [mark], 10, 290);
+          for (const v of [...values, mark]) {
+            expect(scale.x(v)).toBeGreaterThanOrEqual(10);
+            expect(scale.x(v)).toBeLessThanOrEqual(290);
+          }
+          for (let i = 1; i < scale.ticks.length; i++) expect(scale.ticks[i]).toBeGreaterThan(scale.ticks[i - 1]);
+        },
+      ),
       { numRuns: 200 },
     );
   });

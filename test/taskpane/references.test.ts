@@ -11,7 +11,21 @@ import { Workbook } from "../../src/demo/workbook";
 import { structuredReference } from "../../src/taskpane/references";
 
 /** Headers with the special characters the page lists, and plain ones. */
-const SPECIAL = ["Temp. °C", "Weight, g", "pH-value", "A/B", "Lot #3", "it's", "a]b", "=1+1", "Thickness (µm)", "x[1]", "Cost $", "line\nbreak", "a@b"];
+const SPECIAL = [
+  "Temp. °C",
+  "Weight, g",
+  "pH-value",
+  "A/B",
+  "Lot #3",
+  "it's",
+  "a]b",
+  "=1+1",
+  "Thickness (µm)",
+  "x[1]",
+  "Cost $",
+  "line\nbreak",
+  "a@b",
+];
 const PLAIN = ["Thickness", "Dicke_µm", "2024", "Schichtdicke"];
 
 describe("structuredReference", () => {
@@ -42,7 +56,10 @@ describe("structuredReference", () => {
     const headers = [...SPECIAL, ...PLAIN];
     const workbook = new Workbook(["S"]);
     // A leading apostrophe keeps "=1+1" a text header, as typing it in Excel would need.
-    workbook.writeEntries("S", 0, 0, [headers.map((h) => `'${h}`), ...[1, 2, 3].map((row) => headers.map((_, c) => (c % 3 === row % 3 ? "text" : row)))]);
+    workbook.writeEntries("S", 0, 0, [
+      headers.map((h) => `'${h}`),
+      ...[1, 2, 3].map((row) => headers.map((_, c) => (c % 3 === row % 3 ? "text" : row))),
+    ]);
     workbook.addTable("S", { top: 0, left: 0, bottom: 3, right: headers.length - 1 });
     workbook.writeEntries("S", 5, 0, [headers.map((h) => `=COUNT(${structuredReference("Table1", h)})`)]);
     headers.forEach((h, c) => expect([h, workbook.value("S", 5, c)]).toEqual([h, 2]));

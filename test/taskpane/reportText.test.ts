@@ -12,9 +12,23 @@ import type { BlockRequest } from "../../src/report/resultBlock";
 import { blockPreview } from "../../src/taskpane/preview";
 import { escapeHtml, reportCopy, reportSentence } from "../../src/taskpane/reportText";
 
-const data = demoRows().slice(1).map((r) => [r[1]]);
-const second = demoRows().slice(1).map((r) => [r[2]]);
-const SIGN: BlockRequest = { test: "sign", paired: false, center: 50, alternative: "two-sided", alpha: 0.05, confidence: 0.95, ties: "drop", method: "exact", dataName: "Thickness (µm)" };
+const data = demoRows()
+  .slice(1)
+  .map((r) => [r[1]]);
+const second = demoRows()
+  .slice(1)
+  .map((r) => [r[2]]);
+const SIGN: BlockRequest = {
+  test: "sign",
+  paired: false,
+  center: 50,
+  alternative: "two-sided",
+  alpha: 0.05,
+  confidence: 0.95,
+  ties: "drop",
+  method: "exact",
+  dataName: "Thickness (µm)",
+};
 const signRows = blockPreview(SIGN, { data }, { data: "$B$2:$B$25" }, callFunction);
 
 describe("the report sentence", () => {
@@ -30,7 +44,18 @@ describe("the report sentence", () => {
   });
 
   it("gives a one-sided bound alone, and the estimate of the signed-rank test", () => {
-    const request: BlockRequest = { test: "signed-rank", paired: true, center: 0, alternative: "greater", alpha: 0.05, confidence: 0.95, method: "auto", zeros: "drop", dataName: "A", secondName: "B" };
+    const request: BlockRequest = {
+      test: "signed-rank",
+      paired: true,
+      center: 0,
+      alternative: "greater",
+      alpha: 0.05,
+      confidence: 0.95,
+      method: "auto",
+      zeros: "drop",
+      dataName: "A",
+      secondName: "B",
+    };
     const rows = blockPreview(request, { data, second }, { data: "$B$2:$B$25", second: "$C$2:$C$25" }, callFunction);
     const sentence = reportSentence(request, rows);
     // By hand: 22 complete pairs, one difference of 0 left out.

@@ -30,22 +30,44 @@ describe("reading typed numbers", () => {
 
 describe("buildRequest", () => {
   it("builds a sign-test request with the header name", () => {
-    const built = buildRequest(false, { test: "sign", alternative: "greater", center: "50", quantile: "0.9" }, SETTINGS, { data: "Thickness (µm)" });
+    const built = buildRequest(false, { test: "sign", alternative: "greater", center: "50", quantile: "0.9" }, SETTINGS, {
+      data: "Thickness (µm)",
+    });
     expect(built).toEqual({
       ok: true,
-      request: { test: "sign", paired: false, center: 50, alternative: "greater", alpha: 0.05, confidence: 0.95, ties: "drop", method: "exact", dataName: "Thickness (µm)" },
+      request: {
+        test: "sign",
+        paired: false,
+        center: 50,
+        alternative: "greater",
+        alpha: 0.05,
+        confidence: 0.95,
+        ties: "drop",
+        method: "exact",
+        dataName: "Thickness (µm)",
+      },
     });
   });
 
   it("builds signed-rank and quantile requests with their own options", () => {
-    const rank = buildRequest(true, { test: "signed-rank", alternative: "less", center: "0", quantile: "" }, { ...SETTINGS, rankMethod: "exact", zeros: "pratt" }, {});
+    const rank = buildRequest(
+      true,
+      { test: "signed-rank", alternative: "less", center: "0", quantile: "" },
+      { ...SETTINGS, rankMethod: "exact", zeros: "pratt" },
+      {},
+    );
     expect(rank).toMatchObject({ ok: true, request: { test: "signed-rank", paired: true, method: "exact", zeros: "pratt" } });
     const q = buildRequest(false, { test: "quantile", alternative: "two-sided", center: "53", quantile: "0.9" }, SETTINGS, {});
     expect(q).toMatchObject({ ok: true, request: { test: "quantile", quantile: 0.9, center: 53 } });
   });
 
   it("lists every field that cannot be used", () => {
-    const built = buildRequest(false, { test: "quantile", alternative: "two-sided", center: "", quantile: "2" }, { ...SETTINGS, alpha: "5%", confidence: "95" }, {});
+    const built = buildRequest(
+      false,
+      { test: "quantile", alternative: "two-sided", center: "", quantile: "2" },
+      { ...SETTINGS, alpha: "5%", confidence: "95" },
+      {},
+    );
     expect(built.ok).toBe(false);
     if (!built.ok) expect(built.problems.map((p) => p.field)).toEqual(["center", "quantile", "alpha", "confidence"]);
   });
@@ -58,9 +80,17 @@ describe("buildRequest", () => {
 
 describe("notation", () => {
   it("states H0 and H1 with the right relation", () => {
-    expect(notation({ test: "sign", paired: false, center: 50, alternative: "greater" })).toMatchObject({ h0: "H0: median = 50", h1: "H1: median > 50" });
-    expect(notation({ test: "sign", paired: true, center: 0, alternative: "two-sided" })).toMatchObject({ h0: "H0: median(D) = 0", h1: "H1: median(D) ≠ 0" });
-    expect(notation({ test: "quantile", paired: false, center: 53, alternative: "less", quantile: 0.9 })).toMatchObject({ h1: "H1: Q(0.9) < 53" });
+    expect(notation({ test: "sign", paired: false, center: 50, alternative: "greater" })).toMatchObject({
+      h0: "H0: median = 50",
+      h1: "H1: median > 50",
+    });
+    expect(notation({ test: "sign", paired: true, center: 0, alternative: "two-sided" })).toMatchObject({
+      h0: "H0: median(D) = 0",
+      h1: "H1: median(D) ≠ 0",
+    });
+    expect(notation({ test: "quantile", paired: false, center: 53, alternative: "less", quantile: 0.9 })).toMatchObject({
+      h1: "H1: Q(0.9) < 53",
+    });
   });
 });
 
@@ -77,18 +107,82 @@ describe("references", () => {
 });
 
 describe("placement", () => {
-  const strip = (values: unknown[][], left: number) => ({ sheet: "S", rect: { top: 0, left, bottom: values.length - 1, right: left + values[0].length - 1 }, values, formulas: values });
+  const strip = (values: unknown[][], left: number) => ({
+    sheet: "S",
+    rect: { top: 0, left, bottom: values.length - 1, right: left + values[0].length - 1 },
+    values,
+    formulas: values,
+  });
 
   it("finds the first two empty columns at or after the start, with an empty column on their left", () => {
     // Strips start one column before `start`, the column that must stay empty as a gap.
-    expect(firstFreeColumn(strip([["", "", "", ""], ["", "", "", ""]], 3), 4, 2)).toBe(4);
-    expect(firstFreeColumn(strip([["x", "", "", ""], ["", "", "", ""]], 3), 4, 2)).toBe(5);
-    expect(firstFreeColumn(strip([["", "x", "", ""], ["", "", "", ""]], 3), 4, 2)).toBe(6);
-    expect(firstFreeColumn(strip([["", "", "x", ""], ["", "", "", "y"]], 3), 4, 2)).toBe(8);
+    expect(
+      firstFreeColumn(
+        strip(
+          [
+            ["", "", "", ""],
+            ["", "", "", ""],
+          ],
+          3,
+        ),
+        4,
+        2,
+      ),
+    ).toBe(4);
+    expect(
+      firstFreeColumn(
+        strip(
+          [
+            ["x", "", "", ""],
+            ["", "", "", ""],
+          ],
+          3,
+        ),
+        4,
+        2,
+      ),
+    ).toBe(5);
+    expect(
+      firstFreeColumn(
+        strip(
+          [
+            ["", "x", "", ""],
+            ["", "", "", ""],
+          ],
+          3,
+        ),
+        4,
+        2,
+      ),
+    ).toBe(6);
+    expect(
+      firstFreeColumn(
+        strip(
+          [
+            ["", "", "x", ""],
+            ["", "", "", "y"],
+          ],
+          3,
+        ),
+        4,
+        2,
+      ),
+    ).toBe(8);
   });
 
   it("lists filled cells with their addresses, formulas before values", () => {
-    const read = { sheet: "S", rect: { top: 2, left: 4, bottom: 3, right: 5 }, values: [["", 0.5], ["note", ""]], formulas: [["", "=A1/2"], ["note", ""]] };
+    const read = {
+      sheet: "S",
+      rect: { top: 2, left: 4, bottom: 3, right: 5 },
+      values: [
+        ["", 0.5],
+        ["note", ""],
+      ],
+      formulas: [
+        ["", "=A1/2"],
+        ["note", ""],
+      ],
+    };
     expect(filledCells(read)).toEqual([
       { address: "F3", content: "=A1/2" },
       { address: "E4", content: "note" },

@@ -58,7 +58,8 @@ function hostMembers(): { owner: string; member: string }[] {
     }
   };
   source.forEachChild((node) => {
-    if (ts.isInterfaceDeclaration(node) && node.name.text.startsWith("Host") && node.name.text !== "Host") walk(node.name.text, node.members);
+    if (ts.isInterfaceDeclaration(node) && node.name.text.startsWith("Host") && node.name.text !== "Host")
+      walk(node.name.text, node.members);
   });
   return found;
 }
@@ -73,7 +74,10 @@ function excelRequirementSets(): Map<string, string> {
   if (parsedSets) return parsedSets;
   const source = ts.createSourceFile("index.d.ts", readFileSync(OFFICE_TYPES, "utf8"), ts.ScriptTarget.ES2020, true);
   const setIn = (node: ts.Node): string | undefined => {
-    const docs = ts.getJSDocCommentsAndTags(node).map((d) => d.getText(source)).join("\n");
+    const docs = ts
+      .getJSDocCommentsAndTags(node)
+      .map((d) => d.getText(source))
+      .join("\n");
     return /Api set: ExcelApi (\d+\.\d+)/.exec(docs)?.[1];
   };
   const sets = new Map<string, string>();
@@ -119,7 +123,12 @@ describe("the Excel API requirement set", () => {
       needed.push({ use: `Excel.${excelClass}.${member}`, set: set as string });
     }
     const highest = needed.reduce((a, b) => (version(b.set) > version(a.set) ? b : a));
-    console.log(`ExcelApi ${highest.set} needed, by ${needed.filter((n) => n.set === highest.set).map((n) => n.use).join(", ")}`);
+    console.log(
+      `ExcelApi ${highest.set} needed, by ${needed
+        .filter((n) => n.set === highest.set)
+        .map((n) => n.use)
+        .join(", ")}`,
+    );
     expect(declaredExcelApi()).toBe(highest.set);
   });
 

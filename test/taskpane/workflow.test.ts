@@ -35,7 +35,17 @@ beforeAll(async () => {
   functions = await catalogueFunctions();
 });
 
-const SIGN: BlockRequest = { test: "sign", paired: false, center: 50, alternative: "greater", alpha: 0.05, confidence: 0.95, ties: "drop", method: "exact", dataName: "Thickness (µm)" };
+const SIGN: BlockRequest = {
+  test: "sign",
+  paired: false,
+  center: 50,
+  alternative: "greater",
+  alpha: 0.05,
+  confidence: 0.95,
+  ties: "drop",
+  method: "exact",
+  dataName: "Thickness (µm)",
+};
 
 function demo(): { workbook: Workbook; host: Host } {
   const workbook = new Workbook([DEMO_SHEET]);
@@ -95,20 +105,43 @@ describe("reading the data", () => {
     const { host } = demo();
     const first = await analyzed(host, "B1:B25");
     const short = await analyzed(host, "C1:C20");
-    expect(dataProblem([{ range: first, useHeader: true }, { range: short, useHeader: true }])).toMatch(/same shape/);
+    expect(
+      dataProblem([
+        { range: first, useHeader: true },
+        { range: short, useHeader: true },
+      ]),
+    ).toMatch(/same shape/);
     const second = await analyzed(host, "C1:C25");
-    expect(dataProblem([{ range: first, useHeader: true }, { range: second, useHeader: true }])).toBeNull();
+    expect(
+      dataProblem([
+        { range: first, useHeader: true },
+        { range: second, useHeader: true },
+      ]),
+    ).toBeNull();
   });
 
   it("offers a table only with a header row, and open-ended pairs only when they start together", async () => {
     const { host } = demo();
     const noHeader = await analyzed(host, "B2:B25");
-    expect(referenceOptions([{ range: noHeader, useHeader: false }]).table).toMatchObject({ available: false, reason: expect.stringContaining("name") });
+    expect(referenceOptions([{ range: noHeader, useHeader: false }]).table).toMatchObject({
+      available: false,
+      reason: expect.stringContaining("name"),
+    });
     const first = await analyzed(host, "B1:B25");
     const second = await analyzed(host, "C2:C25");
-    expect(referenceOptions([{ range: first, useHeader: true }, { range: second, useHeader: false }]).open.available).toBe(true);
+    expect(
+      referenceOptions([
+        { range: first, useHeader: true },
+        { range: second, useHeader: false },
+      ]).open.available,
+    ).toBe(true);
     const later = await analyzed(host, "C3:C26");
-    expect(referenceOptions([{ range: first, useHeader: true }, { range: later, useHeader: false }]).open.available).toBe(false);
+    expect(
+      referenceOptions([
+        { range: first, useHeader: true },
+        { range: later, useHeader: false },
+      ]).open.available,
+    ).toBe(false);
   });
 });
 
@@ -117,7 +150,10 @@ describe("the place for the block", () => {
     const { workbook, host } = demo();
     const range = await analyzed(host, "B1:B25");
     // Column C holds data, so D stays as the gap and the block starts in E.
-    expect(await defaultPlace(host, [{ range, useHeader: true }], 20)).toEqual({ sheet: DEMO_SHEET, rect: { top: 0, left: 4, bottom: 19, right: 5 } });
+    expect(await defaultPlace(host, [{ range, useHeader: true }], 20)).toEqual({
+      sheet: DEMO_SHEET,
+      rect: { top: 0, left: 4, bottom: 19, right: 5 },
+    });
     workbook.writeEntries(DEMO_SHEET, 9, 5, [["note"]]);
     expect((await defaultPlace(host, [{ range, useHeader: true }], 20)).rect.left).toBe(7);
     expect(placeFromText("'Paint line'!J3", "Other", 20)).toEqual({ sheet: DEMO_SHEET, rect: { top: 2, left: 9, bottom: 21, right: 10 } });
@@ -165,7 +201,10 @@ describe("writing the block", () => {
   it("refuses a place that covers the data", async () => {
     const { host } = demo();
     const range = await analyzed(host, "B1:B25");
-    const outcome = await writeResult(host, plan([{ range, useHeader: true }], { target: { sheet: DEMO_SHEET, rect: { top: 5, left: 0, bottom: 24, right: 1 } } }));
+    const outcome = await writeResult(
+      host,
+      plan([{ range, useHeader: true }], { target: { sheet: DEMO_SHEET, rect: { top: 5, left: 0, bottom: 24, right: 1 } } }),
+    );
     expect(outcome).toMatchObject({ kind: "refused" });
   });
 
@@ -229,7 +268,10 @@ describe("writing the block through office-addin-mock", () => {
         return this.target;
       },
     };
-    const mock = workbookMock(sheet) as unknown as { run: RunBatch; context: { workbook: { worksheets: { sheet: { target: { formulas: unknown } } } } } };
+    const mock = workbookMock(sheet) as unknown as {
+      run: RunBatch;
+      context: { workbook: { worksheets: { sheet: { target: { formulas: unknown } } } } };
+    };
     return { host: createHost((batch) => mock.run(batch)), written: () => mock.context.workbook.worksheets.sheet.target.formulas };
   }
 

@@ -26,8 +26,28 @@ beforeAll(async () => {
   functions = await catalogueFunctions();
 });
 
-const SIGN: BlockRequest = { test: "sign", paired: false, center: 50, alternative: "greater", alpha: 0.05, confidence: 0.95, ties: "drop", method: "exact", dataName: "Thickness (µm)" };
-const RANK: BlockRequest = { test: "signed-rank", paired: false, center: 50, alternative: "greater", alpha: 0.05, confidence: 0.95, method: "auto", zeros: "drop", dataName: "Thickness (µm)" };
+const SIGN: BlockRequest = {
+  test: "sign",
+  paired: false,
+  center: 50,
+  alternative: "greater",
+  alpha: 0.05,
+  confidence: 0.95,
+  ties: "drop",
+  method: "exact",
+  dataName: "Thickness (µm)",
+};
+const RANK: BlockRequest = {
+  test: "signed-rank",
+  paired: false,
+  center: 50,
+  alternative: "greater",
+  alpha: 0.05,
+  confidence: 0.95,
+  method: "auto",
+  zeros: "drop",
+  dataName: "Thickness (µm)",
+};
 
 type Step = "clear" | "table" | "formulas" | "formats" | "fonts" | "chart" | "name";
 
@@ -170,7 +190,9 @@ describe("replacing an earlier block", () => {
         expect(workbook.format(DEMO_SHEET, r, c)).toMatchObject({ numberFormat: "General", bold: false, italic: false });
       }
     }
-    expect(await createHost(fakeRun(workbook)).blocks()).toEqual([{ name: "Evensplit_block_2", sheet: DEMO_SHEET, rect: { top: 0, left: 4, bottom: shorter - 1, right: 5 } }]);
+    expect(await createHost(fakeRun(workbook)).blocks()).toEqual([
+      { name: "Evensplit_block_2", sheet: DEMO_SHEET, rect: { top: 0, left: 4, bottom: shorter - 1, right: 5 } },
+    ]);
   });
 });
 
@@ -188,7 +210,9 @@ describe("a refusal at any step leaves the sheet exactly as before, and says so"
       expect(outcome.message).toContain(`the ${step} step was refused`);
       // Once the table was made (every step after it), the message also says it was turned back, and that Excel may keep its colours.
       const tableMade = !["clear", "table"].includes(step);
-      expect(outcome.message).toContain(tableMade ? "every cell holds exactly what it held before" : "the sheet holds exactly what it held before");
+      expect(outcome.message).toContain(
+        tableMade ? "every cell holds exactly what it held before" : "the sheet holds exactly what it held before",
+      );
       expect(outcome.message.includes("The table made from 'Paint line'!B1:B25 was turned back into plain cells")).toBe(tableMade);
       expect(await sheetState(workbook)).toEqual(before);
       // And the next attempt, with the host willing, writes the whole block: no table left behind to trip over.
@@ -207,7 +231,9 @@ describe("a refusal at any step leaves the sheet exactly as before, and says so"
     if (outcome.kind !== "undone") throw new Error(outcome.kind);
     expect(outcome.clean).toBe(false);
     // The earlier block was cleared before the formulas were refused, and putting its formulas back was refused as well.
-    expect(outcome.message).toMatch(/not all of it could be put back\. The sheet now holds: \d+ cells of 'Paint line'!E1:F\d+ differ from before/);
+    expect(outcome.message).toMatch(
+      /not all of it could be put back\. The sheet now holds: \d+ cells of 'Paint line'!E1:F\d+ differ from before/,
+    );
     expect(outcome.message).not.toMatch(/not written|exactly what it held before/);
     // The table made for the write did go again.
     expect(workbook.tables).toEqual([]);
@@ -232,7 +258,7 @@ describe("a refusal at any step leaves the sheet exactly as before, and says so"
 });
 
 describe("names the write gives", () => {
-  it("avoid a table of another sheet, since table names are unique in the workbook (Microsoft, \"Rename an Excel table\")", async () => {
+  it('avoid a table of another sheet, since table names are unique in the workbook (Microsoft, "Rename an Excel table")', async () => {
     const workbook = new Workbook([DEMO_SHEET, "Notes"]);
     workbook.writeEntries(DEMO_SHEET, 0, 0, demoRows());
     workbook.writeEntries("Notes", 0, 0, [["Batch"], [1], [2]]);
@@ -256,7 +282,16 @@ describe("consent covers exactly the cells listed, with their contents", () => {
     expect(asked.consent.filled).toEqual([{ address: "F5", content: "keep me" }]);
     workbook.writeEntries(DEMO_SHEET, 9, 4, [["typed later"]]);
     const again = await writeResult(host, planAt(choice, SIGN, { consent: asked.consent }));
-    expect(again).toMatchObject({ kind: "confirm", changed: true, consent: { filled: [{ address: "F5", content: "keep me" }, { address: "E10", content: "typed later" }] } });
+    expect(again).toMatchObject({
+      kind: "confirm",
+      changed: true,
+      consent: {
+        filled: [
+          { address: "F5", content: "keep me" },
+          { address: "E10", content: "typed later" },
+        ],
+      },
+    });
     expect(workbook.entry(DEMO_SHEET, 9, 4)).toBe("typed later");
     expect(workbook.entry(DEMO_SHEET, 0, 4)).toBe("");
   });

@@ -24,7 +24,16 @@ beforeAll(async () => {
   functions = await catalogueFunctions();
 });
 
-const SIGN: BlockRequest = { test: "sign", paired: false, center: 50, alternative: "greater", alpha: 0.05, confidence: 0.95, ties: "drop", method: "exact" };
+const SIGN: BlockRequest = {
+  test: "sign",
+  paired: false,
+  center: 50,
+  alternative: "greater",
+  alpha: 0.05,
+  confidence: 0.95,
+  ties: "drop",
+  method: "exact",
+};
 
 /** The demo data with the thickness column's header replaced. */
 async function choiceWithHeader(header: string): Promise<DataChoice> {
@@ -115,7 +124,10 @@ describe("planning a whole write", () => {
     const target = placeFromText("XFD1", DEMO_SHEET, 20);
     if (!target) throw new Error("XFD1 is an address");
     expect(target.rect.right).toBe(LAST_COLUMN + 1);
-    expect(planWrite(writePlan(choice, { target }), [], [])).toEqual({ ok: false, message: expect.stringMatching(/does not fit on the sheet/) });
+    expect(planWrite(writePlan(choice, { target }), [], [])).toEqual({
+      ok: false,
+      message: expect.stringMatching(/does not fit on the sheet/),
+    });
     const low = placeFromText("E1048570", DEMO_SHEET, 20);
     if (!low) throw new Error("E1048570 is an address");
     expect(planWrite(writePlan(choice, { target: low }), [], [])).toMatchObject({ ok: false });
@@ -126,7 +138,10 @@ describe("planning a whole write", () => {
     const nearEdge = placeFromText("XFA1", DEMO_SHEET, 20);
     if (!nearEdge) throw new Error("XFA1 is an address");
     expect(planWrite(writePlan(choice, { target: nearEdge }), [], [])).toMatchObject({ ok: true });
-    expect(planWrite(writePlan(choice, { target: nearEdge, chart: true }), [], [])).toEqual({ ok: false, message: expect.stringMatching(/chart beside the block would run past the edge/) });
+    expect(planWrite(writePlan(choice, { target: nearEdge, chart: true }), [], [])).toEqual({
+      ok: false,
+      message: expect.stringMatching(/chart beside the block would run past the edge/),
+    });
     const planned = planWrite(writePlan(choice, { chart: true }), ["Evensplit chart 1"], []);
     if (!planned.ok) throw new Error(planned.message);
     expect(planned.write.chart).toMatchObject({ name: "Evensplit chart 2", area: { top: 0, left: 7, bottom: 14, right: 13 } });
@@ -139,7 +154,9 @@ describe("planning a whole write", () => {
     const planned = planWrite(writePlan(choice, { reference: "table" }), ["Table1"], []);
     if (!planned.ok) throw new Error(planned.message);
     const { write } = planned;
-    expect(write.tables).toEqual([{ name: "Table2", sheet: DEMO_SHEET, rect: { top: 0, left: 1, bottom: 24, right: 1 }, columns: [header] }]);
+    expect(write.tables).toEqual([
+      { name: "Table2", sheet: DEMO_SHEET, rect: { top: 0, left: 1, bottom: 24, right: 1 }, columns: [header] },
+    ]);
     expect(write.refs.data).toContain(header);
     const cells = write.block.formulas.flat();
     expect(cells.every((cell) => cellContentProblem(cell) === null)).toBe(true);

@@ -58,7 +58,8 @@ function single(value: Value, context: EvaluationContext): Scalar {
     return context.read(value)[0][0];
   }
   if (isMatrix(value)) {
-    if (value.rows.length !== 1 || value.rows[0].length !== 1) return errorValue("#VALUE!", "A list of values stands where one value is expected.");
+    if (value.rows.length !== 1 || value.rows[0].length !== 1)
+      return errorValue("#VALUE!", "A list of values stands where one value is expected.");
     return value.rows[0][0];
   }
   return value;
@@ -252,7 +253,9 @@ function fromCustom(result: unknown): Value {
   if (typeof result === "number") return finite(result);
   if (typeof result === "string" || typeof result === "boolean") return result;
   if (Array.isArray(result)) {
-    const rows = result.map((row: unknown) => (Array.isArray(row) ? row : [row]).map((cell: unknown) => fromCustom(cell === null ? 0 : cell)));
+    const rows = result.map((row: unknown) =>
+      (Array.isArray(row) ? row : [row]).map((cell: unknown) => fromCustom(cell === null ? 0 : cell)),
+    );
     if (rows.some((row) => row.some((cell) => typeof cell === "object" && cell !== null && !isError(cell)))) {
       return errorValue("#VALUE!", "The function answered with nested lists.");
     }
@@ -294,8 +297,10 @@ function customArgument(value: Value, shape: ArgumentShape, context: EvaluationC
  */
 function declared(value: Value, shape: ArgumentShape): Value {
   if (isError(value)) return value;
-  if (shape === "scalar" && isMatrix(value)) return errorValue("#VALUE!", "The function is declared to answer one value but answered a list.");
-  if (shape === "matrix" && !isMatrix(value)) return errorValue("#VALUE!", "The function is declared to answer a list but answered one value.");
+  if (shape === "scalar" && isMatrix(value))
+    return errorValue("#VALUE!", "The function is declared to answer one value but answered a list.");
+  if (shape === "matrix" && !isMatrix(value))
+    return errorValue("#VALUE!", "The function is declared to answer a list but answered one value.");
   return value;
 }
 

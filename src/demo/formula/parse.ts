@@ -102,7 +102,8 @@ class Parser {
           if (++this.calls > MAX_NESTED_CALLS) throw new FormulaSyntaxError("Excel nests functions at most 64 levels deep.");
           const args = this.argumentsUntilClose();
           this.calls--;
-          if (args.length > MAX_ARGUMENTS) throw new FormulaSyntaxError(`A function takes at most 255 arguments; ${token.text} has ${args.length}.`);
+          if (args.length > MAX_ARGUMENTS)
+            throw new FormulaSyntaxError(`A function takes at most 255 arguments; ${token.text} has ${args.length}.`);
           return { type: "call", name: token.text.toUpperCase(), args };
         }
         const upper = token.text.toUpperCase();

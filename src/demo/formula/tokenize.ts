@@ -53,7 +53,32 @@ const OPERATORS = ["<=", ">=", "<>", "=", "<", ">", "+", "-", "*", "/", "^", "&"
  * is added here because in single brackets it means "this row", which the
  * demo sheet does not read: refusing it is stricter than Excel, never laxer.
  */
-const NEEDS_INNER_BRACKETS = new Set(["\t", "\n", "\r", ",", ":", ".", "[", "]", "#", "'", '"', "{", "}", "$", "^", "&", "*", "+", "=", "-", ">", "<", "/", "@"]);
+const NEEDS_INNER_BRACKETS = new Set([
+  "\t",
+  "\n",
+  "\r",
+  ",",
+  ":",
+  ".",
+  "[",
+  "]",
+  "#",
+  "'",
+  '"',
+  "{",
+  "}",
+  "$",
+  "^",
+  "&",
+  "*",
+  "+",
+  "=",
+  "-",
+  ">",
+  "<",
+  "/",
+  "@",
+]);
 /** Characters that take the apostrophe escape inside a column name (same page, escape characters). */
 const ESCAPABLE = new Set(["[", "]", "#", "'"]);
 
@@ -72,15 +97,19 @@ function readColumnName(text: string, start: number, inner: boolean): { name: st
     if (ch === "]") break;
     if (ch === "'") {
       const next = text[i + 1];
-      if (next === undefined || !ESCAPABLE.has(next)) throw new FormulaSyntaxError("In a column name an apostrophe must be followed by [, ], # or ' (the escape).");
+      if (next === undefined || !ESCAPABLE.has(next))
+        throw new FormulaSyntaxError("In a column name an apostrophe must be followed by [, ], # or ' (the escape).");
       name += next;
       i += 2;
       continue;
     }
     if (ch === "[") throw new FormulaSyntaxError("A [ inside a column name needs the escape '[.");
-    if (ch === "#") throw new FormulaSyntaxError("A # inside a column name needs the escape '#; the demo sheet reads no items such as [#All].");
+    if (ch === "#")
+      throw new FormulaSyntaxError("A # inside a column name needs the escape '#; the demo sheet reads no items such as [#All].");
     if (!inner && NEEDS_INNER_BRACKETS.has(ch)) {
-      throw new FormulaSyntaxError(`The column name holds "${ch}", so Excel needs it in a second pair of brackets, as in Table1[[Temp. °C]].`);
+      throw new FormulaSyntaxError(
+        `The column name holds "${ch}", so Excel needs it in a second pair of brackets, as in Table1[[Temp. °C]].`,
+      );
     }
     name += ch;
     i++;
