@@ -28,7 +28,7 @@
  */
 import { differencesFrom } from "./differences";
 import { normalLowerTail, normalUpperTail } from "./normal";
-import { sortFloat64 } from "./ranks";
+import { greatestCommonDivisor, mergeRanks, sortFloat64 } from "./ranks";
 import { mannWhitneyNullCdf, subsetSumNullCdf } from "./rankSumNull";
 import type { Alternative, SignedRankMethod, Unavailable } from "./types";
 import { unavailable } from "./types";
@@ -91,49 +91,8 @@ interface PooledRanks {
 
 /** Mid-ranks of the two sorted groups together, in one merge. */
 function rankPooled(first: Float64Array, second: Float64Array): PooledRanks {
-  const m = first.length;
-  const n = second.length;
-  const groupScores: number[] = [];
-  const groupSizes: number[] = [];
-  const groupSecond: number[] = [];
-  let rank = 0;
-  let twiceRankSum = 0; // integer: exact in a double
-  let tieSum = 0;
-  let i = 0;
-  let j = 0;
-  while (i < m || j < n) {
-    const v = i < m && (j >= n || first[i] <= second[j]) ? first[i] : second[j];
-    let tFirst = 0;
-    while (i < m && first[i] === v) {
-      i++;
-      tFirst++;
-    }
-    let tSecond = 0;
-    while (j < n && second[j] === v) {
-      j++;
-      tSecond++;
-    }
-    const t = tFirst + tSecond;
-    const score = 2 * rank + t + 1;
-    twiceRankSum += tSecond * score;
-    if (t > 1) tieSum += t * t * t - t;
-    groupScores.push(score);
-    groupSizes.push(t);
-    groupSecond.push(tSecond);
-    rank += t;
-  }
-  return { twiceRankSum, tieSum, groupScores, groupSizes, groupSecond };
-}
-
-function greatestCommonDivisor(a: number, b: number): number {
-  let x = a;
-  let y = b;
-  while (y !== 0) {
-    const r = x % y;
-    x = y;
-    y = r;
-  }
-  return x;
+  const { twiceSecondRankSum, tieSum, groupScores, groupSizes, groupSecond } = mergeRanks(first, second);
+  return { twiceRankSum: twiceSecondRankSum, tieSum, groupScores, groupSizes, groupSecond };
 }
 
 /** P(U <= c) without ties, summing whichever tail is shorter (U and mn − U have the same distribution). */

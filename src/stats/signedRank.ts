@@ -33,7 +33,7 @@
  * with both savings against n^3/6 for the plain recursion); normal O(1) after ranking.
  */
 import { normalLowerTail, normalUpperTail } from "./normal";
-import { sortFloat64 } from "./ranks";
+import { greatestCommonDivisor, mergeRanks, sortFloat64 } from "./ranks";
 import type { Alternative, SignedRankMethod, ZeroRule } from "./types";
 import { unavailable, type Unavailable } from "./types";
 
@@ -288,64 +288,25 @@ function rankDifferences(
   const zeroCount = n - positives - negatives;
   const nonZero = positives + negatives;
   const offset = zeros === "pratt" ? zeroCount : 0; // Pratt: the zeros hold ranks 1..zeroCount
-  const groupScores: number[] = [];
-  const groupSizes: number[] = [];
-  const groupPositives: number[] = [];
-  let rank = offset; // ranks used so far
-  let twiceV = 0; // 2V, an integer: exact in a double up to 2^53
-  let tieSum = 0; // sum of t^3 - t over tie groups of non-zero |d|
-  let i = 0;
-  let j = 0;
-  while (i < positives || j < negatives) {
-    const v = i < positives && (j >= negatives || above[i] <= below[j]) ? above[i] : below[j];
-    let tp = 0;
-    while (i < positives && above[i] === v) {
-      i++;
-      tp++;
-    }
-    let tn = 0;
-    while (j < negatives && below[j] === v) {
-      j++;
-      tn++;
-    }
-    const t = tp + tn;
-    const score = 2 * rank + t + 1; // 2 x midrank of ranks rank+1..rank+t
-    twiceV += tp * score;
-    if (t > 1) tieSum += t * t * t - t;
-    if (keepGroups) {
-      groupScores.push(score);
-      groupSizes.push(t);
-      groupPositives.push(tp);
-    }
-    rank += t;
-  }
+  // Below first, above second: the second sample's rank sum is V.
+  const merged = mergeRanks(below, above, offset, keepGroups);
+  const tieSum = merged.tieSum; // sum of t^3 - t over tie groups of non-zero |d|
   const total = offset + nonZero;
   // Sums over the non-zero ranks of r and r^2: all ranks 1..total, less the zeros' 1..offset, less the tie reduction.
   const sumRanks = (total * (total + 1) - offset * (offset + 1)) / 2;
   const sumSquares = (total * (total + 1) * (2 * total + 1) - offset * (offset + 1) * (2 * offset + 1)) / 6 - tieSum / 12;
   return {
-    statistic: twiceV / 2,
+    statistic: merged.twiceSecondRankSum / 2,
     nonZero,
     zeroCount,
     ranked: zeros === "pratt" ? n : nonZero,
     tiesPresent: tieSum > 0,
     expected: sumRanks / 2,
     variance: sumSquares / 4,
-    groupScores,
-    groupSizes,
-    groupPositives,
+    groupScores: merged.groupScores,
+    groupSizes: merged.groupSizes,
+    groupPositives: merged.groupSecond,
   };
-}
-
-function greatestCommonDivisor(a: number, b: number): number {
-  let x = a;
-  let y = b;
-  while (y !== 0) {
-    const r = x % y;
-    x = y;
-    y = r;
-  }
-  return x;
 }
 
 /** Exact p-value from the conditional null distribution of the score sum. */

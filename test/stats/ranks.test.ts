@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import { midranks, sortFloat64 } from "../../src/stats/ranks";
+import { greatestCommonDivisor, mergeRanks, midranks, sortFloat64 } from "../../src/stats/ranks";
 
 /** Reference order: Float64Array.prototype.sort without a comparator (ECMA-262: numeric, -0 before +0). */
 const referenceSort = (x: number[]) => Float64Array.from(x).sort();
@@ -84,5 +84,56 @@ describe("midranks", () => {
 
   it("worked example", () => {
     expect(Array.from(midranks([10, 30, 20, 30]))).toEqual([1, 3.5, 2, 3.5]);
+  });
+});
+
+describe("mergeRanks", () => {
+  /** Brute force: pool, give every value the average of the positions it occupies (Kendall's mid-ranks), sum the second sample's. */
+  function pooledReference(first: number[], second: number[], before: number) {
+    const pooled = [...first, ...second].sort((a, b) => a - b);
+    const midrank = (v: number) => {
+      const lo = pooled.indexOf(v);
+      const hi = pooled.lastIndexOf(v);
+      return before + (lo + hi + 2) / 2;
+    };
+    const counts = new Map<number, number>();
+    for (const v of pooled) counts.set(v, (counts.get(v) ?? 0) + 1);
+    let tieSum = 0;
+    for (const t of counts.values()) tieSum += t * t * t - t;
+    return { twiceSecondRankSum: 2 * second.reduce((s, v) => s + midrank(v), 0), tieSum, groups: counts.size };
+  }
+
+  it("equals brute-force mid-ranks of the pooled samples, with ties across and within them (Kendall, 1945)", () => {
+    fc.assert(
+      fc.property(
+        fc.array(fc.integer({ min: 0, max: 6 }), { maxLength: 12 }),
+        fc.array(fc.integer({ min: 0, max: 6 }), { maxLength: 12 }),
+        fc.integer({ min: 0, max: 5 }),
+        (a, b, before) => {
+          const first = Float64Array.from(a).sort();
+          const second = Float64Array.from(b).sort();
+          const merged = mergeRanks(first, second, before);
+          const expected = pooledReference(a, b, before);
+          expect(merged.twiceSecondRankSum).toBe(expected.twiceSecondRankSum);
+          expect(merged.tieSum).toBe(expected.tieSum);
+          expect(merged.groupScores.length).toBe(expected.groups);
+          expect(merged.groupSizes.reduce((s, t) => s + t, 0)).toBe(a.length + b.length);
+          expect(merged.groupSecond.reduce((s, t) => s + t, 0)).toBe(b.length);
+          expect(mergeRanks(first, second, before, false).groupScores).toEqual([]);
+        },
+      ),
+    );
+  });
+
+  it("matches its documented example, and Euclid's divisor", () => {
+    expect(mergeRanks(Float64Array.of(1, 3), Float64Array.of(3, 4))).toEqual({
+      twiceSecondRankSum: 13,
+      tieSum: 6,
+      groupScores: [2, 5, 8],
+      groupSizes: [1, 2, 1],
+      groupSecond: [0, 1, 1],
+    });
+    expect(greatestCommonDivisor(12, 18)).toBe(6);
+    expect(greatestCommonDivisor(7, 0)).toBe(7);
   });
 });
