@@ -29,7 +29,7 @@
  * Cost: O(n log n) expected time (sorting, then O(log n) rounds of O(n)), O(n)
  * memory; the exact rank adds O(n^3) at worst, for n <= EXACT_AUTO_LIMIT.
  */
-import { normalLowerTail, normalQuantile } from "./normal";
+import { boundRank, type BoundRank } from "./boundRank";
 import { confidenceWords } from "./quantileBounds";
 import { sortFloat64 } from "./ranks";
 import { selectInPlace } from "./selection";
@@ -260,35 +260,13 @@ export function hodgesLehmannEstimate(values: ArrayLike<number>): number {
   return walshMedian(walshTerms(values, "hodgesLehmannEstimate"));
 }
 
-/**
- * Rank k of the bounds and their achieved coverage, or null when even k = 1 does not reach the confidence.
- * `tails` is 2 for two-sided bounds (each tail may miss (1 - confidence)/2) and 1 for a one-sided bound.
- */
-function boundRankFor(n: number, confidence: number, tails: 1 | 2): { k: number; achieved: number; method: "exact" | "normal" } | null {
-  const allowance = (1 - confidence) / tails;
+/** The rank of the Walsh-average bounds: the signed-rank null distribution of n values. */
+function boundRankFor(n: number, confidence: number, tails: 1 | 2): BoundRank | null {
   const count = (n * (n + 1)) / 2;
-  const mean = count / 2;
   const sd = Math.sqrt((n * (n + 1) * (2 * n + 1)) / 24);
-  const zq = normalQuantile(allowance);
-  if (n <= EXACT_AUTO_LIMIT) {
-    const scores = Array.from({ length: n }, (_, i) => i + 1);
-    const half = Math.floor(count / 2);
-    // The exact quantile lies within a small fraction of an sd of the normal one, so the recursion
-    // stops one sd (plus a few units, for small n) beyond it; should that fall short, the full half is used.
-    let cap = Math.min(half, Math.max(0, Math.ceil(mean + zq * sd + sd + 10)));
-    let cdf = signedRankNullCdf(scores, cap);
-    if (cdf[cap] <= allowance && cap < half) {
-      cap = half;
-      cdf = signedRankNullCdf(scores, cap);
-    }
-    if (cdf[0] > allowance) return null;
-    let x = 0;
-    while (x + 1 <= cap && cdf[x + 1] <= allowance) x++;
-    return { k: x + 1, achieved: 1 - tails * cdf[x], method: "exact" };
-  }
-  const k = Math.floor(mean + 0.5 + zq * sd);
-  if (k < 1) return null;
-  return { k, achieved: 1 - tails * normalLowerTail((k - 0.5 - mean) / sd), method: "normal" };
+  const scores = (): number[] => Array.from({ length: n }, (_, i) => i + 1);
+  const exactCdf = n <= EXACT_AUTO_LIMIT ? (cap: number) => signedRankNullCdf(scores(), cap) : undefined;
+  return boundRank({ count, sd, exactCdf }, confidence, tails);
 }
 
 /** Smallest n whose extreme Walsh averages reach the confidence: k = 1 needs P(V <= 0) = 2^-n <= the allowance. */

@@ -28,7 +28,7 @@ import {
   nextDifference,
   type DifferenceMatrix,
 } from "./differenceSelection";
-import { normalLowerTail, normalQuantile } from "./normal";
+import { boundRank, type BoundRank } from "./boundRank";
 import { confidenceWords } from "./quantileBounds";
 import { EXACT_AUTO_SIZE } from "./rankSum";
 import { mannWhitneyNullCdf } from "./rankSumNull";
@@ -103,35 +103,12 @@ export function shiftEstimate(first: ArrayLike<number>, second: ArrayLike<number
   return medianFrom(matrix, differenceOrderStatistic(matrix, middleRank(matrix.pairs)));
 }
 
-/** Rank k of the bounds and their coverage, or null when even k = 1 does not reach the confidence. */
-function boundRankFor(
-  m: number,
-  n: number,
-  confidence: number,
-  tails: 1 | 2,
-): { k: number; achieved: number; method: "exact" | "normal" } | null {
-  const allowance = (1 - confidence) / tails;
+/** The rank of the shift's bounds: the Mann–Whitney null distribution of the m·n differences. */
+function boundRankFor(m: number, n: number, confidence: number, tails: 1 | 2): BoundRank | null {
   const count = m * n;
-  const mean = count / 2;
   const sd = Math.sqrt((count * (m + n + 1)) / 12);
-  const zq = normalQuantile(allowance);
-  if (m + n <= EXACT_AUTO_SIZE) {
-    const half = Math.floor(count / 2);
-    // The exact quantile lies within a small fraction of an sd of the normal one; should the cap fall short, the full half is used.
-    let cap = Math.min(half, Math.max(0, Math.ceil(mean + zq * sd + sd + 10)));
-    let cdf = mannWhitneyNullCdf(m, n, cap);
-    if (cdf[cap] <= allowance && cap < half) {
-      cap = half;
-      cdf = mannWhitneyNullCdf(m, n, cap);
-    }
-    if (cdf[0] > allowance) return null;
-    let x = 0;
-    while (x + 1 <= cap && cdf[x + 1] <= allowance) x++;
-    return { k: x + 1, achieved: 1 - tails * cdf[x], method: "exact" };
-  }
-  const k = Math.floor(mean + 0.5 + zq * sd);
-  if (k < 1) return null;
-  return { k, achieved: 1 - tails * normalLowerTail((k - 0.5 - mean) / sd), method: "normal" };
+  const exactCdf = m + n <= EXACT_AUTO_SIZE ? (cap: number) => mannWhitneyNullCdf(m, n, cap) : undefined;
+  return boundRank({ count, sd, exactCdf }, confidence, tails);
 }
 
 /** Smallest equal group size whose extreme differences reach the confidence: 1/C(2s, s) <= the allowance. */
