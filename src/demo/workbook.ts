@@ -178,6 +178,18 @@ function nextTableName(tables: readonly TableModel[]): string {
  * workbook.writeEntries("Paint line", 0, 0, [[49], [51], ["=COUNT(A1:A2)"]]);
  * workbook.value("Paint line", 2, 0); // 2
  */
+/** The last row of `entries` holding an entry in columns from..to (relative to the write), or -1. */
+function lastFilledRow(entries: readonly (readonly unknown[])[], from: number, to: number): number {
+  let last = -1;
+  entries.forEach((row, r) => {
+    for (let c = Math.max(0, from); c <= Math.min(to, row.length - 1); c++) {
+      const e = row[c];
+      if (e !== "" && e !== null && e !== undefined) last = r;
+    }
+  });
+  return last;
+}
+
 export class Workbook {
   private readonly sheets: SheetModel[];
   readonly tables: TableModel[] = [];
@@ -308,18 +320,14 @@ export class Workbook {
    * expands to include rows typed or pasted directly below it).
    */
   private growTables(sheetName: string, top: number, left: number, entries: readonly (readonly unknown[])[]): boolean {
-    let last = -1;
-    entries.forEach((row, r) => {
-      if (row.some((e) => e !== "" && e !== null && e !== undefined)) last = r;
-    });
-    if (last < 0) return false;
     let grew = false;
     for (const table of this.tables) {
       if (table.sheet !== sheetName || top !== table.rect.bottom + 1) continue;
-      if (left >= table.rect.left && left <= table.rect.right) {
-        table.rect = { ...table.rect, bottom: top + last };
-        grew = true;
-      }
+      // Only entries under the table's own columns count: a row typed across A:C grows a table on column B.
+      const last = lastFilledRow(entries, table.rect.left - left, table.rect.right - left);
+      if (last < 0) continue;
+      table.rect = { ...table.rect, bottom: top + last };
+      grew = true;
     }
     return grew;
   }

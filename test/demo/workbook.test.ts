@@ -99,6 +99,20 @@ describe("tables", () => {
     expect(w.tables[0].rect.bottom).toBe(5);
   });
 
+  it("grows when a row typed across several columns has an entry under the table's column, and not otherwise", () => {
+    // The demo's "Add a panel row" writes A:C; a table the pane made on column B must grow with it.
+    const w = sheetWith([
+      ["Panel", "Value", "Note"],
+      ["P-1", 1, ""],
+      ["P-2", 2, ""],
+    ]);
+    w.addTable(S, { top: 0, left: 1, bottom: 2, right: 1 });
+    w.writeEntries(S, 3, 0, [["P-3", 3, "new"]], true);
+    expect(w.tables[0].rect.bottom).toBe(3);
+    w.writeEntries(S, 4, 0, [["P-4", "", "no value"]], true);
+    expect(w.tables[0].rect.bottom).toBe(3);
+  });
+
   it("keeps a chart made on a table's columns linked to the table as it grows", () => {
     const w = sheetWith([["Value"], [1], [2]]);
     w.addTable(S, { top: 0, left: 0, bottom: 2, right: 0 });
