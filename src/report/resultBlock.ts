@@ -46,6 +46,13 @@ export interface BlockRequest {
   /** Names used in the wording (column headers); plain text, never markup. */
   readonly dataName?: string;
   readonly secondName?: string;
+  /** True when the block's references take in rows added later (a table column or an open-ended range). */
+  readonly followsNewRows?: boolean;
+  /**
+   * True when the result will be looked at again as rows arrive. A one-sample sign-test block then uses the
+   * watching versions (WATCHPVALUE, WATCHBOUNDS); other blocks are unchanged.
+   */
+  readonly watching?: boolean;
 }
 
 /** An argument of a catalogue call: one of the block's ranges, or a literal. */
@@ -289,6 +296,53 @@ function row(key: string, label: string, value: BlockValue, format: BlockFormat,
   return { key, label, value, format, style };
 }
 
+/** Only the one-sample sign test has watching versions (WATCHPVALUE, WATCHBOUNDS). */
+function canWatch(request: BlockRequest): boolean {
+  return request.test === "sign" && !request.paired;
+}
+
+/** The block uses the watching versions in place of the fixed-sample test. */
+function usesWatching(request: BlockRequest): boolean {
+  return canWatch(request) && request.watching === true;
+}
+
+/** The block follows new rows but keeps the fixed-sample test: it shows the watching p-value beside it, and a caution. */
+function showsWatchingBeside(request: BlockRequest): boolean {
+  return canWatch(request) && request.followsNewRows === true && request.watching !== true;
+}
+
+/** The watching p-value of a one-sample sign block: valid however often it is looked at as rows arrive. */
+function watchingPValue(request: BlockRequest): CallValue {
+  return call("WATCHPVALUE", [data(), num(request.center), word(request.alternative), word(request.ties ?? "drop")]);
+}
+
+const WATCHING_METHOD_WORDS = "these hold however often the result is looked at as rows arrive (rows read in sheet order; one sample only)";
+
+/**
+ * The watching version of a one-sample sign block: the p-value and bounds that may be looked at after every
+ * new row (Howard, Ramdas, McAuliffe and Sekhon 2021, via WATCHPVALUE and WATCHBOUNDS). The bounds are
+ * two-sided whatever the alternative: WATCHBOUNDS gives both ends.
+ */
+function watchingSignRows(
+  request: BlockRequest,
+  statistic: BlockRow,
+): { statistic: BlockRow; pValue: CallValue; method: BlockValue; bounds: BlockRow[] } {
+  const ties = request.ties ?? "drop";
+  const bound = (column: number): CallValue => call("WATCHBOUNDS", [data(), num(request.confidence)], column);
+  const level = percentWords(request.confidence);
+  const label = (end: "lower" | "upper"): string => `${level} bounds for the median, at every row count at once: ${end}`;
+  return {
+    statistic,
+    pValue: watchingPValue(request),
+    method: text(`Sign test, watching p-value and bounds: ${WATCHING_METHOD_WORDS}; ${TIE_WORDS[ties]}`),
+    bounds: [
+      row("lower", label("lower"), bound(1), "number"),
+      row("upper", label("upper"), bound(2), "number"),
+      row("rowsRead", "Rows read by these bounds", bound(3), "integer"),
+    ],
+  };
+}
+
 function signRows(request: BlockRequest): { statistic: BlockRow; pValue: CallValue; method: BlockValue; bounds: BlockRow[] } {
   const ties = request.ties ?? "drop";
   const method = (request.method as SignTestMethod | undefined) ?? "exact";
@@ -307,8 +361,10 @@ function signRows(request: BlockRequest): { statistic: BlockRow; pValue: CallVal
   const bound = (column: number): CallValue =>
     request.paired ? call("PAIREDBOUNDS", [data(), second(), ...boundArgs], column) : call("BOUNDS", [data(), ...boundArgs], column);
   const what = request.paired ? "median difference" : "median";
+  const statisticRow = row("statistic", `Sign statistic (${statisticWords})`, statistic, "integer");
+  if (usesWatching(request)) return watchingSignRows(request, statisticRow);
   return {
-    statistic: row("statistic", `Sign statistic (${statisticWords})`, statistic, "integer"),
+    statistic: statisticRow,
     pValue,
     method: text(
       `Sign test, ${SIGN_METHOD_WORDS[method]}${request.alternative === "two-sided" ? " (twice the smaller tail, at most 1)" : ""}; ${TIE_WORDS[ties]}`,
@@ -412,8 +468,22 @@ function cautionRows(request: BlockRequest): BlockRow[] {
     request.test === "signed-rank"
       ? "Assumes independent observations and differences symmetric about their centre."
       : "Assumes independent observations; nothing is assumed about the shape of the distribution.";
+  const looking = showsWatchingBeside(request)
+    ? [
+        row(
+          "lookingAgain",
+          "Looking again as rows arrive",
+          text(
+            "The p-value above is for one look at the rows there are. Checking it as rows arrive and stopping the first time it drops below alpha raises false alarms well beyond alpha; the watching p-value may be checked at every new row.",
+          ),
+          "text",
+          "caution",
+        ),
+      ]
+    : [];
   return [
     row("assumptions", "Assumptions", text(assumption), "text", "caution"),
+    ...looking,
     row(
       "reading",
       "Reading the result",
@@ -457,7 +527,8 @@ export function resultBlockRows(request: BlockRequest): BlockRow[] {
     row("h1", "H1", text(`${about} ${RELATION[request.alternative]} ${centerWords}`), "text"),
     ...countRows(request, centerWords),
     parts.statistic,
-    row("pvalue", "p-value", parts.pValue, "pvalue"),
+    row("pvalue", usesWatching(request) ? "Watching p-value" : "p-value", parts.pValue, "pvalue"),
+    ...(showsWatchingBeside(request) ? [row("watchPvalue", "Watching p-value", watchingPValue(request), "pvalue")] : []),
     row("method", "Method", parts.method, "text"),
     row(
       "decision",
@@ -483,7 +554,8 @@ function auditMethod(request: BlockRequest): string {
   const kind = request.paired ? "paired" : "one sample";
   if (request.test === "sign") {
     const method = (request.method as SignTestMethod | undefined) ?? "exact";
-    return `sign test, ${kind} (${SIGN_METHOD_WORDS[method]}; ${TIE_WORDS[request.ties ?? "drop"]}; ${common})`;
+    const how = usesWatching(request) ? "watching p-value and bounds" : SIGN_METHOD_WORDS[method];
+    return `sign test, ${kind} (${how}; ${TIE_WORDS[request.ties ?? "drop"]}; ${common})`;
   }
   if (request.test === "signed-rank") {
     const method = (request.method as SignedRankMethod | undefined) ?? "auto";
