@@ -527,7 +527,8 @@ export function resultBlockRows(request: BlockRequest): BlockRow[] {
     row("h1", "H1", text(`${about} ${RELATION[request.alternative]} ${centerWords}`), "text"),
     ...countRows(request, centerWords),
     parts.statistic,
-    row("pvalue", usesWatching(request) ? "Watching p-value" : "p-value", parts.pValue, "pvalue"),
+    // A watched block keeps the label "p-value" (the pane reads a block back by it); its method row says which p-value.
+    row("pvalue", "p-value", parts.pValue, "pvalue"),
     ...(showsWatchingBeside(request) ? [row("watchPvalue", "Watching p-value", watchingPValue(request), "pvalue")] : []),
     row("method", "Method", parts.method, "text"),
     row(

@@ -163,6 +163,19 @@ export function dataComplete(state: PaneState): boolean {
 }
 
 /**
+ * Whether the block's formulas will take in rows added later: each range is
+ * read through a table column (one already there, or the table the pane
+ * makes) or runs on to the end of the sheet; an exact range does not.
+ *
+ * @example
+ * blockFollowsNewRows(setReference(stateWithB1B25, "open")); // true
+ */
+export function blockFollowsNewRows(state: PaneState): boolean {
+  const c = choices(state);
+  return c.length > 0 && c.every((choice) => choice.range.place.kind === "column" || state.reference !== "exact");
+}
+
+/**
  * True when the data are complete and usable.
  *
  * @example

@@ -49,7 +49,7 @@ import {
   targetPlace,
 } from "./resultState";
 import { resultPage } from "./resultView";
-import { setSetting, settingsStepProblem, settingsView } from "./settingsState";
+import { setSetting, setWatching, settingsStepProblem, settingsView } from "./settingsState";
 import { settingsPage } from "./settingsView";
 import { analyzeRange, blockInputs, blockRefs, defaultPlace, writeResult, type WriteOutcome } from "./workflow";
 import { blockAt, readBlock, type BlockReading } from "./blockEdit";
@@ -129,6 +129,7 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
   });
   const settings = settingsPage(headings[2], {
     setting: (key, value) => update(setSetting(state, key, value)),
+    watching: (watching) => update(setWatching(state, watching)),
     back: () => void goTo(1),
     next: () => void goTo(3),
   });
@@ -454,8 +455,11 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
     if (reading.rankMethod) base = setSetting(base, "rankMethod", reading.rankMethod);
     if (reading.zeros) base = setSetting(base, "zeros", reading.zeros);
     base = setTarget(atStep(base, 3), formatAddress({ ...block.rect, bottom: block.rect.top, right: block.rect.left }, block.sheet));
-    for (const confidence of reading.confidences) {
-      const candidate = setSetting(base, "confidence", String(confidence));
+    // The formulas do not name the confidence or the answer about looking again: each is tried against the whole block.
+    const candidates = reading.confidences.flatMap((confidence) =>
+      [false, true].map((watching) => setWatching(setSetting(base, "confidence", String(confidence)), watching)),
+    );
+    for (const candidate of candidates) {
       const built = currentRequest(candidate);
       if (!built.ok || !dataReady(candidate)) continue;
       const c = choices(candidate);

@@ -37,6 +37,8 @@ export interface PaneState {
   readonly referenceChosen: boolean;
   readonly question: QuestionForm;
   readonly settings: SettingsForm;
+  /** The Settings step's answer: the result will be looked at again as rows arrive (asked only when the block follows new rows). */
+  readonly watching: boolean;
   /** The block's top-left cell as typed or suggested. */
   readonly target: string;
   /** True once the person typed or picked the place: the pane then stops suggesting one. */
@@ -74,6 +76,7 @@ export function initialState(): PaneState {
     referenceChosen: false,
     question: { test: "sign", alternative: "two-sided", center: "", quantile: "0.9" },
     settings: { alpha: "0.05", confidence: "0.95", ties: "drop", signMethod: "exact", rankMethod: "auto", zeros: "drop" },
+    watching: false,
     target: "",
     targetEdited: false,
     chart: false,

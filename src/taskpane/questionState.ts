@@ -11,7 +11,7 @@
  */
 import type { BlockTest } from "../report/resultBlock";
 import type { Alternative } from "../stats/types";
-import { choices } from "./dataState";
+import { blockFollowsNewRows, choices } from "./dataState";
 import type { PaneState } from "./paneState";
 import { buildRequest, notation, type FieldName, type FieldProblem } from "./request";
 import { bodyOf } from "./workflow";
@@ -69,7 +69,10 @@ export function effectiveTest(state: PaneState): BlockTest {
  */
 export function currentRequest(state: PaneState): ReturnType<typeof buildRequest> {
   const names = choices(state).map((choice) => bodyOf(choice).name);
-  return buildRequest(state.paired, state.question, state.settings, { data: names[0], second: names[1] });
+  const built = buildRequest(state.paired, state.question, state.settings, { data: names[0], second: names[1] });
+  // The block learns whether it follows new rows and, if so, the Settings step's answer about looking again.
+  if (!built.ok || !blockFollowsNewRows(state)) return built;
+  return { ok: true, request: { ...built.request, followsNewRows: true, watching: state.watching } };
 }
 
 /**

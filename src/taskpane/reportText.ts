@@ -28,6 +28,7 @@ function lowerFirst(text: string): string {
 }
 
 function methodWord(method: string): string {
+  if (/watching p-value/i.test(method)) return "watching";
   if (/normal/i.test(method)) return "normal-approximation";
   if (/mid-p/i.test(method)) return "mid-p";
   return "exact";

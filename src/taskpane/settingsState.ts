@@ -6,6 +6,7 @@
  * Cost: O(length of the inputs).
  */
 import type { PaneState } from "./paneState";
+import { blockFollowsNewRows } from "./dataState";
 import { effectiveTest, problemsFor } from "./questionState";
 import type { SettingsForm } from "./request";
 
@@ -17,6 +18,27 @@ import type { SettingsForm } from "./request";
  */
 export function setSetting<K extends keyof SettingsForm>(state: PaneState, key: K, value: SettingsForm[K]): PaneState {
   return { ...state, settings: { ...state.settings, [key]: value } };
+}
+
+/**
+ * The answer to whether the result will be looked at again as rows arrive.
+ *
+ * @example
+ * setWatching(initialState(), true).watching; // true
+ */
+export function setWatching(state: PaneState, watching: boolean): PaneState {
+  return { ...state, watching };
+}
+
+/**
+ * Whether the Settings step asks about looking again as rows arrive: only when the block follows new rows
+ * and has watching versions (the one-sample sign test).
+ *
+ * @example
+ * asksWatching({ ...initialState(), reference: "table" }); // true
+ */
+export function asksWatching(state: PaneState): boolean {
+  return blockFollowsNewRows(state) && !state.paired && effectiveTest(state) === "sign";
 }
 
 /**
@@ -41,6 +63,9 @@ export interface SettingsView {
   readonly quantileTest: boolean;
   /** What the signed-rank test sets aside, in words for one set of values or for pairs. */
   readonly zerosLabel: string;
+  /** The question about looking again as rows arrive is shown. */
+  readonly asksWatching: boolean;
+  readonly watching: boolean;
 }
 
 /**
@@ -60,5 +85,7 @@ export function settingsView(state: PaneState): SettingsView {
     signedRank: test === "signed-rank",
     quantileTest: test === "quantile",
     zerosLabel: state.paired ? "Pairs whose difference equals the shift under test" : "Values that equal the median under test",
+    asksWatching: asksWatching(state),
+    watching: state.watching,
   };
 }

@@ -51,8 +51,24 @@ const ZERO_CHOICES: readonly Choice<ZeroRule>[] = [
   },
 ];
 
+type LookingAgain = "once" | "again";
+
+const LOOKING_CHOICES: readonly Choice<LookingAgain>[] = [
+  {
+    value: "once",
+    label: "No: one look at the rows there are (default)",
+    hint: "The ordinary p-value and bounds. The block also shows the watching p-value, which stays valid if you do check again.",
+  },
+  {
+    value: "again",
+    label: "Yes: I will check it as rows come in",
+    hint: "The block uses the watching p-value and bounds: you may stop the first time the p-value drops below alpha without raising false alarms. They need more rows to show an effect.",
+  },
+];
+
 export interface SettingsEvents {
   setting<K extends keyof SettingsForm>(key: K, value: SettingsForm[K]): void;
+  watching(watching: boolean): void;
   back(): void;
   next(): void;
 }
@@ -101,6 +117,12 @@ export function settingsPage(heading: HTMLElement, events: SettingsEvents): Sett
   rankMethodField.control.addEventListener("change", () => events.setting("rankMethod", rankMethodField.control.value as SignedRankMethod));
   const zerosField = field("Values that equal the median under test", selectControl(ZERO_CHOICES, "drop"), hintFor(ZERO_CHOICES, "drop"));
   zerosField.control.addEventListener("change", () => events.setting("zeros", zerosField.control.value as ZeroRule));
+  const lookingField = field(
+    "Will you look at this result again as new rows arrive?",
+    selectControl(LOOKING_CHOICES, "once"),
+    hintFor(LOOKING_CHOICES, "once"),
+  );
+  lookingField.control.addEventListener("change", () => events.watching(lookingField.control.value === "again"));
   const quantileNote = el("p", { class: "es-note" }, "The quantile test is exact and leaves out values equal to the hypothesised value.");
   const element = el(
     "section",
@@ -112,6 +134,7 @@ export function settingsPage(heading: HTMLElement, events: SettingsEvents): Sett
     signMethodField.element,
     rankMethodField.element,
     zerosField.element,
+    lookingField.element,
     quantileNote,
     el(
       "div",
@@ -132,6 +155,8 @@ export function settingsPage(heading: HTMLElement, events: SettingsEvents): Sett
     keep(signMethodField.control, settings.signMethod);
     keep(rankMethodField.control, settings.rankMethod);
     keep(zerosField.control, settings.zeros);
+    const looking: LookingAgain = view.watching ? "again" : "once";
+    keep(lookingField.control, looking);
     setProblem(alphaField, view.alphaProblem);
     setProblem(confidenceField, view.confidenceProblem);
     show(tiesField.element, view.signTest);
@@ -139,6 +164,8 @@ export function settingsPage(heading: HTMLElement, events: SettingsEvents): Sett
     show(rankMethodField.element, view.signedRank);
     show(zerosField.element, view.signedRank);
     show(quantileNote, view.quantileTest);
+    show(lookingField.element, view.asksWatching);
+    lookingField.hint.textContent = hintFor(LOOKING_CHOICES, looking);
     zerosField.label.textContent = view.zerosLabel;
     tiesField.hint.textContent = hintFor(TIE_CHOICES, settings.ties);
     signMethodField.hint.textContent = hintFor(SIGN_METHOD_CHOICES, settings.signMethod);

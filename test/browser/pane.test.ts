@@ -121,7 +121,7 @@ describe.skipIf(!run)("the pane on the demo page", () => {
 
     await page.getByLabel("Also add a chart of the data beside the block").check();
     await page.getByRole("button", { name: "Write the block" }).click();
-    await eventually(() => statusText(page)).toContain("The block was written to 'Paint line'!E1:F22");
+    await eventually(() => statusText(page)).toContain("The block was written to 'Paint line'!E1:F24");
     expect(await statusText(page)).toContain("The data became table Table1. A chart was added at H1.");
     expect(await cellText(page, 0, 4)).toBe("Evensplit result");
     const chart = page.locator(".demo-chart figcaption");
