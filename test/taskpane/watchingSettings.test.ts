@@ -10,6 +10,7 @@ import { fakeRun } from "../../src/demo/fakeExcel";
 import { DEMO_SHEET, demoRows } from "../../src/demo/inventedData";
 import { Workbook } from "../../src/demo/workbook";
 import { callFunction } from "../../src/functions/functions";
+import { readBlock } from "../../src/taskpane/blockEdit";
 import { blockFollowsNewRows, setPaired, setReference, slotRead } from "../../src/taskpane/dataState";
 import { createHost } from "../../src/taskpane/host";
 import { atStep, initialState, type PaneState } from "../../src/taskpane/paneState";
@@ -93,5 +94,13 @@ describe("the answer in the request and the preview", () => {
     const sentence = built.ok ? reportSentence(built.request, resultView(state, callFunction).rows) : "";
     expect(sentence).toMatch(/; watching p = /);
     expect(sentence).not.toMatch(/exact p = /);
+  });
+
+  it("writes a watched block that reads back as the question that made it", async () => {
+    const state = atStep(setWatching(await oneSample("open"), true), 3);
+    const rows = resultView(state, callFunction).rows;
+    const reading = readBlock(rows.map((r) => [r.label, r.formula]));
+    expect(reading).toMatchObject({ test: "sign", paired: false, center: 50, alternative: "two-sided", ties: "drop", alpha: 0.05 });
+    expect(reading?.confidences).toEqual([0.95]);
   });
 });
