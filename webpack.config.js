@@ -14,7 +14,9 @@
  *                  (scripts/helpPages.ts, from the same JSDoc as the metadata).
  *
  * TypeScript is only transpiled here (ts-loader, transpileOnly); `npm run typecheck`
- * does the type checking once for the whole project.
+ * does the type checking once for the whole project. In development ts-loader also emits
+ * its own source maps, so the bundle's map leads to the TypeScript lines rather than to the
+ * transpiled JavaScript (`npm run coverage:all` maps the browser's coverage through it).
  */
 const fs = require("node:fs");
 const path = require("node:path");
@@ -71,7 +73,13 @@ module.exports = (_env, argv) => {
     },
     resolve: { extensions: [".ts", ".js"] },
     module: {
-      rules: [{ test: /\.ts$/, exclude: /node_modules/, use: { loader: "ts-loader", options: { transpileOnly: true } } }],
+      rules: [
+        {
+          test: /\.ts$/,
+          exclude: /node_modules/,
+          use: { loader: "ts-loader", options: { transpileOnly: true, compilerOptions: { sourceMap: mode !== "production" } } },
+        },
+      ],
     },
     performance: { hints: false },
     plugins: [

@@ -6,8 +6,13 @@
  *
  * Without /usr/bin/chromium the suite is skipped on a developer's machine and
  * fails in CI (CI=true), where .ci/run installs it.
+ *
+ * With EVENSPLIT_COVERAGE=1 (`npm run coverage:all` sets it) every page also
+ * records Chromium's JS coverage of the served bundles, written to
+ * BROWSER_COVERAGE when the page closes; scripts/coverageAll.ts maps it back
+ * to src/ through the build's source maps. Without it nothing is recorded.
  */
-import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync } from "node:fs";
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { createServer, type Server } from "node:http";
 import type { AddressInfo } from "node:net";
 import { tmpdir } from "node:os";
@@ -21,6 +26,10 @@ const PROJECT = fileURLToPath(new URL("../..", import.meta.url));
 /** The built pages; EVENSPLIT_DIST points elsewhere for a private build. */
 export const DIST = process.env.EVENSPLIT_DIST ?? join(PROJECT, "dist");
 export const SCREENSHOTS = join(PROJECT, "test-output", "screenshots");
+/** Where the pages' raw V8 coverage goes when EVENSPLIT_COVERAGE=1: one JSON file per page. */
+export const BROWSER_COVERAGE = join(PROJECT, "test-output", "coverage-all", "browser-raw");
+/** True when the pages record coverage (EVENSPLIT_COVERAGE=1). */
+export const COVERAGE = process.env.EVENSPLIT_COVERAGE === "1";
 
 /** True when the suite should run; throws in CI when Chromium is missing, so the run fails instead of skipping. */
 export function browserAvailable(): boolean {
@@ -72,12 +81,14 @@ export async function startSession(): Promise<Session> {
   });
   context.on("page", (page) => watch(page, problems));
   for (const page of context.pages()) watch(page, problems);
+  if (COVERAGE) recordCoverage(context, origin);
   return {
     origin,
     context,
     requests,
     problems,
     async close() {
+      if (COVERAGE) await Promise.all(context.pages().map((page) => page.close()));
       await context.close();
       await new Promise<void>((resolve) => server.close(() => resolve()));
       rmSync(profile, { recursive: true, force: true });
@@ -90,6 +101,38 @@ function watch(page: Page, problems: string[]): void {
     if (message.type() === "error") problems.push(message.text());
   });
   page.on("pageerror", (error) => problems.push(error.message));
+}
+
+/** One script's coverage as recorded: the bundle file it was served from and V8's function ranges. */
+export interface RawCoverage {
+  readonly file: string;
+  readonly url: string;
+  readonly functions: unknown[];
+}
+
+/**
+ * Makes every new page of the context record JS coverage from its first script on, and
+ * write what it recorded for the bundles served from `origin` when it is closed. Coverage
+ * can only be read while the page is open, so the page's own close is wrapped.
+ */
+function recordCoverage(context: BrowserContext, origin: string): void {
+  mkdirSync(BROWSER_COVERAGE, { recursive: true });
+  const newPage = context.newPage.bind(context);
+  context.newPage = async () => {
+    const page = await newPage();
+    await page.coverage.startJSCoverage({ resetOnNavigation: false });
+    const close = page.close.bind(page);
+    page.close = async (options) => {
+      const entries = await page.coverage.stopJSCoverage();
+      const scripts: RawCoverage[] = entries
+        .filter((entry) => entry.url.startsWith(`${origin}/`) && entry.url.endsWith(".js"))
+        .map((entry) => ({ file: join(DIST, new URL(entry.url).pathname), url: entry.url, functions: entry.functions }));
+      const name = `${process.pid}-${Date.now()}-${Math.random().toString(36).slice(2)}.json`;
+      writeFileSync(join(BROWSER_COVERAGE, name), JSON.stringify(scripts));
+      await close(options);
+    };
+    return page;
+  };
 }
 
 /** Opens the demo page and waits until the sheet and the pane are there. */
