@@ -463,24 +463,31 @@ function boundRows(
   ];
 }
 
+/**
+ * The caution for a block that follows new rows but gives a fixed-sample p-value: looking after every row and
+ * stopping at the first p below alpha raises false alarms. Where a watching version exists it is named.
+ */
+function lookingAgainRow(request: BlockRequest): BlockRow {
+  const remedy = canWatch(request)
+    ? "the watching p-value may be checked at every new row."
+    : "for a result to check at every new row, use the one-sample sign test's watching p-value (WATCHPVALUE).";
+  return row(
+    "lookingAgain",
+    "Looking again as rows arrive",
+    text(
+      `The p-value above is for one look at the rows there are. Checking it as rows arrive and stopping the first time it drops below alpha raises false alarms well beyond alpha; ${remedy}`,
+    ),
+    "text",
+    "caution",
+  );
+}
+
 function cautionRows(request: BlockRequest): BlockRow[] {
   const assumption =
     request.test === "signed-rank"
       ? "Assumes independent observations and differences symmetric about their centre."
       : "Assumes independent observations; nothing is assumed about the shape of the distribution.";
-  const looking = showsWatchingBeside(request)
-    ? [
-        row(
-          "lookingAgain",
-          "Looking again as rows arrive",
-          text(
-            "The p-value above is for one look at the rows there are. Checking it as rows arrive and stopping the first time it drops below alpha raises false alarms well beyond alpha; the watching p-value may be checked at every new row.",
-          ),
-          "text",
-          "caution",
-        ),
-      ]
-    : [];
+  const looking = request.followsNewRows === true && !usesWatching(request) ? [lookingAgainRow(request)] : [];
   return [
     row("assumptions", "Assumptions", text(assumption), "text", "caution"),
     ...looking,

@@ -185,7 +185,9 @@ describe.skipIf(!run)("the pane on the demo page", () => {
 
     await page.getByRole("button", { name: "Write the block" }).click();
     await page.getByRole("button", { name: "Replace them" }).click();
-    await eventually(() => statusText(page)).toContain("The block was written to 'Paint line'!E1:F22");
+    // 23 rows: the paired block follows the table's new rows, so it carries the caution about looking again.
+    await eventually(() => statusText(page)).toContain("The block was written to 'Paint line'!E1:F23");
+    expect(await rowOfLabel(page, 4, "Looking again as rows arrive")).toBeGreaterThan(0);
     expect(await cellText(page, 4, 5)).not.toBe("keep me");
     const pLine = await rowOfLabel(page, 4, "p-value");
     expect(await cellText(page, pLine, 5)).toBe(expected);

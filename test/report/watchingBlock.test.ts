@@ -92,15 +92,25 @@ describe("a sign block that follows new rows but keeps the fixed-sample test", (
   });
 });
 
-describe("other tests are unchanged", () => {
+describe("other tests keep their own p-value and bounds", () => {
   const others: BlockRequest[] = [
     { ...SIGN, paired: true, center: 0, secondName: "After" },
     { ...SIGN, test: "signed-rank", method: "auto", zeros: "drop", ties: undefined },
     { ...SIGN, test: "quantile", quantile: 0.9, ties: undefined, method: undefined },
   ];
-  it.each(others)("gives the same rows with or without the flags (%#)", (request) => {
-    expect(resultBlockRows({ ...request, followsNewRows: true, watching: true })).toEqual(resultBlockRows(request));
-    expect(resultBlockRows({ ...request, followsNewRows: true, watching: false })).toEqual(resultBlockRows(request));
+  it.each(others)("and gain only the caution about looking again when they follow new rows (%#)", (request) => {
+    const still = keysOf(request);
+    for (const watching of [true, false]) {
+      const rows = resultBlockRows({ ...request, followsNewRows: true, watching });
+      expect(rows.map((r) => r.key).filter((key) => key !== "lookingAgain")).toEqual(still);
+      const caution = rows.find((r) => r.key === "lookingAgain")!;
+      expect(caution.style).toBe("caution");
+      expect(caution.value).toMatchObject({
+        kind: "text",
+        text: expect.stringContaining("use the one-sample sign test's watching p-value"),
+      });
+    }
+    expect(resultBlockRows({ ...request, followsNewRows: false })).toEqual(resultBlockRows(request));
   });
 });
 
