@@ -11,7 +11,19 @@
  */
 import type { Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { browserAvailable, cellText, openDemo, rowOfLabel, selectCells, snap, startSession, typeIntoCell, type Session } from "./browser";
+import {
+  browserAvailable,
+  cellText,
+  closeSession,
+  eventually,
+  openDemo,
+  rowOfLabel,
+  selectCells,
+  snap,
+  startSession,
+  typeIntoCell,
+  type Session,
+} from "./browser";
 import { NUMBER_FORMATS } from "../../src/report/resultBlock";
 import { formatCell } from "../../src/taskpane/numberFormat";
 
@@ -35,10 +47,6 @@ function shownPValue(p: number): string {
 
 const SHEET = "Paint line";
 
-/** Waits for a value on the page, giving a loaded CI machine ample time (vitest's default is one second). */
-function eventually<T>(read: () => Promise<T> | T) {
-  return expect.poll(read, { timeout: 15_000, interval: 50 });
-}
 const run = browserAvailable();
 
 /** Presses Tab until the focused element matches, as a keyboard user moves on until the focus ring reaches it. */
@@ -78,15 +86,7 @@ describe.skipIf(!run)("the pane on the demo page", () => {
     session = await startSession();
   });
 
-  afterAll(async () => {
-    if (!session) return;
-    const outside = session.requests.filter((url) => !url.startsWith(session.origin));
-    const problems = [...session.problems];
-    await session.close();
-    // No request leaves the loopback server, and no page reported an error (CSP violations included).
-    expect(outside).toEqual([]);
-    expect(problems).toEqual([]);
-  });
+  afterAll(() => closeSession(session));
 
   it("walks a one-sample sign test, turns the range into a table, writes the block and follows a new row", async () => {
     const page = await openDemo(session);

@@ -12,11 +12,18 @@ import type { Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { NUMBER_FORMATS } from "../../src/report/resultBlock";
 import { formatCell } from "../../src/taskpane/numberFormat";
-import { browserAvailable, openDemo, snap, startSession, typeIntoCell, type Session } from "./browser";
-
-function eventually<T>(read: () => Promise<T> | T) {
-  return expect.poll(read, { timeout: 15_000, interval: 50 });
-}
+import {
+  browserAvailable,
+  closeSession,
+  eventually,
+  openDemo,
+  paneToResult,
+  snap,
+  startSession,
+  typeIntoCell,
+  typeRange,
+  type Session,
+} from "./browser";
 
 function choose(n: number, k: number): bigint {
   let c = 1n;
@@ -41,21 +48,6 @@ function previewValue(page: Page, label: string): Promise<string> {
     .innerText();
 }
 
-async function typeRange(page: Page, label: string, address: string): Promise<void> {
-  const field = page.getByLabel(label, { exact: true });
-  await field.fill(address);
-  await field.press("Enter");
-}
-
-async function toResult(page: Page): Promise<void> {
-  await typeRange(page, "Values", "B1:B25");
-  await eventually(() => page.locator(".es-summary").first().innerText()).toContain("22 numbers");
-  await page.getByRole("button", { name: "Next: the question" }).click();
-  await page.getByLabel("Hypothesised median").fill("50");
-  await page.getByRole("button", { name: "Next: settings" }).click();
-  await page.getByRole("button", { name: "Next: the result" }).click();
-}
-
 describe.skipIf(!browserAvailable())("the pane's defects, on the demo page", () => {
   let session: Session;
 
@@ -63,12 +55,7 @@ describe.skipIf(!browserAvailable())("the pane's defects, on the demo page", () 
     session = await startSession();
   });
 
-  afterAll(async () => {
-    if (!session) return;
-    const problems = [...session.problems];
-    await session.close();
-    expect(problems).toEqual([]);
-  });
+  afterAll(() => closeSession(session));
 
   it("takes the first click on the name-row box after a range was typed and Enter pressed", async () => {
     const page = await openDemo(session);
@@ -83,7 +70,7 @@ describe.skipIf(!browserAvailable())("the pane's defects, on the demo page", () 
 
   it("clears everything on Start over, and resets the value when the kind of data changes", async () => {
     const page = await openDemo(session);
-    await toResult(page);
+    await paneToResult(page);
     await page.getByRole("button", { name: "Start over" }).click();
     expect(await page.getByLabel("Values", { exact: true }).inputValue()).toBe("");
     expect(await page.locator(".es-summary").first().innerText()).toBe("");
@@ -118,7 +105,7 @@ describe.skipIf(!browserAvailable())("the pane's defects, on the demo page", () 
 
   it("follows a change of the data when the focus comes back to the pane", async () => {
     const page = await openDemo(session);
-    await toResult(page);
+    await paneToResult(page);
     // By hand: 16 of 22 above 50, 5 below, one tie: n = 21.
     await eventually(() => previewValue(page, "p-value")).toBe(twoSided(16, 21));
     // P-102's 49.6 becomes 55: 17 above, 4 below.
@@ -130,7 +117,7 @@ describe.skipIf(!browserAvailable())("the pane's defects, on the demo page", () 
 
   it("puts the focus on the confirmation after Write, in view", async () => {
     const page = await openDemo(session, { width: 360, height: 640 });
-    await toResult(page);
+    await paneToResult(page);
     await page.getByRole("button", { name: "Write the block" }).click();
     await eventually(() => status(page)).toContain("The block was written");
     const focus = await page.evaluate(() => {
@@ -153,7 +140,7 @@ describe.skipIf(!browserAvailable())("the pane's defects, on the demo page", () 
 
   it("draws the null distribution with its label inside the plot and a caption of its own", async () => {
     const page = await openDemo(session, { width: 360, height: 900 });
-    await toResult(page);
+    await paneToResult(page);
     await page.getByLabel("Also show the count’s distribution if H0 holds").check();
     const plot = page.locator(".es-plot").nth(1);
     await plot.waitFor();

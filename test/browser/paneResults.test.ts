@@ -6,31 +6,27 @@
  * cells, changed, and replaced where it is. Expected p-value: exact binomial sum in BigInt
  * (exact arithmetic); counts by hand from src/demo/inventedData.ts.
  */
-import type { Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { NUMBER_FORMATS } from "../../src/report/resultBlock";
 import { formatCell } from "../../src/taskpane/numberFormat";
-import { browserAvailable, cellText, openDemo, rowOfLabel, selectCells, snap, startSession, type Session } from "./browser";
-
-function eventually<T>(read: () => Promise<T> | T) {
-  return expect.poll(read, { timeout: 15_000, interval: 50 });
-}
+import {
+  browserAvailable,
+  cellText,
+  closeSession,
+  eventually,
+  openDemo,
+  paneToResult,
+  rowOfLabel,
+  selectCells,
+  snap,
+  startSession,
+  type Session,
+} from "./browser";
 
 function choose(n: number, k: number): bigint {
   let c = 1n;
   for (let i = 1; i <= k; i++) c = (c * BigInt(n - k + i)) / BigInt(i);
   return c;
-}
-
-async function toResult(page: Page): Promise<void> {
-  const values = page.getByLabel("Values", { exact: true });
-  await values.fill("B1:B25");
-  await values.press("Enter");
-  await eventually(() => page.locator(".es-summary").first().innerText()).toContain("22 numbers");
-  await page.getByRole("button", { name: "Next: the question" }).click();
-  await page.getByLabel("Hypothesised median").fill("50");
-  await page.getByRole("button", { name: "Next: settings" }).click();
-  await page.getByRole("button", { name: "Next: the result" }).click();
 }
 
 describe.skipIf(!browserAvailable())("results out of the pane", () => {
@@ -40,16 +36,11 @@ describe.skipIf(!browserAvailable())("results out of the pane", () => {
     session = await startSession();
   });
 
-  afterAll(async () => {
-    if (!session) return;
-    const problems = [...session.problems];
-    await session.close();
-    expect(problems).toEqual([]);
-  });
+  afterAll(() => closeSession(session));
 
   it("copies one report sentence and the rows, as text and as an HTML table", async () => {
     const page = await openDemo(session);
-    await toResult(page);
+    await paneToResult(page);
     await page.evaluate(() => {
       window.addEventListener("copy", (event) => {
         const data = (event as ClipboardEvent).clipboardData;
@@ -79,7 +70,7 @@ describe.skipIf(!browserAvailable())("results out of the pane", () => {
 
   it("loads a written block from one of its cells, and replaces it in place after a change", async () => {
     const page = await openDemo(session);
-    await toResult(page);
+    await paneToResult(page);
     await page.getByRole("button", { name: "2. Question" }).click();
     await page.getByLabel(/^The median of “Thickness/).selectOption("greater");
     await page.getByRole("button", { name: "3. Settings" }).click();

@@ -10,17 +10,19 @@
  */
 import type { Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { browserAvailable, cellText, openDemo, rowOfLabel, snap, startSession, typeIntoCell, type Session } from "./browser";
-
-function eventually<T>(read: () => Promise<T> | T) {
-  return expect.poll(read, { timeout: 15_000, interval: 50 });
-}
-
-async function typeRange(page: Page, label: string, address: string): Promise<void> {
-  const field = page.getByLabel(label, { exact: true });
-  await field.fill(address);
-  await field.press("Enter");
-}
+import {
+  browserAvailable,
+  cellText,
+  closeSession,
+  eventually,
+  openDemo,
+  rowOfLabel,
+  snap,
+  startSession,
+  typeIntoCell,
+  typeRange,
+  type Session,
+} from "./browser";
 
 const visibleStep = (page: Page): Promise<string> => page.locator(".es-step:not([hidden])").innerText();
 
@@ -31,12 +33,7 @@ describe.skipIf(!browserAvailable())("the pane's wording, on the demo page", () 
     session = await startSession();
   });
 
-  afterAll(async () => {
-    if (!session) return;
-    const problems = [...session.problems];
-    await session.close();
-    expect(problems).toEqual([]);
-  });
+  afterAll(() => closeSession(session));
 
   for (const theme of ["light", "dark"] as const) {
     it(`words a one-sample signed-rank test plainly, step by step (${theme})`, async () => {

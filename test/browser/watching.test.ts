@@ -4,25 +4,20 @@
  * the watching p-value (WATCHPVALUE) into the block, and the written block loads back into the pane with
  * that answer. Data: the invented paint-line sheet (src/demo/inventedData.ts).
  */
-import type { Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { browserAvailable, openDemo, rowOfLabel, selectCells, startSession, type Session } from "./browser";
+import {
+  browserAvailable,
+  closeSession,
+  eventually,
+  openDemo,
+  paneToSettings,
+  rowOfLabel,
+  selectCells,
+  startSession,
+  type Session,
+} from "./browser";
 
 const QUESTION = "Will you look at this result again as new rows arrive?";
-
-function eventually<T>(read: () => Promise<T> | T) {
-  return expect.poll(read, { timeout: 15_000, interval: 50 });
-}
-
-async function toSettings(page: Page): Promise<void> {
-  const values = page.getByLabel("Values", { exact: true });
-  await values.fill("B1:B25");
-  await values.press("Enter");
-  await eventually(() => page.locator(".es-summary").first().innerText()).toContain("22 numbers");
-  await page.getByRole("button", { name: "Next: the question" }).click();
-  await page.getByLabel("Hypothesised median").fill("50");
-  await page.getByRole("button", { name: "Next: settings" }).click();
-}
 
 describe.skipIf(!browserAvailable())("looking again as rows arrive", () => {
   let session: Session;
@@ -31,16 +26,11 @@ describe.skipIf(!browserAvailable())("looking again as rows arrive", () => {
     session = await startSession();
   });
 
-  afterAll(async () => {
-    if (!session) return;
-    const problems = [...session.problems];
-    await session.close();
-    expect(problems).toEqual([]);
-  });
+  afterAll(() => closeSession(session));
 
   it("asks only when the block follows new rows, writes the watching p-value, and loads the answer back", async () => {
     const page = await openDemo(session);
-    await toSettings(page);
+    await paneToSettings(page);
     const question = page.getByLabel(QUESTION);
     expect(await question.isVisible()).toBe(true);
     expect(await question.inputValue()).toBe("once");

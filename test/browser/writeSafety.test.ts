@@ -8,11 +8,7 @@
  */
 import type { Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { browserAvailable, cellText, openDemo, startSession, typeIntoCell, type Session } from "./browser";
-
-function eventually<T>(read: () => Promise<T> | T) {
-  return expect.poll(read, { timeout: 15_000, interval: 50 });
-}
+import { browserAvailable, cellText, closeSession, eventually, openDemo, startSession, typeIntoCell, type Session } from "./browser";
 
 async function toResult(page: Page, test: "Sign test" | "Signed-rank test (Wilcoxon)"): Promise<void> {
   const values = page.getByLabel("Values", { exact: true });
@@ -35,12 +31,7 @@ describe.skipIf(!browserAvailable())("writing safely on the demo page", () => {
     session = await startSession();
   });
 
-  afterAll(async () => {
-    if (!session) return;
-    const problems = [...session.problems];
-    await session.close();
-    expect(problems).toEqual([]);
-  });
+  afterAll(() => closeSession(session));
 
   it("refuses XFD1 in words, keeps the Write button usable, and then writes at E1", async () => {
     const page = await openDemo(session);
