@@ -26,19 +26,7 @@ import {
 } from "./browser";
 import { NUMBER_FORMATS } from "../../src/report/resultBlock";
 import { formatCell } from "../../src/taskpane/numberFormat";
-
-function choose(n: number, k: number): bigint {
-  let c = 1n;
-  for (let i = 1; i <= k; i++) c = (c * BigInt(n - k + i)) / BigInt(i);
-  return c;
-}
-
-/** P(X >= k) for X ~ Binomial(n, 1/2), exactly, then as a double. */
-function upperTail(k: number, n: number): number {
-  let sum = 0n;
-  for (let j = k; j <= n; j++) sum += choose(n, j);
-  return Number(sum) / Number(2n ** BigInt(n));
-}
+import { fairCoinUpperTail as upperTail } from "../exact";
 
 /** A p-value as the block's number format shows it (test/report/formats.test.ts checks that format against Excel's rules). */
 function shownPValue(p: number): string {

@@ -24,18 +24,11 @@ import {
   typeRange,
   type Session,
 } from "./browser";
-
-function choose(n: number, k: number): bigint {
-  let c = 1n;
-  for (let i = 1; i <= k; i++) c = (c * BigInt(n - k + i)) / BigInt(i);
-  return c;
-}
+import { fairCoinUpperCount } from "../exact";
 
 /** Two-sided sign-test p-value for k of n on the larger side: 2 P(X >= k), X ~ Binomial(n, 1/2). */
 function twoSided(k: number, n: number): string {
-  let sum = 0n;
-  for (let j = k; j <= n; j++) sum += choose(n, j);
-  return formatCell(Math.min(1, (2 * Number(sum)) / Number(2n ** BigInt(n))), NUMBER_FORMATS.pvalue);
+  return formatCell(Math.min(1, (2 * Number(fairCoinUpperCount(k, n))) / Number(2n ** BigInt(n))), NUMBER_FORMATS.pvalue);
 }
 
 const status = (page: Page): Promise<string> => page.locator(".es-status").innerText();

@@ -22,12 +22,7 @@ import {
   startSession,
   type Session,
 } from "./browser";
-
-function choose(n: number, k: number): bigint {
-  let c = 1n;
-  for (let i = 1; i <= k; i++) c = (c * BigInt(n - k + i)) / BigInt(i);
-  return c;
-}
+import { binomialCoefficient as choose } from "../exact";
 
 describe.skipIf(!browserAvailable())("results out of the pane", () => {
   let session: Session;

@@ -6,12 +6,7 @@
 import { describe, expect, it } from "vitest";
 import { callFunction } from "../../src/functions/functions";
 import { caseFormula, REFERENCE_CASES, runInstallationCheck, runReferenceCase } from "../../src/report/installationCheck";
-
-function choose(n: number, k: number): bigint {
-  let c = 1n;
-  for (let i = 0; i < k; i++) c = (c * BigInt(n - i)) / BigInt(i + 1);
-  return c;
-}
+import { binomialCoefficient as choose } from "../exact";
 
 describe("the installation check", () => {
   it("passes every case on this build", () => {

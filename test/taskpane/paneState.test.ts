@@ -27,6 +27,7 @@ import { currentRequest, questionStepProblem, questionView, setAlternative, setC
 import { resultView, setChart, setTarget, settleResult, suggestTarget, targetFromSelection } from "../../src/taskpane/resultState";
 import { setSetting, settingsStepProblem, settingsView } from "../../src/taskpane/settingsState";
 import { analyzeRange } from "../../src/taskpane/workflow";
+import { binomialCoefficient as choose } from "../exact";
 
 function host(): Host {
   const workbook = new Workbook([DEMO_SHEET]);
@@ -36,12 +37,6 @@ function host(): Host {
 
 async function withRange(state: PaneState, index: number, address: string, on = host()): Promise<PaneState> {
   return slotRead(state, index, address, await analyzeRange(on, address));
-}
-
-function choose(n: number, k: number): bigint {
-  let c = 1n;
-  for (let i = 1; i <= k; i++) c = (c * BigInt(n - k + i)) / BigInt(i);
-  return c;
 }
 
 describe("the Data step's state", () => {

@@ -7,12 +7,7 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { lineScale, nullBars, niceTicks, stackDots, MAX_NULL_BARS } from "../../src/taskpane/plot";
-
-function choose(n: number, k: number): bigint {
-  let c = 1n;
-  for (let i = 1; i <= k; i++) c = (c * BigInt(n - k + i)) / BigInt(i);
-  return c;
-}
+import { binomialCoefficient as choose } from "../exact";
 
 describe("ticks and scale", () => {
   it("uses nice steps inside the range", () => {
