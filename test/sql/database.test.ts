@@ -1,6 +1,6 @@
 /**
- * The SQL of the README's "Data in a database" section, run as committed (test/sql/oneColumn.sql and
- * byGroup.sql) in DuckDB (@duckdb/node-api, the embedded engine from the npm registry) on a generated table of
+ * The SQL of the README's "Data in a database" section, run as committed (ONE_COLUMN_SQL and BY_GROUP_SQL in
+ * src/taskpane/databaseQuery.ts, the one copy the pane fills in too) in DuckDB (@duckdb/node-api, the embedded engine from the npm registry) on a generated table of
  * 10,000,000 rows, against the statistics core on the same values: the counts must equal countSigns, the two
  * order statistics at ORDERRANKS' ranks must equal quantileBounds' exact bounds, and COUNTPVALUE on the counts
  * must equal PVALUE on the values. The rows are made inside DuckDB from range() by a fixed formula (a
@@ -13,15 +13,12 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { countpvalue, orderranks, pvalue } from "../../src/functions/functions";
 import { quantileBounds } from "../../src/stats/quantileBounds";
 import { countSigns } from "../../src/stats/signCounts";
+import { BY_GROUP_SQL as BY_GROUP, ONE_COLUMN_SQL as ONE_COLUMN } from "../../src/taskpane/databaseQuery";
 
 const ROWS = 10_000_000;
 const GROUPS = 7;
 const HYPOTHESISED = 50;
 const MINUTES = 180_000;
-
-const sqlText = (name: string): string => readFileSync(new URL(`./${name}`, import.meta.url), "utf8");
-const ONE_COLUMN = sqlText("oneColumn.sql");
-const BY_GROUP = sqlText("byGroup.sql");
 
 /** Seconds since `start`, for the printed figures. */
 const secondsSince = (start: number): string => ((performance.now() - start) / 1000).toFixed(1);
