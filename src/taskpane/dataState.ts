@@ -8,9 +8,10 @@
  *
  * Cost: O(cells of the data) for the summaries, O(1) for the updates.
  */
-import { formatAddress } from "./a1";
+import { formatAddress, rectsOverlap, type CellRect } from "./a1";
 import { headerName } from "./dataInfo";
-import type { PaneState, RangeSlot } from "./paneState";
+import { groupCells } from "../stats/groupedCells";
+import { emptySlot, type PaneState, type RangeSlot } from "./paneState";
 import { absoluteReference, openEnded } from "./references";
 import {
   blockRefs,
@@ -37,19 +38,62 @@ function withSlot(state: PaneState, index: number, slot: RangeSlot): PaneState {
   return settleData({ ...state, slots, confirm: same ? state.confirm : null });
 }
 
+/** The kinds of data the Data step offers. */
+export type DataKind = "one" | "pairs" | "two-groups" | "groups";
+
 /**
- * One set of values or pairs. Pairs take no quantile test; a change of kind
- * resets the hypothesised value (a shift starts at 0, a median is typed anew).
+ * The kind of data a state holds.
+ *
+ * @example
+ * dataKind(initialState()); // "one"
+ */
+export function dataKind(state: PaneState): DataKind {
+  if (state.paired) return "pairs";
+  return state.groups === "two" ? "two-groups" : state.groups === "several" ? "groups" : "one";
+}
+
+/**
+ * True when the data take both ranges: pairs, two groups, or values with their group column.
+ *
+ * @example
+ * usesTwoRanges(setDataKind(initialState(), "groups")); // true
+ */
+export function usesTwoRanges(state: PaneState): boolean {
+  return state.paired || state.groups !== "none";
+}
+
+/**
+ * One set of values, pairs, two groups or several groups. Pairs take no quantile
+ * test; a change of kind resets the hypothesised value (a shift starts at 0, a
+ * median is typed anew; the target median of several groups is optional, so it
+ * starts empty) and the second range, which means something else in each kind.
+ *
+ * @example
+ * setDataKind(setCenter(initialState(), "50"), "two-groups").question.center; // "0"
+ */
+export function setDataKind(state: PaneState, kind: DataKind): PaneState {
+  const before = dataKind(state);
+  if (kind === before) return state;
+  const paired = kind === "pairs";
+  const groups = kind === "two-groups" ? "two" : kind === "groups" ? "several" : "none";
+  // A median and a shift are different questions: the value typed for one means nothing for the other.
+  const shift = kind === "pairs" || kind === "two-groups";
+  let question = { ...state.question, center: shift ? "0" : "" };
+  if (kind !== "one" && question.test === "quantile") question = { ...question, test: "sign" };
+  // A second range read as the second of each pair is not a group column, nor a second group: it is chosen again.
+  const keepSecond = before !== "one" && kind !== "one" && (before === "groups") === (kind === "groups");
+  const slots: readonly [RangeSlot, RangeSlot] = keepSecond ? state.slots : [state.slots[0], emptySlot()];
+  return settleData({ ...state, paired, groups, slots, question, confirm: null });
+}
+
+/**
+ * One set of values or pairs.
  *
  * @example
  * setPaired(setCenter(initialState(), "50"), true).question.center; // "0"
  */
 export function setPaired(state: PaneState, paired: boolean): PaneState {
-  if (paired === state.paired) return state;
-  // A median and a shift are different questions: the value typed for one means nothing for the other.
-  let question = { ...state.question, center: paired ? "0" : "" };
-  if (paired && question.test === "quantile") question = { ...question, test: "sign" };
-  return settleData({ ...state, paired, question, confirm: null });
+  return setDataKind(state, paired ? "pairs" : "one");
 }
 
 /**
@@ -153,13 +197,13 @@ export function setReference(state: PaneState, reference: ReferenceChoice): Pane
  * choices(state).length; // 1
  */
 export function choices(state: PaneState): DataChoice[] {
-  const used = state.paired ? state.slots : [state.slots[0]];
+  const used = usesTwoRanges(state) ? state.slots : [state.slots[0]];
   return used.flatMap((slot) => (slot.range ? [{ range: slot.range, useHeader: slot.useHeader }] : []));
 }
 
 /** True when every range the question needs is read. */
 export function dataComplete(state: PaneState): boolean {
-  return choices(state).length === (state.paired ? 2 : 1);
+  return choices(state).length === (usesTwoRanges(state) ? 2 : 1);
 }
 
 /**
@@ -182,7 +226,37 @@ export function blockFollowsNewRows(state: PaneState): boolean {
  * dataReady(initialState()); // false
  */
 export function dataReady(state: PaneState): boolean {
-  return dataComplete(state) && dataProblem(choices(state)) === null;
+  return dataComplete(state) && problemOfData(state) === null;
+}
+
+/**
+ * What is wrong with the data of a kind, or null. Pairs must line up; two groups
+ * may differ in size; a group column must lie beside its values, row for row,
+ * and name at least two groups that hold numbers.
+ *
+ * @example
+ * problemOfData(stateWithValuesAndOneLabel); // "The group column names only one group (“Line A”): ..."
+ */
+export function problemOfData(state: PaneState): string | null {
+  const c = choices(state);
+  if (state.groups === "none") return dataProblem(c);
+  const [first, second] = c.map(bodyOf);
+  const kind = dataKind(state);
+  if (first.tally.numbers === 0)
+    return kind === "groups" ? "The values hold no numbers: there is nothing to test." : "The first group holds no numbers.";
+  if (kind === "two-groups" && second.tally.numbers === 0) return "The second group holds no numbers.";
+  if (first.sheet === second.sheet && rectsOverlap(first.rect, second.rect)) return "The two ranges overlap: pick two separate columns.";
+  if (kind === "two-groups") return null;
+  const shape = (rect: CellRect): string => `${rect.bottom - rect.top + 1} × ${rect.right - rect.left + 1}`;
+  if (shape(first.rect) !== shape(second.rect) || first.rect.top !== second.rect.top) {
+    return `The group column must lie beside the values, row for row: the values are ${formatAddress(first.rect, first.sheet)}, the group column ${formatAddress(second.rect, second.sheet)}.`;
+  }
+  const grouped = groupCells(first.values, second.values).groups.filter((g) => g.values.length > 0);
+  if (grouped.length < 2) {
+    const only = grouped.length === 1 ? ` (“${String(grouped[0].label)}”)` : "";
+    return `The group column names ${grouped.length === 1 ? "only one group" : "no group"} with numbers${only}: several groups need at least two.`;
+  }
+  return null;
 }
 
 /**
@@ -196,6 +270,7 @@ export function dataReady(state: PaneState): boolean {
  * settleData(stateWithB1B25).reference; // "table" until the person picks another form
  */
 export function settleData(state: PaneState): PaneState {
+  state = withLabelHeader(state);
   if (!dataComplete(state)) return state;
   const options = referenceOptions(choices(state));
   if (options.allTableColumns) return state;
@@ -206,14 +281,37 @@ export function settleData(state: PaneState): PaneState {
 }
 
 /**
+ * A group column holds text all the way down, so its name row cannot be told from a label by
+ * itself: when the values beside it start on the same row and take their first row as a name,
+ * the group column's first row is its name too (and the person can still untick it).
+ *
+ * @example
+ * withLabelHeader(stateWithThicknessAndLine).slots[1].range?.header; // "Line"
+ */
+export function withLabelHeader(state: PaneState): PaneState {
+  const [values, labels] = state.slots;
+  if (state.groups !== "several" || !values.range || !labels.range || labels.range.header !== null) return state;
+  if (labels.range.place.kind !== "none" || values.range.header === null || values.range.rect.top !== labels.range.rect.top) return state;
+  const first = labels.range.values[0] ?? [];
+  if (labels.range.values.length < 2 || !first.every((cell) => typeof cell === "string" && cell.trim() !== "")) return state;
+  const header = (first as string[]).map((cell) => cell.trim()).join(" / ");
+  return { ...state, slots: [values, { ...labels, range: { ...labels.range, header }, useHeader: values.useHeader }] };
+}
+
+/**
  * Why the Data step cannot be left, or null.
  *
  * @example
  * dataStepProblem(initialState()); // "Give the range with the values first."
  */
 export function dataStepProblem(state: PaneState): string | null {
-  if (!dataComplete(state)) return state.paired ? "Give both ranges first." : "Give the range with the values first.";
-  return dataProblem(choices(state));
+  if (!dataComplete(state)) {
+    const kind = dataKind(state);
+    if (kind === "groups") return "Give the values and the group column first.";
+    if (kind === "two-groups") return "Give both groups first.";
+    return kind === "pairs" ? "Give both ranges first." : "Give the range with the values first.";
+  }
+  return problemOfData(state);
 }
 
 /** What one range's part of the Data step shows. */
@@ -231,6 +329,9 @@ export interface SlotView {
 
 /** What the Data step shows. */
 export interface DataView {
+  readonly kind: DataKind;
+  /** The second range is asked for (pairs, two groups, the group column). */
+  readonly twoRanges: boolean;
   readonly paired: boolean;
   readonly slots: readonly [SlotView, SlotView];
   /** Null while the reference choice is not offered. */
@@ -238,6 +339,26 @@ export interface DataView {
   readonly reference: ReferenceChoice;
   readonly note: string;
   readonly problem: string;
+}
+
+/** How many labels a group column holds and how they are counted, beside the values they name. */
+function labelSummary(labels: RangeSlot, values: RangeSlot): string {
+  if (!labels.range) return "";
+  const body = bodyOf({ range: labels.range, useHeader: labels.useHeader });
+  const where = formatAddress(body.rect, body.sheet);
+  const named = body.name === undefined ? "No name row." : `Name: “${body.name}”.`;
+  const valueBody = values.range ? bodyOf({ range: values.range, useHeader: values.useHeader }) : null;
+  if (!valueBody || valueBody.values.length !== body.values.length || valueBody.values[0]?.length !== body.values[0]?.length) {
+    return `${where}: ${body.tally.cells} cells. ${named}`;
+  }
+  const grouped = groupCells(valueBody.values, body.values);
+  const shown = grouped.groups.slice(0, 6).map((g) => `“${String(g.label)}” (${g.values.length})`);
+  const more = grouped.groups.length > 6 ? `, and ${grouped.groups.length - 6} more` : "";
+  const k = grouped.groups.length;
+  const blank = grouped.blankLabels + grouped.labelErrors;
+  const skipped =
+    blank > 0 ? ` ${blank} ${blank === 1 ? "row has" : "rows have"} a blank or error label and ${blank === 1 ? "is" : "are"} skipped.` : "";
+  return `${where}: ${k} ${k === 1 ? "group" : "groups"} with numbers counted — ${shown.join(", ")}${more}.${skipped} ${named}`;
 }
 
 function slotSummary(slot: RangeSlot): string {
@@ -259,6 +380,7 @@ function slotSummary(slot: RangeSlot): string {
 
 function pooledWords(slot: RangeSlot, paired: boolean): string | null {
   if (paired || !slot.range) return null;
+  // Several columns of one group are pooled too, but the offer of pairs belongs to one set of values.
   const columns = slot.range.rect.right - slot.range.rect.left + 1;
   if (columns < 2) return null;
   const numbers = bodyOf({ range: slot.range, useHeader: slot.useHeader }).tally.numbers;
@@ -269,12 +391,19 @@ function pooledWords(slot: RangeSlot, paired: boolean): string | null {
   return `This range has ${columns} columns: their ${numbers} numbers are pooled into one set of values, as if they were one column.${pairs}`;
 }
 
-function slotView(slot: RangeSlot, label: string, paired: boolean): SlotView {
+function slotView(slot: RangeSlot, label: string, oneSet: boolean, summary = slotSummary(slot)): SlotView {
   const canToggleHeader = slot.range !== null && slot.range.place.kind !== "column" && slot.range.header !== null;
-  const pooled = pooledWords(slot, paired);
+  const pooled = oneSet ? pooledWords(slot, false) : null;
   const canPair = pooled !== null && slot.range !== null && pairColumns(slot.range) !== null;
-  return { label, problem: slot.problem, summary: slotSummary(slot), canToggleHeader, useHeader: slot.useHeader, pooled, canPair };
+  return { label, problem: slot.problem, summary, canToggleHeader, useHeader: slot.useHeader, pooled, canPair };
 }
+
+const SLOT_LABELS: Readonly<Record<DataKind, readonly [string, string]>> = {
+  one: ["Values", "Second values"],
+  pairs: ["First values (for example, before)", "Second values (for example, after)"],
+  "two-groups": ["First group (for example, line A)", "Second group (for example, line B)"],
+  groups: ["Values (all groups in one column)", "Group column (the group of each value, beside it)"],
+};
 
 /**
  * The sentence saying what the block's formulas will read, for the chosen reference form.
@@ -313,15 +442,21 @@ export function referenceSentence(state: PaneState): string {
 export function dataView(state: PaneState): DataView {
   const complete = dataComplete(state);
   const c = choices(state);
+  const kind = dataKind(state);
+  const [first, second] = SLOT_LABELS[kind];
   return {
+    kind,
+    twoRanges: usesTwoRanges(state),
     paired: state.paired,
     slots: [
-      slotView(state.slots[0], state.paired ? "First values (for example, before)" : "Values", state.paired),
-      slotView(state.slots[1], "Second values (for example, after)", state.paired),
+      slotView(state.slots[0], first, kind === "one"),
+      kind === "groups"
+        ? slotView(state.slots[1], second, false, labelSummary(state.slots[1], state.slots[0]))
+        : slotView(state.slots[1], second, false),
     ],
     options: complete ? referenceOptions(c) : null,
     reference: state.reference,
     note: referenceSentence(state),
-    problem: complete ? (dataProblem(c) ?? "") : "",
+    problem: complete ? (problemOfData(state) ?? "") : "",
   };
 }

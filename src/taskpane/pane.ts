@@ -28,6 +28,7 @@ import {
   slotFailed,
   slotRead,
   splitIntoPairs,
+  usesTwoRanges,
 } from "./dataState";
 import { dataPage } from "./dataView";
 import { el, replaceChildren, show } from "./dom";
@@ -200,7 +201,7 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
     if (rereading || state.busy) return;
     rereading = true;
     try {
-      const used = state.paired ? [0, 1] : [0];
+      const used = usesTwoRanges(state) ? [0, 1] : [0];
       for (const i of used) if (state.slots[i].range) await analyzeSlot(i, state.slots[i].text, true);
     } finally {
       rereading = false;
@@ -231,7 +232,7 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
   }
 
   async function rereadData(): Promise<void> {
-    const used = state.paired ? [0, 1] : [0];
+    const used = usesTwoRanges(state) ? [0, 1] : [0];
     for (const i of used) if (state.slots[i].text) await analyzeSlot(i, state.slots[i].text);
     await placeBlock();
     say("The data were read again.");

@@ -30,7 +30,13 @@ export interface Confirmation {
 export interface PaneState {
   /** 0 Data, 1 Question, 2 Settings, 3 Result. */
   readonly step: number;
+  /** Two ranges of pairs: a first and a second value of each item. */
   readonly paired: boolean;
+  /**
+   * Independent groups: "two" takes a first and a second group from two ranges; "several" takes values
+   * and a group column beside them. "none" for one set of values or pairs.
+   */
+  readonly groups: GroupsKind;
   readonly slots: readonly [RangeSlot, RangeSlot];
   readonly reference: ReferenceChoice;
   /** True once the person picked the reference form; until then it follows the default (a table where one can be made). */
@@ -48,6 +54,9 @@ export interface PaneState {
   readonly confirm: Confirmation | null;
   readonly busy: boolean;
 }
+
+/** Independent groups in the data: none, two from two ranges, or several named by a group column. */
+export type GroupsKind = "none" | "two" | "several";
 
 export const STEPS = ["Data", "Question", "Settings", "Result"] as const;
 
@@ -71,6 +80,7 @@ export function initialState(): PaneState {
   return {
     step: 0,
     paired: false,
+    groups: "none",
     slots: [emptySlot(), emptySlot()],
     reference: "exact",
     referenceChosen: false,
