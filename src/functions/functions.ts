@@ -19,10 +19,10 @@
 import { blockValue, reportCell, resultBlockRows, type BlockRequest } from "../report/resultBlock";
 import { adjustPValues } from "../stats/adjust";
 import { anytimeSignTest } from "../stats/anytimeSign";
-import { withNumbersInArrivalOrder } from "../stats/arrivalOrder";
+import { pairsInArrivalOrder, withNumbersInArrivalOrder } from "../stats/arrivalOrder";
 import { boundedNumbersFromCells, cellsFromValues, numbersFromCells, pairsFromCells, signCountsFromCells } from "../stats/cells";
 import { differencesFrom, pairedDifferences } from "../stats/differences";
-import { confidenceSequence } from "../stats/confidenceSequence";
+import { confidenceSequence, type ConfidenceSequenceResult } from "../stats/confidenceSequence";
 import { hodgesLehmann, hodgesLehmannEstimate } from "../stats/hodgesLehmann";
 import { signTestPower, signTestSampleSize } from "../stats/power";
 import { boundRanks, quantileBounds } from "../stats/quantileBounds";
@@ -30,7 +30,7 @@ import { quantileTest } from "../stats/quantileTest";
 import { countSigns, type SignCounts } from "../stats/signCounts";
 import { EXACT_LIMIT, signedRankTest, type SignedRankResult } from "../stats/signedRank";
 import { signTest } from "../stats/signTest";
-import { sprt as sequentialRatioTest } from "../stats/sprt";
+import { sprt as sequentialRatioTest, type SprtOptions, type SprtResult } from "../stats/sprt";
 import { unavailable, type BoundMethod, type BoundSide, type Unavailable } from "../stats/types";
 import {
   cellsArgument,
@@ -732,14 +732,18 @@ export function watchbounds(data: unknown[][], confidence?: unknown, quantile?: 
   return oneRow(3, () => {
     const level = fractionArgument("confidence", confidence, 0.95);
     const q = fractionArgument("quantile", quantile, 0.5, "0.9");
-    const result = withArrivingNumbers(data, (values) => confidenceSequence(values, { quantile: q, confidence: level }));
-    if (!result.available) return unavailableError(result);
-    return [
-      watchedEnd(result.lower, result.rowsForLower, result.rows, "lower"),
-      watchedEnd(result.upper, result.rowsForUpper, result.rows, "upper"),
-      result.rows,
-    ];
+    return watchedBoundsRow(withArrivingNumbers(data, (values) => confidenceSequence(values, { quantile: q, confidence: level })));
   });
+}
+
+/** Lower, upper, rows used of a confidence sequence; an end not bounded yet is #N/A saying from which row it comes. */
+function watchedBoundsRow(result: ConfidenceSequenceResult | Unavailable): RowCell[] | CellError {
+  if (!result.available) return unavailableError(result);
+  return [
+    watchedEnd(result.lower, result.rowsForLower, result.rows, "lower"),
+    watchedEnd(result.upper, result.rowsForUpper, result.rows, "upper"),
+    result.rows,
+  ];
 }
 
 /**
@@ -758,17 +762,119 @@ export function watchbounds(data: unknown[][], confidence?: unknown, quantile?: 
 export function sprt(data: unknown[][], hypothesized_median: unknown, p_above: unknown, alpha?: unknown, beta?: unknown): unknown[][] {
   try {
     const center = numberArgument("hypothesized_median", hypothesized_median);
-    const pAbove = fractionArgument("p_above", p_above, undefined, "0.75");
-    if (pAbove === 0.5)
-      throw new BadArgument(
-        "Argument p_above must differ from 0.5, the chance under the hypothesised median: give the chance to detect, such as 0.75.",
-      );
-    const errorI = fractionArgument("alpha", alpha, 0.05, "0.05");
-    const errorII = fractionArgument("beta", beta, 0.2, "0.2");
-    if (errorI + errorII >= 1)
-      throw new BadArgument(`Arguments alpha and beta must add up to less than 1, such as 0.05 and 0.2; got ${errorI} + ${errorII}.`);
-    const r = withArrivingNumbers(data, (values) => sequentialRatioTest(values, center, { pAbove, alpha: errorI, beta: errorII }));
-    return [[r.decision, r.rowsUsed, r.logLikelihoodRatio, r.limits.acceptAt, r.limits.rejectAt]];
+    const options = sprtOptions(p_above, alpha, beta);
+    return sprtRow(withArrivingNumbers(data, (values) => sequentialRatioTest(values, center, options)));
+  } catch (thrown) {
+    const error = errorFor(thrown);
+    return [[error, error, error, error, error]];
+  }
+}
+
+/** The SPRT's options from its cells: p_above not 0.5, alpha and beta adding up to less than 1. */
+function sprtOptions(p_above: unknown, alpha: unknown, beta: unknown): SprtOptions {
+  const pAbove = fractionArgument("p_above", p_above, undefined, "0.75");
+  if (pAbove === 0.5)
+    throw new BadArgument(
+      "Argument p_above must differ from 0.5, the chance under the hypothesised median: give the chance to detect, such as 0.75.",
+    );
+  const errorI = fractionArgument("alpha", alpha, 0.05, "0.05");
+  const errorII = fractionArgument("beta", beta, 0.2, "0.2");
+  if (errorI + errorII >= 1)
+    throw new BadArgument(`Arguments alpha and beta must add up to less than 1, such as 0.05 and 0.2; got ${errorI} + ${errorII}.`);
+  return { pAbove, alpha: errorI, beta: errorII };
+}
+
+function sprtRow(r: SprtResult): unknown[][] {
+  return [[r.decision, r.rowsUsed, r.logLikelihoodRatio, r.limits.acceptAt, r.limits.rejectAt]];
+}
+
+/**
+ * The paired differences second − first − shift in the order the pairs arrived (down the rows, then across the
+ * columns), by the pairing and rounding rules of the other paired functions.
+ */
+function arrivingDifferencesOf(first: unknown, second: unknown, shift: number): Float64Array {
+  const ranges = pairedCellsArgument(first, second);
+  const pairs = pairsInArrivalOrder(ranges.first, ranges.second);
+  return pairedDifferences(pairs.first, pairs.second, shift);
+}
+
+/**
+ * Paired sign-test p-value on the differences second − first − shift that may be looked at again after every new pair, and acted on the first time it falls below alpha, without raising the false-alarm rate. Pairs count in order: down the rows, then across the columns; pairs with a blank or non-number on either side are skipped.
+ * @customfunction PAIREDWATCHPVALUE
+ * @param first Range with the first measurement of each pair (such as before), in the order the pairs arrived.
+ * @param second Range with the second measurement, same shape as first (such as after).
+ * @param [shift] The median difference under test; default 0.
+ * @param [alternative] "two-sided" (default), "greater" (second tends to exceed first + shift) or "less".
+ * @param [ties] Zero differences: "drop" (default), "split" (taken in pairs, one below and one above) or "conservative".
+ * @returns The p-value after the last pair.
+ * @helpurl https://localhost:3000/help/pairedwatchpvalue.html
+ * @example =EVENSPLIT.PAIREDWATCHPVALUE(Nozzle[Before], Nozzle[After], 0, "less") may be checked after every new panel measured before and after the nozzle change.
+ * @see S. R. Howard, A. Ramdas, J. McAuliffe and J. Sekhon (2021), "Time-uniform, nonparametric, nonasymptotic confidence sequences", Annals of Statistics 49, 1055-1080.
+ */
+export function pairedwatchpvalue(
+  first: unknown[][],
+  second: unknown[][],
+  shift?: unknown,
+  alternative?: unknown,
+  ties?: unknown,
+): number | CellError {
+  return scalar(() => {
+    const moved = shiftOf(shift);
+    const options = { alternative: chooseWord(ALTERNATIVE, alternative), ties: chooseWord(TIES, ties) };
+    const result = anytimeSignTest(arrivingDifferencesOf(first, second, moved), 0, options);
+    return result.available ? result.pValue : unavailableError(result);
+  });
+}
+
+/**
+ * Bounds for the median (or another quantile) of the paired differences second − first that hold at every pair count at once, so they may be watched as pairs arrive; they only ever narrow. Returns one row: lower, upper, pairs used.
+ * @customfunction PAIREDWATCHBOUNDS
+ * @param first Range with the first measurement of each pair, in the order the pairs arrived.
+ * @param second Range with the second measurement, same shape as first.
+ * @param [confidence] Confidence that the bounds hold at every pair at once, such as 0.95 (default).
+ * @param [quantile] The quantile of the differences to bound, such as 0.9; default 0.5 (the median).
+ * @returns One row: lower, upper, pairs used.
+ * @helpurl https://localhost:3000/help/pairedwatchbounds.html
+ * @example =EVENSPLIT.PAIREDWATCHBOUNDS(Nozzle[Before], Nozzle[After], 0.95) bounds the median change After - Before, and may be checked after every new panel.
+ * @see S. R. Howard, A. Ramdas, J. McAuliffe and J. Sekhon (2021), "Time-uniform, nonparametric, nonasymptotic confidence sequences", Annals of Statistics 49, 1055-1080.
+ */
+export function pairedwatchbounds(first: unknown[][], second: unknown[][], confidence?: unknown, quantile?: unknown): unknown[][] {
+  return oneRow(3, () => {
+    const level = fractionArgument("confidence", confidence, 0.95);
+    const q = fractionArgument("quantile", quantile, 0.5, "0.9");
+    const differences = arrivingDifferencesOf(first, second, 0);
+    const oversized = oversizedDifference(differences);
+    if (oversized !== null) return unavailableError(oversized);
+    return watchedBoundsRow(confidenceSequence(differences, { quantile: q, confidence: level }));
+  });
+}
+
+/**
+ * Wald's sequential test for the median of the paired differences second − first − shift, read pair by pair: "continue" while the pairs so far cannot decide, then "reject" or "accept" at the first pair that can; later pairs are not read. Set p_above, alpha and beta before the first pair. Returns one row: decision, pairs used, log likelihood ratio, accept limit, reject limit.
+ * @customfunction PAIREDSPRT
+ * @param first Range with the first measurement of each pair, in the order the pairs arrived; pairs with a blank or non-number on either side are skipped.
+ * @param second Range with the second measurement, same shape as first.
+ * @param shift The median difference under test, usually 0 (left empty: 0); differences equal to it are left out.
+ * @param p_above The chance that a difference lies above the shift under the alternative to detect, such as 0.75 (or 0.25 for one below it); not 0.5.
+ * @param [alpha] Chance of rejecting when the median difference is the shift, such as 0.05 (default).
+ * @param [beta] Chance of accepting when differences lie above with chance p_above, such as 0.2 (default).
+ * @returns One row: decision, pairs used (pairs read up to the decision), log likelihood ratio, accept limit, reject limit.
+ * @helpurl https://localhost:3000/help/pairedsprt.html
+ * @example =EVENSPLIT.PAIREDSPRT(Nozzle[Before], Nozzle[After], 0, 0.25) reads the panels in order until it can decide whether the nozzle change leaves the thickness alone or makes three panels in four thinner.
+ * @see A. Wald (1945), "Sequential tests of statistical hypotheses", Annals of Mathematical Statistics 16, 117-186.
+ */
+export function pairedsprt(
+  first: unknown[][],
+  second: unknown[][],
+  shift: unknown,
+  p_above: unknown,
+  alpha?: unknown,
+  beta?: unknown,
+): unknown[][] {
+  try {
+    const moved = shiftOf(shift);
+    const options = sprtOptions(p_above, alpha, beta);
+    return sprtRow(sequentialRatioTest(arrivingDifferencesOf(first, second, moved), 0, options));
   } catch (thrown) {
     const error = errorFor(thrown);
     return [[error, error, error, error, error]];
@@ -804,6 +910,9 @@ const CATALOGUE: Readonly<Record<string, CatalogueFunction>> = {
   WATCHPVALUE: watchpvalue as CatalogueFunction,
   WATCHBOUNDS: watchbounds as CatalogueFunction,
   SPRT: sprt as CatalogueFunction,
+  PAIREDWATCHPVALUE: pairedwatchpvalue as CatalogueFunction,
+  PAIREDWATCHBOUNDS: pairedwatchbounds as CatalogueFunction,
+  PAIREDSPRT: pairedsprt as CatalogueFunction,
   COUNTPVALUE: countpvalue as CatalogueFunction,
   ORDERRANKS: orderranks as CatalogueFunction,
   TWOGROUPS: twogroups as CatalogueFunction,

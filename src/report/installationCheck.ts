@@ -186,6 +186,16 @@ export const REFERENCE_CASES: readonly ReferenceCase[] = [
     tolerance: 1e-15,
   },
   {
+    id: "paired-watch-8",
+    what: "Watching p-value, paired, eight pairs all higher second, two-sided",
+    fn: "PAIREDWATCHPVALUE",
+    args: [column(50, 50, 50, 50, 50, 50, 50, 50), column(51, 52, 53, 54, 55, 56, 57, 58)],
+    expected: 9 / 256,
+    source:
+      "Exact arithmetic: the uniform mixture of likelihood ratios after 8 signs up is 2^8 · 8! · 0! / 9! = 256/9, its largest value so far",
+    tolerance: 1e-13,
+  },
+  {
     id: "hodges-lehmann-5",
     what: "Hodges–Lehmann estimate of 1, 2, 3, 4, 5",
     fn: "HODGESLEHMANN",

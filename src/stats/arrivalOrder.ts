@@ -13,8 +13,16 @@
  * long column costs more to touch for the first time (the system maps its
  * memory page by page) than the whole pass over the cells.
  *
- * Cost: O(cells) time; O(cells) memory, kept and reused.
+ * Pairs (`pairsInArrivalOrder`) are read in the same order, position by
+ * position, by the one paired coercion of the catalogue (cells.ts,
+ * `pairsFromCells`), so which positions count as pairs, and what is skipped,
+ * is what PAIREDCOUNTS and PAIRED see; only the order differs, and only for
+ * ranges of more than one column.
+ *
+ * Cost: O(cells) time; O(cells) memory, kept and reused (pairs: O(pairs), plus
+ * a copy of the cells for ranges of more than one column).
  */
+import { pairsFromCells, type CellPairs } from "./cells";
 
 /** The buffer lent by the last call, grown as needed; null while it is lent out. */
 let BUFFER: Float64Array | null = new Float64Array(4096);
@@ -44,4 +52,35 @@ export function withNumbersInArrivalOrder<T>(cells: readonly (readonly unknown[]
   } finally {
     BUFFER = lent;
   }
+}
+
+/** The cells of a matrix column by column, each column as one row: reading the result row by row is arrival order. */
+function columnsAsRows(cells: readonly (readonly unknown[])[]): unknown[][] {
+  const rows = cells.length;
+  const width = rows === 0 ? 0 : cells[0].length;
+  const out: unknown[][] = new Array(width);
+  for (let c = 0; c < width; c++) {
+    const column: unknown[] = new Array(rows);
+    for (let r = 0; r < rows; r++) column[r] = cells[r][c];
+    out[c] = column;
+  }
+  return out;
+}
+
+/**
+ * The pairs of two ranges of the same shape in the order the rows arrived: down the first column, then down
+ * the next, as `withNumbersInArrivalOrder` reads one range. A pair is kept, skipped or counted as empty by the
+ * rules of `pairsFromCells` (both cells finite numbers; both blank is no pair at all), which does the reading.
+ * Throws a RangeError when the shapes differ.
+ *
+ * @example
+ * const p = pairsInArrivalOrder([[1, 4], [2, null]], [[1.5, 4.5], ["x", null]]);
+ * // p.first: [1, 4]; p.second: [1.5, 4.5]; p.pairsSkipped: 1 (the "x"); p.emptyPairs: 1
+ */
+export function pairsInArrivalOrder(first: readonly (readonly unknown[])[], second: readonly (readonly unknown[])[]): CellPairs {
+  const width = first.length === 0 ? 0 : first[0].length;
+  // One column: reading row by row already is arrival order, and costs no copy.
+  if (width <= 1) return pairsFromCells(first, second);
+  if (second.length !== first.length) throw new RangeError(`pairsInArrivalOrder: ${first.length} rows against ${second.length}`);
+  return pairsFromCells(columnsAsRows(first), columnsAsRows(second));
 }

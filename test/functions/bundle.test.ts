@@ -69,6 +69,9 @@ describe("dist/functions.js", () => {
     expect(signature("PAIRED")).toBe("first, second, [shift], [alternative], [ties], [method]");
     expect(signature("QUANTILEPVALUE")).toBe("data, value, quantile, [alternative]");
     expect(signature("SAMPLESIZE")).toBe("p_above, [power], [alpha], [alternative]");
+    expect(signature("PAIREDWATCHPVALUE")).toBe("first, second, [shift], [alternative], [ties]");
+    expect(signature("PAIREDWATCHBOUNDS")).toBe("first, second, [confidence], [quantile]");
+    expect(signature("PAIREDSPRT")).toBe("first, second, shift, p_above, [alpha], [beta]");
     expect(signature("REPORT")).toBe("data, hypothesized_median, [alternative], [alpha], [confidence], [second]");
   });
 
@@ -79,6 +82,10 @@ describe("dist/functions.js", () => {
     expect(bundle.call("COUNTS", data, 50)).toEqual([[1, 1, 2, 3]]);
     expect(bundle.call("STATISTIC", data, 50, ">")).toBe(2);
     expect(bundle.call("PAIREDCOUNTS", col(1, 2, 3, "x"), col(2, 2, 1, 4), null)).toEqual([[1, 1, 1, 2, 1]]);
+    // Three pairs up, a blank and a text side skipped: the watching p-value of three signs up, 1/(2^3 · 3! / 4!) = 1/2.
+    expect(bundle.call("PAIREDWATCHPVALUE", col(1, 2, 3, 4, "x"), col(2, 3, null, 5, 6))).toBeCloseTo(0.5, 14);
+    expect(bundle.call("PAIREDWATCHBOUNDS", col(1, 2), col(2, 4), 0.95) as unknown[][]).toHaveLength(1);
+    expect((bundle.call("PAIREDSPRT", col(1, 2), col(2, 4), 0, 0.75) as unknown[][])[0].slice(0, 2)).toEqual(["continue", 2]);
     const block = bundle.call("REPORT", data, 50, "greater") as unknown[][];
     expect(block.every((row) => row.length === 2)).toBe(true);
     expect(block.find((row) => row[0] === "p-value")?.[1]).toBeCloseTo(0.5, 14);

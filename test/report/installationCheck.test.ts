@@ -59,6 +59,9 @@ describe("the installation check", () => {
       if (sum <= 8) atMost8++;
     }
     expect(expected("signed-rank-10")).toBe(atMost8 / 1024);
+    // The watching p-value after 8 signs up: 1 / (2^8 · 8! · 0! / 9!) = 9! / (2^8 · 8!); each earlier value 2^t / (t + 1) is smaller.
+    const factorial = (n: bigint): bigint => (n <= 1n ? 1n : n * factorial(n - 1n));
+    expect(expected("paired-watch-8")).toBe(Number(factorial(9n)) / Number(256n * factorial(8n)));
   });
 
   it("writes each case as the formula a sheet would hold", () => {
