@@ -22,6 +22,7 @@
  *
  * Cost: O(rows) to build; evaluation costs the catalogue calls it makes.
  */
+import { cellError } from "../functions/runtime";
 import { EXACT_AUTO_LIMIT } from "../stats/signedRank";
 import type { Alternative, SignTestMethod, SignedRankMethod, TieRule, ZeroRule } from "../stats/types";
 import { EVENSPLIT_VERSION } from "./version";
@@ -53,10 +54,34 @@ export interface BlockRequest {
    * watching versions (WATCHPVALUE, WATCHBOUNDS); other blocks are unchanged.
    */
   readonly watching?: boolean;
+  /**
+   * Set when the data are a database query's answer pasted into one row of cells (n, below, tied, above,
+   * lower bound, upper bound; databaseQuery.ts): the block is then a sign test from those counts
+   * (COUNTPVALUE) with the bounds the query fetched at ORDERRANKS' ranks. One sample only.
+   */
+  readonly database?: DatabaseSource;
 }
 
-/** An argument of a catalogue call: one of the block's ranges, or a literal. */
-export type Operand = { readonly ref: "data" } | { readonly ref: "second" } | { readonly number: number } | { readonly text: string };
+/** Where a block's pasted numbers came from, for its wording and its audit line. */
+export interface DatabaseSource {
+  /** Table and column as the person named them. */
+  readonly table: string;
+  readonly column: string;
+  /** The group column and the label of the group whose row the block reads; absent for one column. */
+  readonly group?: { readonly column: string; readonly label: string };
+  /** SHA-256 (hex) of the text of the query whose answer the cells hold. */
+  readonly queryHash: string;
+}
+
+/** Which cell of the pasted row holds what, from 1 (a grouped row has its label first). */
+export const PASTED_COLUMNS = { n: 1, below: 2, tied: 3, above: 4, lower: 5, upper: 6 } as const;
+
+/**
+ * An argument of a catalogue call: one of the block's ranges (or, with `cell`, one cell of its first
+ * row, as `INDEX(range,1,cell)`), or a literal.
+ */
+export type Operand =
+  { readonly ref: "data"; readonly cell?: number } | { readonly ref: "second" } | { readonly number: number } | { readonly text: string };
 
 export interface CallValue {
   readonly kind: "call";
@@ -84,6 +109,19 @@ export type BlockValue =
   | { readonly kind: "decision"; readonly pValue: CallValue; readonly alpha: number; readonly reject: string; readonly keep: string }
   /** One text when a catalogue value is at most a limit, another above it (e.g. which method a size led to). */
   | { readonly kind: "atMost"; readonly value: CallValue; readonly limit: number; readonly then: string; readonly otherwise: string }
+  /**
+   * Cells of the data's first row, added (a pasted count, or below + above). With `blankShows`, a single
+   * blank cell shows as empty rather than 0 (a bound the query did not fetch).
+   */
+  | { readonly kind: "pasted"; readonly cells: readonly number[]; readonly blankShows?: boolean }
+  /** Whether the pasted n equals below + tied + above: a row pasted out of line shows here. */
+  | {
+      readonly kind: "pastedAddsUp";
+      readonly total: number;
+      readonly parts: readonly number[];
+      readonly agree: string;
+      readonly differ: string;
+    }
   | AuditValue;
 
 /**
@@ -233,6 +271,8 @@ function checkRequest(request: BlockRequest): void {
   if (!Number.isFinite(request.center)) throw new RangeError("center must be a finite number");
   if (!(request.alpha > 0 && request.alpha < 1)) throw new RangeError("alpha must lie strictly between 0 and 1");
   if (!(request.confidence > 0 && request.confidence < 1)) throw new RangeError("confidence must lie strictly between 0 and 1");
+  if (request.database !== undefined && (request.test !== "sign" || request.paired))
+    throw new RangeError("a block from a database query is a one-sample sign test");
   if (request.test === "quantile") {
     if (request.paired) throw new RangeError("the quantile test takes one range");
     const q = request.quantile;
@@ -521,6 +561,7 @@ function cautionRows(request: BlockRequest): BlockRow[] {
  */
 export function resultBlockRows(request: BlockRequest): BlockRow[] {
   checkRequest(request);
+  if (request.database !== undefined) return databaseRows(request, request.database);
   const centerWords = numberWords(request.center);
   const about = subject(request);
   const parts =
@@ -556,10 +597,115 @@ export function resultBlockRows(request: BlockRequest): BlockRow[] {
   ];
 }
 
+/** The words of the check that the pasted n equals below + tied + above. */
+export const PASTED_CHECK_WORDS = {
+  agree: "Agrees: n equals below + tied + above",
+  differ: "Differs: n is not below + tied + above; paste the query's row again, its columns in order",
+} as const;
+
+/** One pasted cell, or the sum of several. */
+function pastedCells(...cells: number[]): BlockValue {
+  return { kind: "pasted", cells };
+}
+
+function pastedCell(cell: number): Operand {
+  return { ref: "data", cell };
+}
+
+/** The cell of the pasted row, shifted past the group label when there is one. */
+function pastedColumn(source: DatabaseSource, what: keyof typeof PASTED_COLUMNS): number {
+  return PASTED_COLUMNS[what] + (source.group === undefined ? 0 : 1);
+}
+
+/**
+ * The block for a database query's answer pasted into one row: the counts as pasted, the sign test from
+ * them (COUNTPVALUE), ORDERRANKS' ranks and exact coverage for the pasted n, and the two order statistics
+ * the query fetched at those ranks.
+ */
+function databaseRows(request: BlockRequest, source: DatabaseSource): BlockRow[] {
+  const at = (what: keyof typeof PASTED_COLUMNS): number => pastedColumn(source, what);
+  const centerWords = numberWords(request.center);
+  const about = subject(request);
+  const method = (request.method as SignTestMethod | undefined) ?? "exact";
+  const pValue = call("COUNTPVALUE", [pastedCell(at("above")), pastedCell(at("below")), word(request.alternative), word(method)]);
+  const side = boundSideFor(request.alternative);
+  const ranks = (column: number): CallValue =>
+    call("ORDERRANKS", [pastedCell(at("n")), num(request.confidence), num(0.5), word(side)], column);
+  const level = percentWords(request.confidence);
+  const boundLabel = (end: "lower" | "upper"): string =>
+    side === "two-sided"
+      ? `${level} bounds for the median: ${end}`
+      : side === end
+        ? `${level} ${end} bound for the median (one-sided)`
+        : `${end[0].toUpperCase()}${end.slice(1)} bound (none: one-sided)`;
+  const where = source.group === undefined ? "" : `, group ${source.group.label}`;
+  const alphaWords = numberWords(request.alpha);
+  return [
+    row("title", "Evensplit result", text(`Sign test, one sample, from a database query${where}`), "text", "title"),
+    row("question", "Question", text(`Is ${about} ${CLAIM[request.alternative]} ${centerWords}?`), "text"),
+    row("h0", "H0", text(`${about} = ${centerWords}`), "text"),
+    row("h1", "H1", text(`${about} ${RELATION[request.alternative]} ${centerWords}`), "text"),
+    row("numbers", "Values the query counted (n, NULLs left out)", pastedCells(at("n")), "integer"),
+    row("below", `Values below ${centerWords}`, pastedCells(at("below")), "integer"),
+    row("tied", `Values equal to ${centerWords} (ties)`, pastedCells(at("tied")), "integer"),
+    row("above", `Values above ${centerWords}`, pastedCells(at("above")), "integer"),
+    row(
+      "addsUp",
+      "Pasted counts (n against below + tied + above)",
+      { kind: "pastedAddsUp", total: at("n"), parts: [at("below"), at("tied"), at("above")], ...PASTED_CHECK_WORDS },
+      "text",
+    ),
+    row("used", "Used (n, ties left out)", pastedCells(at("below"), at("above")), "integer"),
+    row("pvalue", "p-value", pValue, "pvalue"),
+    row(
+      "method",
+      "Method",
+      text(
+        `Sign test from counts, ${SIGN_METHOD_WORDS[method]}${request.alternative === "two-sided" ? " (twice the smaller tail, at most 1)" : ""}; ties left out`,
+      ),
+      "text",
+    ),
+    row(
+      "decision",
+      `Decision at alpha = ${alphaWords}`,
+      {
+        kind: "decision",
+        pValue,
+        alpha: request.alpha,
+        reject: `Reject H0: evidence that ${about} is ${CLAIM[request.alternative]} ${centerWords}`,
+        keep: `Do not reject H0: these data do not show that ${about} is ${CLAIM[request.alternative]} ${centerWords}`,
+      },
+      "text",
+    ),
+    row("lowerRank", "Rank of the lower bound among the sorted values", ranks(1), "integer"),
+    row("upperRank", "Rank of the upper bound among the sorted values", ranks(2), "integer"),
+    row("lower", boundLabel("lower"), { kind: "pasted", cells: [at("lower")], blankShows: true }, "number"),
+    row("upper", boundLabel("upper"), { kind: "pasted", cells: [at("upper")], blankShows: true }, "number"),
+    row("coverage", "Exact coverage of these bounds", ranks(3), "percent"),
+    row(
+      "fromQuery",
+      "Where the numbers come from",
+      text(
+        "A database query's answer, pasted: the bounds are the values at the ranks above only if the query ran with them. After the table changes, run both queries again and paste the new row.",
+      ),
+      "text",
+      "caution",
+    ),
+    ...cautionRows(request),
+    row("audit", "Audit", { kind: "audit", version: EVENSPLIT_VERSION, method: auditMethod(request) }, "text"),
+  ];
+}
+
 /** The method and every option that changes the numbers, for the audit line. */
 function auditMethod(request: BlockRequest): string {
   const common = `${request.alternative}, alpha ${numberWords(request.alpha)}, confidence ${numberWords(request.confidence)}; hypothesised ${numberWords(request.center)}`;
   const kind = request.paired ? "paired" : "one sample";
+  if (request.database !== undefined) {
+    const { table, column, group, queryHash } = request.database;
+    const rows = group === undefined ? "" : `, group column ${group.column} = ${group.label}`;
+    const how = SIGN_METHOD_WORDS[(request.method as SignTestMethod | undefined) ?? "exact"];
+    return `sign test from a database query's counts (${how}; ties left out; ${common}); table ${table}, column ${column}${rows}; query SHA-256 ${queryHash}`;
+  }
   if (request.test === "sign") {
     const method = (request.method as SignTestMethod | undefined) ?? "exact";
     const how = usesWatching(request) ? "watching p-value and bounds" : SIGN_METHOD_WORDS[method];
@@ -600,7 +746,7 @@ function formulaString(s: string): string {
 
 function formulaOperand(operand: Operand, refs: { data: string; second?: string }): string {
   if ("ref" in operand) {
-    if (operand.ref === "data") return refs.data;
+    if (operand.ref === "data") return operand.cell === undefined ? refs.data : `INDEX(${refs.data},1,${operand.cell})`;
     if (refs.second === undefined) throw new RangeError("this block needs a second range");
     return refs.second;
   }
@@ -650,6 +796,14 @@ export function blockFormula(value: BlockValue, refs: FormulaRefs): string {
       const sheetCount = `COUNT(${value.ranges.map((range) => formulaOperand({ ref: range }, refs)).join(",")})`;
       const read = value.read.map((term) => formulaCall(term, refs)).join("+");
       return `=IF(${sheetCount}=${read},${formulaString(value.agree)},${formulaString(value.differ)})`;
+    }
+    case "pasted": {
+      const cells = value.cells.map((cell) => formulaOperand(pastedCell(cell), refs));
+      return value.blankShows === true && cells.length === 1 ? `=IF(${cells[0]}="","",${cells[0]})` : `=${cells.join("+")}`;
+    }
+    case "pastedAddsUp": {
+      const cell = (k: number): string => formulaOperand(pastedCell(k), refs);
+      return `=IF(${cell(value.total)}=${value.parts.map(cell).join("+")},${formulaString(value.agree)},${formulaString(value.differ)})`;
     }
     case "audit": {
       // Plain text, fixed at writing: the time must not move with recalculation.
@@ -739,9 +893,42 @@ function auditValue(value: AuditValue, inputs: BlockInputs): string {
   return auditWords(value, given, `evaluated ${auditTime(inputs.evaluatedAt ?? new Date())}`);
 }
 
+/** One cell of the data's first row (from 1), as the sheet holds it. */
+function pastedValue(inputs: BlockInputs, cell: number): unknown {
+  return inputs.data[0]?.[cell - 1] ?? null;
+}
+
+function isBlank(cell: unknown): boolean {
+  return cell === null || cell === undefined || cell === "";
+}
+
+/** Pasted cells added as the sheet's + adds them: a blank counts 0, text is #VALUE!. */
+function pastedSum(inputs: BlockInputs, cells: readonly number[]): unknown {
+  let total = 0;
+  for (const cell of cells) {
+    const x = pastedValue(inputs, cell);
+    if (isBlank(x)) continue;
+    if (typeof x !== "number") return cellError("#VALUE!", "A pasted cell that should hold a count holds text.");
+    total += x;
+  }
+  return total;
+}
+
+function pasted(value: { readonly cells: readonly number[]; readonly blankShows?: boolean }, inputs: BlockInputs): unknown {
+  if (value.cells.length !== 1) return pastedSum(inputs, value.cells);
+  const x = pastedValue(inputs, value.cells[0]);
+  return isBlank(x) ? (value.blankShows === true ? "" : 0) : x;
+}
+
 function evaluateCall(value: CallValue, inputs: BlockInputs, run: CatalogueCall): unknown {
   const args = value.args.map((operand) =>
-    "ref" in operand ? rangeOf(operand.ref, inputs) : "number" in operand ? operand.number : operand.text,
+    "ref" in operand
+      ? operand.ref === "data" && operand.cell !== undefined
+        ? pastedValue(inputs, operand.cell)
+        : rangeOf(operand.ref, inputs)
+      : "number" in operand
+        ? operand.number
+        : operand.text,
   );
   const result = run(value.fn, args);
   if (value.column === undefined || !Array.isArray(result)) return result;
@@ -784,6 +971,15 @@ export function blockValue(value: BlockValue, inputs: BlockInputs, run: Catalogu
     }
     case "blankCheck":
       return blankCheck(value, inputs, run);
+    case "pasted":
+      return pasted(value, inputs);
+    case "pastedAddsUp": {
+      const total = pastedSum(inputs, [value.total]);
+      const parts = pastedSum(inputs, value.parts);
+      if (typeof total !== "number") return total;
+      if (typeof parts !== "number") return parts;
+      return total === parts ? value.agree : value.differ;
+    }
     case "audit":
       return auditValue(value, inputs);
   }
