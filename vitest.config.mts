@@ -23,8 +23,10 @@ mkdirSync(WORKER_REPORTS, { recursive: true });
 const DIST_TESTS = [
   "test/functions/accuracy.test.ts",
   "test/functions/bundle.test.ts",
+  "test/functions/customEnums.test.ts",
   "test/functions/helpPagesDist.test.ts",
   "test/functions/manifest.test.ts",
+  "test/functions/metadataRequirements.test.ts",
 ];
 
 export default defineConfig({

@@ -9,7 +9,9 @@
  * - from the JSDoc tags the metadata drops: @returns (what the cell shows),
  *   @example (a formula in the invented paint-line scenario) and @see (the
  *   published method);
- * - from src/functions/vocabulary.ts: every word an argument accepts.
+ * - from src/functions/vocabulary.ts: every word an argument accepts, with
+ *   its meaning (the same words and meanings functions.json gets as custom
+ *   enums for the picker, scripts/wordEnums.ts).
  *
  * Each function's `helpUrl` in functions.json points at its page on the
  * development server; a @helpurl tag in the JSDoc sets it, and where there is
@@ -23,9 +25,11 @@
  * Cost: one parse of functions.ts and one pass over the metadata.
  */
 import ts from "typescript";
-import * as vocabularies from "../src/functions/vocabulary";
 import type { Vocabulary } from "../src/functions/vocabulary";
 import { DEVELOPMENT_ORIGIN } from "./deployManifest";
+import { vocabularyFor, withWordEnums } from "./wordEnums";
+
+export { vocabularyFor };
 
 /** The part of a function's metadata the pages use (Microsoft, custom functions JSON metadata reference). */
 export interface FunctionMetadata {
@@ -84,41 +88,16 @@ export function jsDocExtras(source: string): Map<string, JsDocExtras> {
   return found;
 }
 
-function isVocabulary(value: unknown): value is Vocabulary<string> {
-  return typeof value === "object" && value !== null && "argument" in value && "choices" in value && "fallback" in value;
-}
-
-const VOCABULARIES: readonly Vocabulary<string>[] = Object.values(vocabularies as Record<string, unknown>).filter(isVocabulary);
-
-/**
- * The vocabulary an argument takes, found from its name and the words its
- * help quotes: the one for that argument name whose canonical words are
- * exactly the quoted ones, a choice's canonical word being the first of its
- * words (several options share a name, such as method).
- * Undefined for an argument that takes no words.
- *
- * @example
- * vocabularyFor({ name: "ties", description: '"drop" (default), "split" or "conservative".' }); // TIES
- */
-export function vocabularyFor(parameter: { name: string; description?: string }): Vocabulary<string> | undefined {
-  const quoted = new Set([...(parameter.description ?? "").matchAll(/"([^"]+)"/g)].map((m) => m[1].toLowerCase()));
-  if (quoted.size === 0) return undefined;
-  const sameName = VOCABULARIES.filter((v) => v.argument === parameter.name);
-  // The first word of each choice is the one a person types (vocabulary.ts).
-  const canonical = (v: Vocabulary<string>) => v.choices.map((c) => c.words[0]);
-  return sameName.find((v) => canonical(v).length === quoted.size && canonical(v).every((w) => quoted.has(w)));
-}
-
 function escapeHtml(text: string): string {
   return text.replace(/[&<>"']/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" })[c]!);
 }
 
-/** Every accepted word of a vocabulary, the default marked, synonyms after the word each choice is typed as. */
+/** Every accepted word of a vocabulary with its meaning, the default marked, synonyms after the word each choice is typed as. */
 function wordsHtml(vocabulary: Vocabulary<string>): string {
   const items = vocabulary.choices.map((choice) => {
     const main = `<code>${escapeHtml(choice.words[0])}</code>${choice.value === vocabulary.fallback ? " (the default)" : ""}`;
     const also = choice.words.slice(1).map((w) => `<code>${escapeHtml(w)}</code>`);
-    return `<li>${main}${also.length > 0 ? `; also ${also.join(", ")}` : ""}</li>`;
+    return `<li>${main}: ${escapeHtml(choice.meaning)}${also.length > 0 ? ` Also typed as ${also.join(", ")}.` : ""}</li>`;
   });
   return `<p>Accepted words (not case-sensitive):</p><ul>${items.join("")}</ul>`;
 }
@@ -220,7 +199,8 @@ export function helpStyleSheet(paneCss: string): string {
 
 /**
  * What the build emits for help: functions.json with every function's
- * helpUrl (kept where a @helpurl tag set it, added where none did), and the
+ * helpUrl (kept where a @helpurl tag set it, added where none did) and the
+ * word arguments' custom enums (scripts/wordEnums.ts), and the
  * pages, index and style sheet by their path under dist/.
  *
  * @example
@@ -232,14 +212,18 @@ export function helpFiles(
   functionsSource: string,
   paneCss: string,
 ): { metadataJson: string; files: Map<string, string> } {
-  const metadata = JSON.parse(metadataJson) as { functions: FunctionMetadata[] };
+  // custom-functions-metadata 2.2.3 always writes allowCustomDataForDataTypeAny: true, a property of
+  // CustomFunctionsRuntime 1.4 (Microsoft, "Custom functions requirement sets") that lets data types reach
+  // `any` parameters as objects. Evensplit takes plain cell values and asks for an older set, so it is left out.
+  const metadata = JSON.parse(metadataJson) as { functions: FunctionMetadata[]; allowCustomDataForDataTypeAny?: boolean };
+  delete metadata.allowCustomDataForDataTypeAny;
   const extras = jsDocExtras(functionsSource);
   const files = new Map<string, string>();
-  const functions = metadata.functions.map((fn) => ({ ...fn, helpUrl: fn.helpUrl ?? helpUrlFor(fn.id) }));
+  const { functions, enums } = withWordEnums(metadata.functions.map((fn) => ({ ...fn, helpUrl: fn.helpUrl ?? helpUrlFor(fn.id) })));
   for (const fn of functions) {
     files.set(`help/${fn.id.toLowerCase()}.html`, helpPage(fn, extras.get(fn.id) ?? { examples: [], references: [] }));
   }
   files.set("help/index.html", helpIndex(functions));
   files.set("help/help.css", helpStyleSheet(paneCss));
-  return { metadataJson: JSON.stringify({ ...metadata, functions }, null, 4), files };
+  return { metadataJson: JSON.stringify({ ...metadata, functions, enums }, null, 4), files };
 }

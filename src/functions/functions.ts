@@ -44,7 +44,21 @@ import {
 } from "./argumentChecks";
 import { BadArgument, errorFor, oneRow, scalar, unavailableError, type RowCell } from "./errors";
 import type { CellError } from "./runtime";
-import { ADJUST_METHOD, ALTERNATIVE, BOUND_METHOD, SIDE, SIGNED_RANK_METHOD, SIGN_METHOD, TIES, ZEROS, chooseWord } from "./vocabulary";
+import {
+  ADJUST_ACROSS_GROUPS,
+  ADJUST_METHOD,
+  ALTERNATIVE,
+  AT_MEDIAN,
+  BOUND_METHOD,
+  MANY_GROUP_METHOD,
+  SIDE,
+  SIGNED_RANK_METHOD,
+  SIGN_METHOD,
+  TIES,
+  TWO_GROUP_METHOD,
+  ZEROS,
+  chooseWord,
+} from "./vocabulary";
 
 // ---------------------------------------------------------------------------
 // From cells to the core's inputs
@@ -946,40 +960,10 @@ export function callFunction(id: string, args: readonly unknown[]): unknown {
 import { summariseGroups, type Missing } from "../stats/byGroup";
 import { groupCells, type GroupedCells } from "../stats/groupedCells";
 import { kruskalWallisTest } from "../stats/kruskalWallis";
-import { moodMedianTest, type MedianTieRule } from "../stats/moodMedian";
+import { moodMedianTest } from "../stats/moodMedian";
 import { rankSumTest } from "../stats/rankSum";
 import { shiftBounds, shiftEstimate } from "../stats/shiftBounds";
 import { cellError } from "./runtime";
-import type { Vocabulary } from "./vocabulary";
-
-const TWO_GROUP_METHOD: Vocabulary<"rank-sum" | "median"> = {
-  argument: "method",
-  choices: [
-    { value: "rank-sum", words: ["rank-sum", "rank sum", "ranksum", "wilcoxon", "mann-whitney"] },
-    { value: "median", words: ["median", "mood"] },
-  ],
-  fallback: "rank-sum",
-};
-
-const MANY_GROUP_METHOD: Vocabulary<"median" | "rank"> = {
-  argument: "method",
-  choices: [
-    { value: "median", words: ["median", "mood"] },
-    { value: "rank", words: ["rank", "ranks", "kruskal-wallis"] },
-  ],
-  fallback: "median",
-};
-
-/** Values equal to the pooled median in the median test (common practice varies, so it is a choice). */
-const AT_MEDIAN: Vocabulary<MedianTieRule> = {
-  argument: "at_median",
-  choices: [
-    { value: "join-lower", words: ["join-lower", "lower"] },
-    { value: "join-upper", words: ["join-upper", "upper"] },
-    { value: "leave-out", words: ["leave-out", "leave out"] },
-  ],
-  fallback: "join-lower",
-};
 
 /** The numbers of one group's range (any shape; blank and non-number cells are skipped). */
 function groupNumbers(name: string, raw: unknown): Float64Array {
@@ -1124,7 +1108,7 @@ export function bygroup(
     const center = numberArgument("hypothesized_median", hypothesized_median);
     const chosenAlternative = chooseWord(ALTERNATIVE, alternative);
     const level = fractionArgument("confidence", confidence, 0.95);
-    const method = chooseWord(ADJUST_METHOD, adjust);
+    const method = chooseWord(ADJUST_ACROSS_GROUPS, adjust);
     const grouped = groupsOf(values, labels);
     if (grouped.groups.length === 0) return [BY_GROUP_HEADER.map(() => cellError("#N/A", "No row has both a group label and a value."))];
     const summary = summariseGroups(
