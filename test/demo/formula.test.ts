@@ -96,6 +96,36 @@ describe("tokenize", () => {
   });
 });
 
+describe("array constants", () => {
+  it('read columns after commas and rows after semicolons (Microsoft, "Use array constants in array formulas")', () => {
+    expect(calc("{1,2;3,4}")).toEqual({
+      kind: "matrix",
+      rows: [
+        [1, 2],
+        [3, 4],
+      ],
+    });
+    expect(calc('{-1.5;"a";TRUE}')).toEqual({ kind: "matrix", rows: [[-1.5], ["a"], [true]] });
+    expect(calc("INDEX({5,6,7},1,3)")).toBe(7);
+    expect(calc("{ 1E-3 , 2 }")).toEqual({ kind: "matrix", rows: [[0.001, 2]] });
+  });
+
+  it("refuse what Excel refuses in them: references, functions, nested arrays, $, %, unequal rows, no closing brace", () => {
+    for (const text of ["{A1,2}", "{SQRT(4)}", "{{1}}", "{$5}", "{5%}", "{1,2;3}", "{1,2", "{}", "{1,,2}"]) {
+      expect(() => parseFormula(text), text).toThrow(FormulaSyntaxError);
+    }
+  });
+
+  it("reach a custom function as a matrix argument", () => {
+    const sum: CustomFunction = {
+      fn: (m: unknown) => (m as number[][]).flat().reduce((a, b) => a + b, 0),
+      shapes: ["matrix"],
+      result: "scalar",
+    };
+    expect(calc("EVENSPLIT.SUM({51;52;53})", { SUM: sum })).toBe(156);
+  });
+});
+
 describe("evaluate: operators", () => {
   it("follows the spreadsheet's precedence: negation before ^, then * /, then + -, then &, then comparison", () => {
     expect(calc("1+2*3")).toBe(7);
@@ -162,6 +192,23 @@ describe("evaluate: built-in functions", () => {
     expect((calc("NOSUCH(1)") as { code: string }).code).toBe("#NAME?");
     // Excel takes a formula with a name it does not know and shows #NAME?; only malformed text is refused.
     expect((calc("nosuch+1") as { code: string }).code).toBe("#NAME?");
+  });
+
+  it("ABS takes the size of a number; IFERROR shows its second value for an error (Microsoft, ABS and IFERROR function pages)", () => {
+    expect(calc("ABS(-2.5)")).toBe(2.5);
+    expect(calc("ABS(A1-B1)")).toBe(9);
+    expect(calc('IFERROR(1/0,"none")')).toBe("none");
+    expect(calc('IFERROR(A1*2,"none")')).toBe(2);
+    expect((calc('IFERROR(A1:A2,"x")') as { code: string }).code).toBe("#VALUE!");
+  });
+
+  it('COUNTIF counts the cells equal to a plain criterion, text in any case (Microsoft, "COUNTIF function")', () => {
+    expect(calc('COUNTIF(A1:A5,"NOTE")')).toBe(1);
+    expect(calc("COUNTIF(A1:A5,4)")).toBe(1);
+    expect(calc('COUNTIF(A1:A5,"other")')).toBe(0);
+    // Operators and wildcards are refused: stricter than Excel, never laxer.
+    expect((calc('COUNTIF(A1:A5,">1")') as { code: string }).code).toBe("#VALUE!");
+    expect((calc('COUNTIF(A1:A5,"no*")') as { code: string }).code).toBe("#VALUE!");
   });
 
   it('a defined name stands for its cells, in any case (Microsoft, "Define and use names in formulas")', () => {

@@ -1,7 +1,8 @@
 /**
  * Evaluates an expression tree for one cell of the demo sheet: references,
- * the few built-in functions the result block uses (INDEX, ROWS, COLUMNS,
- * COUNT, COUNTA, IF), arithmetic, comparison, concatenation, and the
+ * array constants, the few built-in functions the result block and the
+ * installation check use (INDEX, ROWS, COLUMNS, COUNT, COUNTA, IF, ABS,
+ * IFERROR, COUNTIF), arithmetic, comparison, concatenation, and the
  * EVENSPLIT.* functions taken from the real cell-function bundle.
  *
  * Method: a direct tree walk. Values follow the spreadsheet's coercions
@@ -214,8 +215,40 @@ function truth(value: Scalar): boolean | ErrorValue {
   return errorValue("#VALUE!", `IF needs TRUE or FALSE, not the text "${value}".`);
 }
 
+/**
+ * COUNTIF with a plain criterion: a number counts the cells holding that number, a text the cells holding
+ * that text in any case (Microsoft, "COUNTIF function"). A text criterion with an operator in front or a
+ * wildcard (* ? ~) is answered with #VALUE!, which is stricter than Excel: the demo sheet does not read them.
+ */
+function countIf(args: Value[], context: EvaluationContext): Value {
+  if (args.length !== 2) return errorValue("#VALUE!", "COUNTIF takes a range and a criterion.");
+  if (!isReference(args[0])) return errorValue("#VALUE!", "COUNTIF needs a range of cells as its first argument.");
+  const criterion = single(args[1], context);
+  if (isError(criterion)) return criterion;
+  if (typeof criterion === "string" && /^[<>=]|[*?~]/.test(criterion)) {
+    return errorValue("#VALUE!", "The demo sheet's COUNTIF reads plain values only, without operators or wildcards.");
+  }
+  const wanted = criterion === null ? 0 : criterion;
+  return count([args[0]], context, (cell) =>
+    typeof wanted === "string" ? typeof cell === "string" && cell.toLowerCase() === wanted.toLowerCase() : cell === wanted,
+  );
+}
+
 function builtIn(name: string, args: Value[], context: EvaluationContext): Value {
   switch (name) {
+    case "ABS": {
+      if (args.length !== 1) return errorValue("#VALUE!", "ABS takes one number.");
+      const x = toNumber(single(args[0], context));
+      return isError(x) ? x : Math.abs(x);
+    }
+    case "IFERROR": {
+      if (args.length !== 2) return errorValue("#VALUE!", "IFERROR takes a value and the value to show for an error.");
+      const size = dimensions(args[0]);
+      if (size.rows !== 1 || size.columns !== 1) return errorValue("#VALUE!", "The demo sheet's IFERROR looks at one value.");
+      return isError(single(args[0], context)) ? args[1] : args[0];
+    }
+    case "COUNTIF":
+      return countIf(args, context);
     case "INDEX":
       return index(args, context);
     case "ROWS":
@@ -355,6 +388,8 @@ export function evaluate(expression: Expression, context: EvaluationContext): Va
       return context.definedName(expression.text) ?? errorValue("#NAME?", `The name "${expression.text}" is not known.`);
     case "ref":
       return reference(expression.text, context);
+    case "array":
+      return { kind: "matrix", rows: expression.rows };
     case "table":
       return context.tableColumn(expression.table, expression.column);
     case "unary": {

@@ -12,13 +12,14 @@
  *
  * Cost: O(number of tokens).
  */
-import { FormulaSyntaxError, tokenize, type Token } from "./tokenize";
+import { FormulaSyntaxError, tokenize, type ArrayElement, type Token } from "./tokenize";
 
 export type Expression =
   | { readonly type: "number"; readonly value: number }
   | { readonly type: "string"; readonly value: string }
   | { readonly type: "boolean"; readonly value: boolean }
   | { readonly type: "ref"; readonly text: string }
+  | { readonly type: "array"; readonly rows: readonly (readonly ArrayElement[])[] }
   | { readonly type: "table"; readonly table: string; readonly column: string }
   | { readonly type: "missing" }
   | { readonly type: "unknownName"; readonly text: string }
@@ -94,6 +95,8 @@ class Parser {
         return { type: "string", value: token.value };
       case "ref":
         return { type: "ref", text: token.text };
+      case "array":
+        return { type: "array", rows: token.rows };
       case "table":
         return { type: "table", table: token.table, column: token.column };
       case "name": {

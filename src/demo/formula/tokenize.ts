@@ -1,7 +1,8 @@
 /**
  * Splits the text of a formula (after its "=") into tokens: numbers, strings,
  * cell and range references (optional sheet prefix, `$` signs, whole
- * columns), structured table references (Table[Column]), names, operators.
+ * columns), structured table references (Table[Column]), array constants
+ * ({1,2;3,4}), names, operators.
  *
  * Method: a hand-written scanner that tries each token pattern at the current
  * position, longest form first. The grammar is the locale-independent English
@@ -19,7 +20,11 @@ export type Token =
   | { readonly type: "name"; readonly text: string }
   | { readonly type: "op"; readonly text: string }
   | { readonly type: "paren"; readonly text: "(" | ")" }
-  | { readonly type: "comma" };
+  | { readonly type: "comma" }
+  | { readonly type: "array"; readonly rows: readonly (readonly ArrayElement[])[] };
+
+/** What an array constant may hold: a number, a text or a logical. */
+export type ArrayElement = number | string | boolean;
 
 /**
  * A formula the scanner or the parser cannot read; the sheet shows it as #NAME?.
@@ -168,6 +173,65 @@ function readString(text: string, start: number): { value: string; end: number }
   }
 }
 
+const ARRAY_NUMBER = /^-?(?:[0-9]+\.?[0-9]*|\.[0-9]+)(?:[eE][+-]?[0-9]+)?/;
+
+/**
+ * Reads an array constant from its "{" to its "}": commas separate the
+ * columns, semicolons the rows (the English syntax Range.formulas uses).
+ * Microsoft, "Use array constants in array formulas": an array constant holds
+ * numbers, text, logicals and error values; it cannot hold cell references,
+ * formulas, functions or other arrays, and numbers cannot carry $, %, commas
+ * or parentheses; every row has as many values as the first. Error values
+ * are refused here too, which is stricter than Excel: the demo sheet has no
+ * use for them.
+ */
+function readArray(text: string, start: number): { rows: ArrayElement[][]; end: number } {
+  const rows: ArrayElement[][] = [[]];
+  let i = start + 1;
+  const skipSpaces = (): void => {
+    while (text[i] === " ") i++;
+  };
+  for (;;) {
+    skipSpaces();
+    const rest = text.slice(i);
+    const number = ARRAY_NUMBER.exec(rest);
+    let element: ArrayElement;
+    if (text[i] === '"') {
+      const s = readString(text, i);
+      element = s.value;
+      i = s.end;
+    } else if (number) {
+      element = Number(number[0]);
+      i += number[0].length;
+    } else if (/^(TRUE|FALSE)(?![A-Za-z0-9_.(])/i.test(rest)) {
+      element = rest.slice(0, 4).toUpperCase() === "TRUE";
+      i += element ? 4 : 5;
+    } else {
+      throw new FormulaSyntaxError(
+        "An array constant holds only numbers, texts in quotes and TRUE or FALSE: no references, functions or other arrays.",
+      );
+    }
+    rows[rows.length - 1].push(element);
+    skipSpaces();
+    const separator = text[i];
+    i++;
+    if (separator === ",") continue;
+    if (separator === ";") {
+      rows.push([]);
+      continue;
+    }
+    if (separator === "}") break;
+    throw new FormulaSyntaxError(
+      separator === undefined
+        ? "An array constant is not closed with }."
+        : `The character "${separator}" cannot stand in an array constant.`,
+    );
+  }
+  if (rows.some((row) => row.length !== rows[0].length))
+    throw new FormulaSyntaxError("Every row of an array constant must have as many values.");
+  return { rows, end: i };
+}
+
 /**
  * Tokens of a formula body (the text after "=").
  *
@@ -189,6 +253,12 @@ export function tokenize(formula: string): Token[] {
       const s = readString(formula, i);
       tokens.push({ type: "string", value: s.value });
       i = s.end;
+      continue;
+    }
+    if (ch === "{") {
+      const array = readArray(formula, i);
+      tokens.push({ type: "array", rows: array.rows });
+      i = array.end;
       continue;
     }
     const reference = REFERENCE.exec(rest);
