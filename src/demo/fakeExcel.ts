@@ -33,7 +33,7 @@ import type {
 import { isError, type Scalar } from "./formula/values";
 import { formatCell } from "../taskpane/numberFormat";
 import type { ChartModel, DefinedName, TableModel, Workbook } from "./workbook";
-import { areaRefusal, RefusedEntry } from "./limits";
+import { areaRefusal, RefusedEntry, sheetNameRefusal } from "./limits";
 
 /**
  * An error as the real API reports it: a code and a message.
@@ -47,6 +47,7 @@ export class FakeApiError extends Error {
   constructor(
     readonly code:
       | "ItemNotFound"
+      | "ItemAlreadyExists"
       | "InvalidArgument"
       | "PropertyNotLoaded"
       | "InvalidOperation"
@@ -210,7 +211,7 @@ function ownRange(queue: Queue, range: HostRange): FakeRange {
 
 class FakeRange implements HostRange {
   private readonly loaded = new Loaded();
-  readonly format: { readonly font: HostFont; autofitColumns(): void };
+  readonly format: { readonly font: HostFont; columnWidth: number; autofitColumns(): void };
 
   private readonly where: Where;
 
@@ -232,8 +233,22 @@ class FakeRange implements HostRange {
       return w;
     };
     const font = new FakeFont(queue, this.where);
+    const whereNow = this.where;
     this.format = {
       font,
+      get columnWidth(): number {
+        throw new FakeApiError("PropertyNotLoaded", "The demo sheet does not read column widths back.");
+      },
+      /** Microsoft, "Excel.RangeFormat class", columnWidth (ExcelApi 1.2): every column of the range, in points. */
+      set columnWidth(points: number) {
+        queue.add(() => {
+          const w = whereNow();
+          if (!w) return;
+          if (!(points >= 0)) throw new FakeApiError("InvalidArgument", "A column width is a number of points, 0 or more.");
+          // A point is 4/3 of a pixel at the usual 96 dots an inch (common practice).
+          for (let c = w.rect.left; c <= w.rect.right; c++) queue.workbook.setColumnWidth(w.sheet, c, Math.round((points * 4) / 3));
+        });
+      },
       autofitColumns: () =>
         this.queue.add(() => {
           const w = this.where();
@@ -676,9 +691,11 @@ class FakeWorksheet implements HostWorksheet {
   readonly tables: HostWorksheet["tables"];
   readonly charts: HostWorksheet["charts"];
 
+  /** `orNull`: a *OrNullObject proxy, whose load reports a missing sheet instead of failing. */
   constructor(
     private readonly queue: Queue,
     private readonly sheetName: () => string,
+    private readonly orNull = false,
   ) {
     const tablesLoaded = new Loaded();
     const workbook = queue.workbook;
@@ -762,14 +779,51 @@ class FakeWorksheet implements HostWorksheet {
     };
   }
 
+  /** Marks the name as loaded already (items of a loaded collection come with what was asked for). */
+  preload(name: string): void {
+    this.loaded.set("name", name);
+    this.loaded.set("isNullObject", false);
+  }
+
   get name(): string {
     return this.loaded.get("name", "Worksheet");
   }
 
-  /** A worksheet offers only its name here, whatever is asked for. */
+  get isNullObject(): boolean {
+    return this.loaded.get("isNullObject", "Worksheet");
+  }
+
+  /** A worksheet offers only its name (and whether it exists) here, whatever is asked for. */
   load(): FakeWorksheet {
-    this.queue.add(() => this.loaded.set("name", sheetOrThrow(this.queue.workbook, this.sheetName())));
+    this.queue.add(() => {
+      const workbook = this.queue.workbook;
+      const there = workbook.hasSheet(this.sheetName());
+      if (!there && !this.orNull) sheetOrThrow(workbook, this.sheetName());
+      this.loaded.set("isNullObject", !there);
+      this.loaded.set("name", there ? workbook.sheetName(this.sheetName()) : null);
+    });
     return this;
+  }
+
+  /** Microsoft, "Excel.Worksheet class", activate(): the sheet is shown, here with A1 selected. */
+  activate(): void {
+    this.queue.add(() => {
+      const sheet = sheetOrThrow(this.queue.workbook, this.sheetName());
+      this.queue.workbook.select({ sheet, rect: { top: 0, left: 0, bottom: 0, right: 0 } });
+    });
+  }
+
+  /** Microsoft, "Excel.Worksheet class", delete(): the sheet goes with its contents; the last sheet of a workbook stays. */
+  delete(): void {
+    this.queue.add(() => {
+      const workbook = this.queue.workbook;
+      try {
+        workbook.deleteSheet(sheetOrThrow(workbook, this.sheetName()));
+      } catch (thrown) {
+        if (thrown instanceof RefusedEntry) throw new FakeApiError("InvalidOperation", thrown.message);
+        throw thrown;
+      }
+    });
   }
 
   getRange(address?: string): FakeRange {
@@ -856,6 +910,51 @@ function fakeNames(queue: Queue): HostContext["workbook"]["names"] {
   return names;
 }
 
+/**
+ * The workbook's sheets (Microsoft, "Excel.WorksheetCollection class": add, getItem, getActiveWorksheet and
+ * items, ExcelApi 1.1; getItemOrNullObject, 1.4). A new sheet's name follows Excel's rules (limits.ts,
+ * sheetNameRefusal): a name in use fails with ItemAlreadyExists and the message Excel gives ("A resource with
+ * the same name or identifier already exists.", OfficeDev/office-scripts-docs issue 560), any other refused
+ * name with InvalidArgument. The demo asks for the name: Excel's default SheetN is not offered.
+ */
+function fakeWorksheets(queue: Queue): HostContext["workbook"]["worksheets"] {
+  const workbook = queue.workbook;
+  const loaded = new Loaded();
+  const worksheets: HostContext["workbook"]["worksheets"] = {
+    get items(): HostWorksheet[] {
+      return loaded.get("items", "WorksheetCollection");
+    },
+    load: () => {
+      queue.add(() =>
+        loaded.set(
+          "items",
+          workbook.sheetNames.map((name) => {
+            const sheet = new FakeWorksheet(queue, () => name);
+            sheet.preload(name);
+            return sheet;
+          }),
+        ),
+      );
+      return worksheets;
+    },
+    add: (name: string) => {
+      queue.add(() => {
+        if (typeof name !== "string") throw new FakeApiError("InvalidArgument", "The demo sheet adds a sheet only with its name given.");
+        const refused = sheetNameRefusal(name, workbook.sheetNames);
+        if (refused && workbook.hasSheet(name))
+          throw new FakeApiError("ItemAlreadyExists", "A resource with the same name or identifier already exists.");
+        if (refused) throw new FakeApiError("InvalidArgument", refused);
+        workbook.addSheet(name);
+      });
+      return new FakeWorksheet(queue, () => name);
+    },
+    getItem: (name: string) => new FakeWorksheet(queue, () => name),
+    getItemOrNullObject: (name: string) => new FakeWorksheet(queue, () => name, true),
+    getActiveWorksheet: () => new FakeWorksheet(queue, () => workbook.selection.sheet),
+  };
+  return worksheets;
+}
+
 class FakeContext implements HostContext {
   readonly queue: Queue;
   readonly workbook: HostContext["workbook"];
@@ -864,10 +963,7 @@ class FakeContext implements HostContext {
     const queue = (this.queue = new Queue(workbook));
     this.workbook = {
       getSelectedRange: () => new FakeRange(queue, () => workbook.selection),
-      worksheets: {
-        getItem: (name: string) => new FakeWorksheet(queue, () => name),
-        getActiveWorksheet: () => new FakeWorksheet(queue, () => workbook.selection.sheet),
-      },
+      worksheets: fakeWorksheets(queue),
       names: fakeNames(queue),
       tables: fakeWorkbookTables(queue),
     };

@@ -65,3 +65,28 @@ export function areaRefusal(rect: CellRect): string | null {
   if (rect.right > LAST_COLUMN) return "The area runs past column XFD, the last of the sheet.";
   return null;
 }
+
+/** Characters of a worksheet's name (Microsoft Support, "Rename a worksheet"). */
+export const MAX_SHEET_NAME_CHARACTERS = 31;
+
+/**
+ * Why Excel would refuse this name for a new worksheet, or null when it may
+ * have it. Microsoft Support, "Rename a worksheet" (its note on names, from
+ * memory: the page was not at hand): a name is not blank, has at most 31
+ * characters, holds none of / \ ? * : [ ], neither starts nor ends with an
+ * apostrophe, and is not "History", which Excel keeps for itself. No two
+ * sheets share a name, compared without regard to case (from memory).
+ *
+ * @example
+ * sheetNameRefusal("Q1/Q2", ["Sheet1"]); // 'A sheet name cannot hold / \ ? * : [ or ]; "Q1/Q2" does.'
+ * sheetNameRefusal("Evensplit check", ["Sheet1"]); // null
+ */
+export function sheetNameRefusal(name: string, existing: readonly string[]): string | null {
+  if (name.trim() === "") return "A sheet name cannot be blank.";
+  if (name.length > MAX_SHEET_NAME_CHARACTERS) return `A sheet name has at most 31 characters; "${name}" has ${name.length}.`;
+  if (/[/\\?*:[\]]/.test(name)) return `A sheet name cannot hold / \\ ? * : [ or ]; "${name}" does.`;
+  if (name.startsWith("'") || name.endsWith("'")) return `A sheet name cannot start or end with an apostrophe; "${name}" does.`;
+  if (name.toLowerCase() === "history") return "Excel keeps the sheet name History for itself.";
+  if (existing.some((other) => other.toLowerCase() === name.toLowerCase())) return `The workbook already has a sheet named ${name}.`;
+  return null;
+}

@@ -23,7 +23,7 @@ import { LAST_ROW, rectContains, rectsOverlap, rectSize, type CellRect } from ".
 import { evaluate, type CustomFunction, type EvaluationContext } from "./formula/evaluate";
 import { parseFormula, type Expression } from "./formula/parse";
 import { FormulaSyntaxError } from "./formula/tokenize";
-import { areaRefusal, lengthRefusal, RefusedEntry } from "./limits";
+import { areaRefusal, lengthRefusal, RefusedEntry, sheetNameRefusal } from "./limits";
 import { errorValue, isError, isMatrix, isReference, type ReferenceValue, type Scalar, type Value } from "./formula/values";
 
 export interface CellFormat {
@@ -268,6 +268,42 @@ export class Workbook {
 
   sheetName(name: string): string {
     return this.sheet(name).name;
+  }
+
+  /**
+   * Adds an empty sheet after the others; a name Excel would refuse (limits.ts, sheetNameRefusal) is a
+   * RefusedEntry and changes nothing.
+   */
+  addSheet(name: string): void {
+    const refused = sheetNameRefusal(name, this.sheetNames);
+    if (refused) throw new RefusedEntry(refused);
+    const sheet: SheetModel = { name, cells: new Map(), columnWidths: new Map() };
+    this.sheets.push(sheet);
+    this.byName.set(name.toLowerCase(), sheet);
+    this.formulaKeys.set(name, new Set());
+    this.notify();
+  }
+
+  /**
+   * Removes a sheet with its tables, charts and the defined names on it; formulas that read it show #REF!
+   * (Microsoft, "Excel.Worksheet class", delete). A workbook keeps at least one sheet, so the last one is refused.
+   */
+  deleteSheet(name: string): void {
+    const sheet = this.sheet(name);
+    if (this.sheets.length === 1) throw new RefusedEntry("A workbook must keep at least one sheet.");
+    this.sheets.splice(this.sheets.indexOf(sheet), 1);
+    this.byName.delete(sheet.name.toLowerCase());
+    this.formulaKeys.delete(sheet.name);
+    this.computed.delete(sheet.name);
+    this.spills.delete(sheet.name);
+    this.usedCache.clear();
+    for (const list of [this.tables, this.charts]) {
+      for (let i = list.length - 1; i >= 0; i--) if (list[i].sheet === sheet.name) list.splice(i, 1);
+    }
+    for (const [k, defined] of this.names) if (defined.sheet === sheet.name) this.names.delete(k);
+    if (this.selected.sheet === sheet.name) this.selected = { sheet: this.sheets[0].name, rect: { top: 0, left: 0, bottom: 0, right: 0 } };
+    this.recalculate();
+    this.notify();
   }
 
   select(selection: Selection): void {

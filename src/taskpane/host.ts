@@ -13,7 +13,9 @@
  * Worksheet.getUsedRangeOrNullObject, TableCollection.add/getItemOrNullObject,
  * Table.name/convertToRange, ChartCollection.add/getItemOrNullObject,
  * Chart.name/delete, NamedItemCollection.add/getItemOrNullObject and
- * NamedItem.getRangeOrNullObject/delete (1.4).
+ * NamedItem.getRangeOrNullObject/delete (1.4), WorksheetCollection.add/items
+ * and Worksheet.activate/delete (1.1), WorksheetCollection.getItemOrNullObject
+ * (1.4), RangeFormat.columnWidth (1.2).
  *
  * A write is one batch that cannot half-happen: it reads what it will
  * change, queues every change and syncs once. When the workbook refuses a
@@ -49,7 +51,7 @@ export interface HostRange {
   formulas: unknown[][];
   numberFormat: unknown[][];
   readonly isNullObject: boolean;
-  readonly format: { readonly font: HostFont; autofitColumns(): void };
+  readonly format: { readonly font: HostFont; columnWidth: number; autofitColumns(): void };
   load(propertyNames: string): unknown;
   getRow(row: number): HostRange;
   getColumn(column: number): HostRange;
@@ -103,15 +105,25 @@ export interface HostWorksheet {
     getItemOrNullObject(name: string): HostChart;
     load(propertyNames: string): unknown;
   };
+  readonly isNullObject: boolean;
   getRange(address?: string): HostRange;
   getUsedRangeOrNullObject(valuesOnly?: boolean): HostRange;
   load(propertyNames: string): unknown;
+  activate(): void;
+  delete(): void;
 }
 
 export interface HostContext {
   readonly workbook: {
     getSelectedRange(): HostRange;
-    readonly worksheets: { getItem(name: string): HostWorksheet; getActiveWorksheet(): HostWorksheet };
+    readonly worksheets: {
+      readonly items: HostWorksheet[];
+      load(propertyNames: string): unknown;
+      add(name: string): HostWorksheet;
+      getItem(name: string): HostWorksheet;
+      getItemOrNullObject(name: string): HostWorksheet;
+      getActiveWorksheet(): HostWorksheet;
+    };
     readonly names: {
       readonly items: HostNamedItem[];
       add(name: string, reference: HostRange | string, comment?: string): HostNamedItem;
@@ -156,6 +168,24 @@ export interface BlockWrite extends SheetRect {
   readonly cautionRows: readonly number[];
 }
 
+/** A new sheet's cells from A1, written in one batch (the installation check's sheet). */
+export interface SheetContent {
+  /** Row by row: formulas, texts and numbers, all rows as long. */
+  readonly formulas: readonly (readonly (string | number)[])[];
+  readonly numberFormats: readonly (readonly string[])[];
+  /** 0-based rows shown bold. */
+  readonly boldRows: readonly number[];
+  /** 0-based rows shown italic (the cautions). */
+  readonly italicRows: readonly number[];
+  /** Widths in points of the first columns (RangeFormat.columnWidth). */
+  readonly columnWidths: readonly number[];
+}
+
+/** How adding a sheet ended: written under this name, or refused (and the half-made sheet removed, unless `left` says otherwise). */
+export type SheetReport =
+  | { readonly kind: "written"; readonly sheet: string }
+  | { readonly kind: "refused"; readonly reason: string; readonly left: string | null };
+
 export interface Host {
   /** The selected range's address, with its sheet. */
   selection(): Promise<string>;
@@ -179,6 +209,11 @@ export interface Host {
    * read, and the report lists whatever could not be put back.
    */
   applyWrite(plan: PlannedWrite, region: readonly SheetRect[], proceed: (current: readonly CellsRead[]) => boolean): Promise<WriteReport>;
+  /**
+   * Adds a sheet, named by `chooseName` from the names the workbook has, and writes `content` into it in
+   * the same batch, then shows it. When the workbook refuses, the sheet it had added is deleted again.
+   */
+  addSheet(chooseName: (taken: readonly string[]) => string, content: SheetContent): Promise<SheetReport>;
 }
 
 /** How a write ended: the cells changed since the person agreed (nothing written), written whole, or refused and undone. */
@@ -408,6 +443,38 @@ function objectsLeft(plan: PlannedWrite, found: ReturnType<typeof madeObjects>):
   return left;
 }
 
+/** Queues the cells, formats and column widths of a new sheet's content. */
+function queueSheetContent(sheet: HostWorksheet, content: SheetContent): void {
+  const rows = content.formulas.length;
+  const columns = content.formulas[0]?.length ?? 0;
+  if (rows === 0 || columns === 0) return;
+  const range = sheet.getRange(formatAddress({ top: 0, left: 0, bottom: rows - 1, right: columns - 1 }));
+  // Formats first: a text format ("@") set before the entry keeps a version such as 16.0 as text.
+  range.numberFormat = content.numberFormats.map((row) => [...row]);
+  range.formulas = content.formulas.map((row) => [...row]);
+  for (const r of content.boldRows) range.getRow(r).format.font.bold = true;
+  for (const r of content.italicRows) range.getRow(r).format.font.italic = true;
+  content.columnWidths.forEach((points, c) => {
+    range.getColumn(c).format.columnWidth = points;
+  });
+}
+
+/** Deletes a sheet a refused batch had added; what could not be removed, in words, or null. */
+async function removeSheet(run: RunBatch, name: string): Promise<string | null> {
+  try {
+    await run(async (context) => {
+      const sheet = context.workbook.worksheets.getItemOrNullObject(name);
+      sheet.load("name");
+      await context.sync();
+      if (!sheet.isNullObject) sheet.delete();
+      await context.sync();
+    });
+    return null;
+  } catch (thrown) {
+    return `The sheet ${name} it had begun could not be removed (${refusal(thrown)}); delete it by hand.`;
+  }
+}
+
 /**
  * Wraps a `run` function into the pane's workbook operations.
  *
@@ -488,6 +555,26 @@ export function createHost(run: RunBatch): Host {
           ...sheets.flatMap((sheet) => sheet.charts.items.map((c) => c.name)),
         ];
       }),
+
+    addSheet: async (chooseName, content) => {
+      const attempt = await run(async (context) => {
+        const sheets = context.workbook.worksheets;
+        sheets.load("items/name");
+        await context.sync();
+        const name = chooseName(sheets.items.map((s) => s.name));
+        const sheet = sheets.add(name);
+        queueSheetContent(sheet, content);
+        sheet.activate();
+        try {
+          await context.sync();
+          return { name, reason: null };
+        } catch (thrown) {
+          return { name, reason: refusal(thrown) };
+        }
+      });
+      if (attempt.reason === null) return { kind: "written", sheet: attempt.name };
+      return { kind: "refused", reason: attempt.reason, left: await removeSheet(run, attempt.name) };
+    },
 
     applyWrite: async (plan, region, proceed) => {
       const attempt = await run(async (context): Promise<Attempt> => {

@@ -304,3 +304,72 @@ describe("blank cells handed to a function as 0, as some Excel builds do (office
     expect([block(false), block(true)]).toEqual([BLANK_CHECK_WORDS.agree, BLANK_CHECK_WORDS.differ]);
   });
 });
+
+describe('new worksheets (Microsoft, "Excel.WorksheetCollection class"; names as Microsoft Support, "Rename a worksheet", from memory)', () => {
+  const refusedCode = async (w: Workbook, name: string): Promise<string> => {
+    try {
+      await fakeRun(w)(async (context: HostContext) => {
+        context.workbook.worksheets.add(name);
+        await context.sync();
+      });
+      return "accepted";
+    } catch (thrown) {
+      return thrown instanceof FakeApiError ? thrown.code : String(thrown);
+    }
+  };
+
+  it("refuses a blank name, one over 31 characters, / \\ ? * : [ ], an apostrophe at either end, History, and a name in use in any case", async () => {
+    const w = new Workbook([S]);
+    for (const name of ["", "   ", "x".repeat(32), "a/b", "a\\b", "a?b", "a*b", "a:b", "a[b", "a]b", "'quoted", "quoted'", "history"]) {
+      expect(await refusedCode(w, name), JSON.stringify(name)).toBe("InvalidArgument");
+    }
+    expect(await refusedCode(w, "PAINT LINE")).toBe("ItemAlreadyExists");
+    expect(w.sheetNames).toEqual([S]);
+    expect(await refusedCode(w, "x".repeat(31))).toBe("accepted");
+    expect(await refusedCode(w, "Lot's check (2)")).toBe("accepted");
+    expect(w.sheetNames).toEqual([S, "x".repeat(31), "Lot's check (2)"]);
+  });
+
+  it("lists the sheets, writes to a new one in the same batch, shows it on activate, and deletes it again", async () => {
+    const w = new Workbook([S]);
+    const names = await fakeRun(w)(async (context: HostContext) => {
+      const sheets = context.workbook.worksheets;
+      sheets.load("items/name");
+      await context.sync();
+      const before = sheets.items.map((s) => s.name);
+      const made = sheets.add("Check");
+      made.getRange("A1:B1").formulas = [["=1+1", "=Check!A1*2"]];
+      made.activate();
+      await context.sync();
+      return before;
+    });
+    expect(names).toEqual([S]);
+    expect(w.value("Check", 0, 1)).toBe(4);
+    expect(w.selection.sheet).toBe("Check");
+    w.writeEntries(S, 0, 0, [["=Check!A1"]]);
+    const found = await fakeRun(w)(async (context: HostContext) => {
+      const missing = context.workbook.worksheets.getItemOrNullObject("Nothing");
+      const there = context.workbook.worksheets.getItemOrNullObject("check");
+      missing.load("name");
+      there.load("name");
+      await context.sync();
+      if (!there.isNullObject) there.delete();
+      await context.sync();
+      return { missing: missing.isNullObject, there: there.isNullObject };
+    });
+    expect(found).toEqual({ missing: true, there: false });
+    expect(w.sheetNames).toEqual([S]);
+    expect(w.selection.sheet).toBe(S);
+    expect((w.value(S, 0, 0) as { code: string }).code).toBe("#REF!");
+  });
+
+  it("keeps the last sheet of a workbook", async () => {
+    const w = new Workbook([S]);
+    await expect(
+      fakeRun(w)(async (context: HostContext) => {
+        context.workbook.worksheets.getItem(S).delete();
+        await context.sync();
+      }),
+    ).rejects.toMatchObject({ code: "InvalidOperation" });
+  });
+});

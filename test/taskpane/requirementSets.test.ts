@@ -132,10 +132,16 @@ describe("the Excel API requirement set", () => {
     expect(declaredExcelApi()).toBe(highest.set);
   });
 
-  it("reads the platform's definitions right (Range.setCellProperties is ExcelApi 1.9, Range.values 1.1: Microsoft's Excel.Range reference)", () => {
+  it("reads the platform's definitions right (Range.setCellProperties is ExcelApi 1.9, Range.values 1.1: Microsoft's Excel.Range reference; the sheet members below)", () => {
     const sets = excelRequirementSets();
     expect(sets.get("Range.setCellProperties")).toBe("1.9");
     expect(sets.get("Range.values")).toBe("1.1");
     expect(sets.get("Worksheet.getUsedRangeOrNullObject")).toBe("1.4");
+    // The installation check's sheet: Microsoft's Excel.WorksheetCollection, Excel.Worksheet and Excel.RangeFormat references.
+    expect(sets.get("WorksheetCollection.add")).toBe("1.1");
+    expect(sets.get("WorksheetCollection.getItemOrNullObject")).toBe("1.4");
+    expect(sets.get("Worksheet.activate")).toBe("1.1");
+    expect(sets.get("Worksheet.delete")).toBe("1.1");
+    expect(sets.get("RangeFormat.columnWidth")).toBe("1.2");
   });
 });
