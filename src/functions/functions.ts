@@ -1085,7 +1085,7 @@ function groupCell(value: number | null | Missing): number | string | CellError 
  * @customfunction BYGROUP
  * @param values Range with the measurements, such as B2:B200.
  * @param labels Range with each value's group label beside it, same shape, such as A2:A200. Rows with a blank label are skipped and counted in a last row.
- * @param hypothesized_median The median under test for every group, such as 50.
+ * @param [hypothesized_median] The median under test for every group, such as 50. Leave it out (nothing between the commas) for the counts, medians and bounds alone: the two p-value columns are then empty.
  * @param [alternative] "two-sided" (default: two-sided bounds), "greater" (a lower bound) or "less" (an upper bound).
  * @param [confidence] Confidence of the bounds, such as 0.95 (default).
  * @param [adjust] Adjustment across groups: "holm" (default), "bonferroni", "hochberg", "bh" or "by".
@@ -1099,13 +1099,15 @@ function groupCell(value: number | null | Missing): number | string | CellError 
 export function bygroup(
   values: unknown[][],
   labels: unknown[][],
-  hypothesized_median: unknown,
+  hypothesized_median?: unknown,
   alternative?: unknown,
   confidence?: unknown,
   adjust?: unknown,
 ): unknown[][] {
   try {
-    const center = numberArgument("hypothesized_median", hypothesized_median);
+    // Left out: no test against a target; the summary still needs a centre, and its p-values are not shown.
+    const tested = hypothesized_median !== null && hypothesized_median !== undefined && hypothesized_median !== "";
+    const center = tested ? numberArgument("hypothesized_median", hypothesized_median) : 0;
     const chosenAlternative = chooseWord(ALTERNATIVE, alternative);
     const level = fractionArgument("confidence", confidence, 0.95);
     const method = chooseWord(ADJUST_ACROSS_GROUPS, adjust);
@@ -1119,7 +1121,8 @@ export function bygroup(
     const rows: unknown[][] = summary.rows.map((row, g) => [
       grouped.groups[g].label,
       row.n,
-      ...[row.median, row.lower, row.upper, row.coverage, row.pValue, row.adjustedPValue].map(groupCell),
+      ...[row.median, row.lower, row.upper, row.coverage].map(groupCell),
+      ...(tested ? [row.pValue, row.adjustedPValue].map(groupCell) : ["", ""]),
     ]);
     const skipped = grouped.blankLabels + grouped.labelErrors;
     if (skipped > 0) rows.push(["Rows without a usable label (skipped)", skipped, "", "", "", "", "", ""]);

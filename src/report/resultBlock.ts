@@ -23,27 +23,47 @@
  * Cost: O(rows) to build; evaluation costs the catalogue calls it makes.
  */
 import { cellError } from "../functions/runtime";
+import { EXACT_AUTO_SIZE, EXACT_AUTO_TIED_SIZE } from "../stats/rankSum";
 import { EXACT_AUTO_LIMIT } from "../stats/signedRank";
-import type { Alternative, SignTestMethod, SignedRankMethod, TieRule, ZeroRule } from "../stats/types";
+import type { AdjustMethod, Alternative, SignTestMethod, SignedRankMethod, TieRule, ZeroRule } from "../stats/types";
 import { EVENSPLIT_VERSION } from "./version";
 
-export type BlockTest = "sign" | "signed-rank" | "quantile";
+/** One sample or pairs: "sign", "signed-rank", "quantile"; independent groups: "two-groups" (two ranges), "groups" (values and labels). */
+export type BlockTest = "sign" | "signed-rank" | "quantile" | "two-groups" | "groups";
+
+/** How two groups are compared: the Wilcoxon–Mann–Whitney rank-sum test or Mood's median test (TWOGROUPS). */
+export type TwoGroupMethod = "rank-sum" | "median";
+
+/** How several groups are compared: Mood's median test or Kruskal–Wallis (GROUPS). */
+export type ManyGroupMethod = "median" | "rank";
 
 /** What the block is about; everything the wording and the formulas need. */
 export interface BlockRequest {
   readonly test: BlockTest;
-  /** True: `data` is the first range, `second` the second, and `center` the shift of second − first. */
+  /**
+   * True: `data` is the first range, `second` the second, and `center` the shift of second − first.
+   * Groups are never paired: for "two-groups" `data` and `second` are the two groups and `center` the shift
+   * second − first under test; for "groups" `data` holds the values and `second` their group labels.
+   */
   readonly paired: boolean;
-  /** Hypothesised median, shift (paired) or, for the quantile test, the hypothesised value of the quantile. */
+  /**
+   * Hypothesised median, shift (paired, two groups) or, for the quantile test, the hypothesised value of the
+   * quantile. Several groups: the target median each group is tested against in the by-group table, when
+   * `withTarget` is true.
+   */
   readonly center: number;
+  /** Several groups only: the by-group table tests each group against `center`; false or absent: no target, no tests. */
+  readonly withTarget?: boolean;
   /** Quantile test only: which quantile, strictly between 0 and 1. */
   readonly quantile?: number;
   readonly alternative: Alternative;
   readonly alpha: number;
   readonly confidence: number;
   readonly ties?: TieRule;
-  readonly method?: SignTestMethod | SignedRankMethod;
+  readonly method?: SignTestMethod | SignedRankMethod | TwoGroupMethod | ManyGroupMethod;
   readonly zeros?: ZeroRule;
+  /** Several groups: how the by-group table adjusts its p-values across the groups (ADJUST's methods). */
+  readonly adjust?: AdjustMethod;
   /** Names used in the wording (column headers); plain text, never markup. */
   readonly dataName?: string;
   readonly secondName?: string;
@@ -81,7 +101,12 @@ export const PASTED_COLUMNS = { n: 1, below: 2, tied: 3, above: 4, lower: 5, upp
  * row, as `INDEX(range,1,cell)`), or a literal.
  */
 export type Operand =
-  { readonly ref: "data"; readonly cell?: number } | { readonly ref: "second" } | { readonly number: number } | { readonly text: string };
+  | { readonly ref: "data"; readonly cell?: number }
+  | { readonly ref: "second" }
+  | { readonly number: number }
+  | { readonly text: string }
+  /** An optional argument left out: nothing between its commas. */
+  | { readonly omitted: true };
 
 export interface CallValue {
   readonly kind: "call";
@@ -95,14 +120,16 @@ export interface CallValue {
 export type BlockValue =
   | { readonly kind: "text"; readonly text: string }
   | CallValue
-  /** Number of numeric cells in the data range. */
-  | { readonly kind: "numbers"; readonly of: "data" }
+  /** Number of numeric cells in a range. */
+  | { readonly kind: "numbers"; readonly of: "data" | "second" }
+  /** The sheet's own MEDIAN of a range's numbers (text, logical and blank cells ignored). */
+  | { readonly kind: "median"; readonly of: "data" | "second" }
   /**
    * Filled cells of the data range that are not numbers (text, logical).
    * Blank cells are not counted, so an open-ended reference such as
    * B2:B1048576 reports what it skipped, not the million empty rows below the data.
    */
-  | { readonly kind: "skipped"; readonly of: "data" }
+  | { readonly kind: "skipped"; readonly of: "data" | "second" }
   /** The sum of several catalogue values (e.g. ties + used = pairs compared). */
   | { readonly kind: "sum"; readonly terms: readonly CallValue[] }
   | BlankCheckValue
@@ -161,6 +188,18 @@ export interface BlockRow {
   readonly value: BlockValue;
   readonly format: BlockFormat;
   readonly style: "title" | "plain" | "caution";
+  /**
+   * A table the value spills (a catalogue call answering with a header row and a row per group): its formula
+   * goes into the label column of its own row and spills right and down, each column under its own format.
+   * The label is not written; the row above names the table.
+   */
+  readonly spill?: SpillShape;
+}
+
+/** The columns of a spilled table and the number format of each. */
+export interface SpillShape {
+  readonly columns: number;
+  readonly formats: readonly BlockFormat[];
 }
 
 /**
@@ -552,6 +591,234 @@ function cautionRows(request: BlockRequest): BlockRow[] {
   ];
 }
 
+// ---------------------------------------------------------------------------
+// Independent groups: two groups from two ranges, several groups from values and labels
+
+const TWO_GROUP_TITLES: Readonly<Record<TwoGroupMethod, string>> = {
+  "rank-sum": "Two groups, Wilcoxon–Mann–Whitney rank-sum test",
+  median: "Two groups, Mood's median test",
+};
+
+const MANY_GROUP_TITLES: Readonly<Record<ManyGroupMethod, string>> = {
+  median: "Several groups, Mood's median test",
+  rank: "Several groups, Kruskal–Wallis test",
+};
+
+/** The columns of BYGROUP's table (src/functions/functions.ts) and the format of each. */
+export const BY_GROUP_SPILL: SpillShape = {
+  columns: 8,
+  formats: ["text", "integer", "number", "number", "number", "percent", "pvalue", "pvalue"],
+};
+
+const REVIEW_WORDS =
+  "For clinical, safety or regulatory decisions, have the analysis reviewed by a qualified person and follow the rules that apply to you.";
+
+function reviewRow(): BlockRow {
+  return row("review", "Before acting on it", text(REVIEW_WORDS), "text", "caution");
+}
+
+function groupNames(request: BlockRequest): { first: string; second: string } {
+  return { first: request.dataName ?? "the first group", second: request.secondName ?? "the second group" };
+}
+
+/** "Line B" against "Line A" shifted by the hypothesised amount, in words. */
+function shiftedWords(request: BlockRequest): string {
+  const { first } = groupNames(request);
+  if (request.center === 0) return first;
+  return `${first} ${request.center > 0 ? "+" : "−"} ${numberWords(Math.abs(request.center))}`;
+}
+
+/** The hypotheses of a two-group block: about whole distributions (rank-sum) or about the two medians (median test). */
+function twoGroupHypotheses(request: BlockRequest, method: TwoGroupMethod): { question: string; h0: string; h1: string; keep: string } {
+  const { first, second } = groupNames(request);
+  const against = shiftedWords(request);
+  const shiftWords = numberWords(request.center);
+  if (method === "median") {
+    const difference = `median of ${second} − median of ${first}`;
+    return {
+      question: `Is the ${difference} ${CLAIM[request.alternative]} ${shiftWords}?`,
+      h0: `${difference} = ${shiftWords}`,
+      h1: `${difference} ${RELATION[request.alternative]} ${shiftWords}`,
+      keep: `the ${difference} is ${CLAIM[request.alternative]} ${shiftWords}`,
+    };
+  }
+  const tends: Readonly<Record<Alternative, string>> = {
+    greater: `${second} tends to lie above ${against}`,
+    less: `${second} tends to lie below ${against}`,
+    "two-sided": `${second} tends to lie above or below ${against}`,
+  };
+  return {
+    question: `Does ${tends[request.alternative]}?`,
+    h0: `${second} and ${against} have the same distribution`,
+    h1: tends[request.alternative],
+    keep: tends[request.alternative],
+  };
+}
+
+function twoGroupMethodWords(method: TwoGroupMethod): string {
+  if (method === "median")
+    return "Mood's median test: each group's values above / not above the pooled median (values equal to it count as not above), Fisher's exact test on that 2×2 table";
+  return `Wilcoxon–Mann–Whitney rank-sum test: exact (conditional on tied mid-ranks) while the two groups hold at most ${EXACT_AUTO_SIZE} numbers together without ties, or ${EXACT_AUTO_TIED_SIZE} with ties; beyond that the normal approximation with tie and continuity corrections`;
+}
+
+function twoGroupRows(request: BlockRequest): BlockRow[] {
+  const method = (request.method as TwoGroupMethod | undefined) ?? "rank-sum";
+  const { first, second: secondName } = groupNames(request);
+  const words = twoGroupHypotheses(request, method);
+  const pValue = call("TWOGROUPS", [data(), second(), num(request.center), word(request.alternative), word(method)]);
+  const shift = (column: number): CallValue => call("SHIFT", [data(), second(), num(request.confidence)], column);
+  const level = percentWords(request.confidence);
+  const sameShape =
+    method === "rank-sum"
+      ? "The rank-sum test compares the two whole distributions; it speaks of a shift of the medians only when the two groups have the same shape, one a shifted copy of the other. The shift and its bounds read the same way."
+      : "The median test compares the two medians without assuming a shape; the shift and its bounds below read as a shift of medians only when the two groups have the same shape.";
+  const looking = request.followsNewRows === true ? [lookingAgainRow(request)] : [];
+  return [
+    row("title", "Evensplit result", text(TWO_GROUP_TITLES[method]), "text", "title"),
+    row("question", "Question", text(words.question), "text"),
+    row("h0", "H0", text(words.h0), "text"),
+    row("h1", "H1", text(words.h1), "text"),
+    row("firstNumbers", `Numbers in ${first} (n)`, { kind: "numbers", of: "data" }, "integer"),
+    row("secondNumbers", `Numbers in ${secondName} (n)`, { kind: "numbers", of: "second" }, "integer"),
+    row("firstSkipped", `Cells skipped in ${first} (text or logical; blanks not counted)`, { kind: "skipped", of: "data" }, "integer"),
+    row(
+      "secondSkipped",
+      `Cells skipped in ${secondName} (text or logical; blanks not counted)`,
+      { kind: "skipped", of: "second" },
+      "integer",
+    ),
+    blankCheckRow(["data", "second"]),
+    row("firstMedian", `Median of ${first}`, { kind: "median", of: "data" }, "number"),
+    row("secondMedian", `Median of ${secondName}`, { kind: "median", of: "second" }, "number"),
+    row("pvalue", "p-value", pValue, "pvalue"),
+    row("method", "Method", text(twoGroupMethodWords(method)), "text"),
+    row(
+      "decision",
+      `Decision at alpha = ${numberWords(request.alpha)}`,
+      {
+        kind: "decision",
+        pValue,
+        alpha: request.alpha,
+        reject: `Reject H0: evidence that ${words.keep}`,
+        keep: `Do not reject H0: these data do not show that ${words.keep}`,
+      },
+      "text",
+    ),
+    row("estimate", `Shift estimate, ${secondName} − ${first} (Hodges–Lehmann: median of all differences)`, shift(1), "number"),
+    row("lower", `${level} bounds for the shift: lower`, shift(2), "number"),
+    row("upper", `${level} bounds for the shift: upper`, shift(3), "number"),
+    row("coverage", "Exact coverage of these bounds (for groups of the same shape)", shift(4), "percent"),
+    row(
+      "assumptions",
+      "Assumptions",
+      text(`Assumes independent observations, within each group and between the groups. ${sameShape}`),
+      "text",
+      "caution",
+    ),
+    ...looking,
+    row(
+      "reading",
+      "Reading the result",
+      text(`A p-value above alpha does not show that ${words.h0}; it only means these data do not rule it out.`),
+      "text",
+      "caution",
+    ),
+    reviewRow(),
+    row("audit", "Audit", { kind: "audit", version: EVENSPLIT_VERSION, method: auditMethod(request) }, "text"),
+  ];
+}
+
+/** The words of the by-group table's heading row: what each row gives. */
+function byGroupWords(request: BlockRequest): string {
+  const level = percentWords(request.confidence);
+  const side = boundSideFor(request.alternative);
+  const bounds = side === "two-sided" ? `${level} bounds for its median` : `a ${level} ${side} bound for its median (one-sided)`;
+  const tests = request.withTarget
+    ? `, the sign-test p-value against ${numberWords(request.center)} (${CLAIM[request.alternative]}) and that p-value adjusted across the groups (${request.adjust ?? "holm"})`
+    : "; no target median was given, so no p-values";
+  return `One row per group, in order of first appearance: its count, its median, ${bounds} with their exact coverage${tests}.`;
+}
+
+function manyGroupRows(request: BlockRequest): BlockRow[] {
+  const method = (request.method as ManyGroupMethod | undefined) ?? "median";
+  const values = request.dataName ?? "the values";
+  const labels = request.secondName ?? "the group column";
+  const pValue = call("GROUPS", [data(), second(), word(method)]);
+  const alternative = request.withTarget ? request.alternative : "two-sided";
+  const table = call("BYGROUP", [
+    data(),
+    second(),
+    ...(request.withTarget ? [num(request.center)] : [{ omitted: true } as const]),
+    word(alternative),
+    num(request.confidence),
+    word(request.adjust ?? "holm"),
+  ]);
+  const h0 =
+    method === "median"
+      ? `every group of ${labels} has the same median of ${values}`
+      : `every group of ${labels} gives ${values} from one distribution`;
+  const h1 =
+    method === "median"
+      ? `at least one group's median of ${values} differs from another's`
+      : `at least one group's ${values} tend to lie above or below another's`;
+  const methodWords =
+    method === "median"
+      ? "Mood's median test: each group's values above / not above the pooled median (values equal to it count as not above); chi-square p-value, or a seeded simulation when some expected count is below 5 (Fisher's exact test for two groups)"
+      : "Kruskal–Wallis test on the ranks of all values, tie-corrected, chi-square approximation";
+  const shape =
+    method === "median"
+      ? "The median test compares medians without assuming a shape."
+      : "The rank test compares whole distributions; it speaks of medians only when the groups have the same shape.";
+  const multiple = request.withTarget
+    ? " Each group's own p-value is for that group alone; when several groups are looked at together, read the adjusted p-values."
+    : "";
+  const looking = request.followsNewRows === true ? [lookingAgainRow(request)] : [];
+  return [
+    row("title", "Evensplit result", text(MANY_GROUP_TITLES[method]), "text", "title"),
+    row("question", "Question", text(`Do the typical values of ${values} differ between the groups of ${labels}?`), "text"),
+    row("h0", "H0", text(h0), "text"),
+    row("h1", "H1", text(h1), "text"),
+    row("numbers", "Numbers in range (n total)", { kind: "numbers", of: "data" }, "integer"),
+    row("skipped", "Cells skipped (text or logical; blanks not counted)", { kind: "skipped", of: "data" }, "integer"),
+    blankCheckRow(["data"]),
+    row("pvalue", "p-value", pValue, "pvalue"),
+    row("method", "Method", text(methodWords), "text"),
+    row(
+      "decision",
+      `Decision at alpha = ${numberWords(request.alpha)}`,
+      {
+        kind: "decision",
+        pValue,
+        alpha: request.alpha,
+        reject: `Reject H0: evidence that ${h1}`,
+        keep: `Do not reject H0: these data do not show that ${h1}`,
+      },
+      "text",
+    ),
+    row(
+      "assumptions",
+      "Assumptions",
+      text(
+        `Assumes independent observations, within each group and between the groups; rows with a blank group label are skipped and counted in the table. ${shape}${multiple}`,
+      ),
+      "text",
+      "caution",
+    ),
+    ...looking,
+    row(
+      "reading",
+      "Reading the result",
+      text(`A p-value above alpha does not show that ${h0}; it only means these data do not rule it out.`),
+      "text",
+      "caution",
+    ),
+    reviewRow(),
+    row("audit", "Audit", { kind: "audit", version: EVENSPLIT_VERSION, method: auditMethod(request) }, "text"),
+    row("byGroupTitle", "By group", text(byGroupWords(request)), "text", "title"),
+    { key: "byGroup", label: "By group (table)", value: table, format: "text", style: "plain", spill: BY_GROUP_SPILL },
+  ];
+}
+
 /**
  * The rows of the result block for a request, top to bottom.
  *
@@ -562,6 +829,8 @@ function cautionRows(request: BlockRequest): BlockRow[] {
 export function resultBlockRows(request: BlockRequest): BlockRow[] {
   checkRequest(request);
   if (request.database !== undefined) return databaseRows(request, request.database);
+  if (request.test === "two-groups") return twoGroupRows(request);
+  if (request.test === "groups") return manyGroupRows(request);
   const centerWords = numberWords(request.center);
   const about = subject(request);
   const parts =
@@ -699,6 +968,15 @@ function databaseRows(request: BlockRequest, source: DatabaseSource): BlockRow[]
 /** The method and every option that changes the numbers, for the audit line. */
 function auditMethod(request: BlockRequest): string {
   const common = `${request.alternative}, alpha ${numberWords(request.alpha)}, confidence ${numberWords(request.confidence)}; hypothesised ${numberWords(request.center)}`;
+  if (request.test === "two-groups") {
+    const method = (request.method as TwoGroupMethod | undefined) ?? "rank-sum";
+    return `two groups, ${method === "median" ? "Mood's median test" : "rank-sum test"} (shift ${numberWords(request.center)}; ${request.alternative}, alpha ${numberWords(request.alpha)}, confidence ${numberWords(request.confidence)})`;
+  }
+  if (request.test === "groups") {
+    const method = (request.method as ManyGroupMethod | undefined) ?? "median";
+    const target = request.withTarget ? `target median ${numberWords(request.center)}, ${request.alternative}` : "no target median";
+    return `several groups, ${method === "median" ? "Mood's median test" : "Kruskal–Wallis test"} (${target}; adjustment ${request.adjust ?? "holm"}; alpha ${numberWords(request.alpha)}, confidence ${numberWords(request.confidence)})`;
+  }
   const kind = request.paired ? "paired" : "one sample";
   if (request.database !== undefined) {
     const { table, column, group, queryHash } = request.database;
@@ -750,6 +1028,7 @@ function formulaOperand(operand: Operand, refs: { data: string; second?: string 
     if (refs.second === undefined) throw new RangeError("this block needs a second range");
     return refs.second;
   }
+  if ("omitted" in operand) return "";
   return "number" in operand ? formulaNumber(operand.number) : formulaString(operand.text);
 }
 
@@ -783,9 +1062,13 @@ export function blockFormula(value: BlockValue, refs: FormulaRefs): string {
     case "call":
       return `=${formulaCall(value, refs)}`;
     case "numbers":
-      return `=COUNT(${refs.data})`;
-    case "skipped":
-      return `=COUNTA(${refs.data})-COUNT(${refs.data})`;
+      return `=COUNT(${formulaOperand({ ref: value.of }, refs)})`;
+    case "median":
+      return `=MEDIAN(${formulaOperand({ ref: value.of }, refs)})`;
+    case "skipped": {
+      const range = formulaOperand({ ref: value.of }, refs);
+      return `=COUNTA(${range})-COUNT(${range})`;
+    }
     case "sum":
       return `=${value.terms.map((term) => formulaCall(term, refs)).join("+")}`;
     case "decision":
@@ -844,6 +1127,20 @@ function countCells(matrix: readonly (readonly unknown[])[], counts: (cell: unkn
   let count = 0;
   for (const r of matrix) for (const cell of r) if (counts(cell)) count++;
   return count;
+}
+
+/**
+ * What the sheet's MEDIAN gives for a range: the middle of its numbers (the mean of the two middle ones for an
+ * even count), text, logical values and blanks in the range ignored, #NUM! when it holds no number (Microsoft,
+ * "MEDIAN function"), here as a cell error object of the catalogue's shape.
+ */
+function sheetMedian(cells: readonly (readonly unknown[])[]): unknown {
+  const numbers: number[] = [];
+  for (const r of cells) for (const cell of r) if (isNumberCell(cell)) numbers.push(cell as number);
+  if (numbers.length === 0) return { code: "#NUM!", message: "MEDIAN found no number in the range." };
+  numbers.sort((a, b) => a - b);
+  const middle = numbers.length >> 1;
+  return numbers.length % 2 === 1 ? numbers[middle] : (numbers[middle - 1] + numbers[middle]) / 2;
 }
 
 function rangeOf(range: "data" | "second", inputs: BlockInputs): readonly (readonly unknown[])[] {
@@ -926,9 +1223,11 @@ function evaluateCall(value: CallValue, inputs: BlockInputs, run: CatalogueCall)
       ? operand.ref === "data" && operand.cell !== undefined
         ? pastedValue(inputs, operand.cell)
         : rangeOf(operand.ref, inputs)
-      : "number" in operand
-        ? operand.number
-        : operand.text,
+      : "omitted" in operand
+        ? null
+        : "number" in operand
+          ? operand.number
+          : operand.text,
   );
   const result = run(value.fn, args);
   if (value.column === undefined || !Array.isArray(result)) return result;
@@ -947,9 +1246,11 @@ export function blockValue(value: BlockValue, inputs: BlockInputs, run: Catalogu
     case "call":
       return evaluateCall(value, inputs, run);
     case "numbers":
-      return countCells(inputs.data, isNumberCell);
+      return countCells(rangeOf(value.of, inputs), isNumberCell);
+    case "median":
+      return sheetMedian(rangeOf(value.of, inputs));
     case "skipped":
-      return countCells(inputs.data, isFilledCell) - countCells(inputs.data, isNumberCell);
+      return countCells(rangeOf(value.of, inputs), isFilledCell) - countCells(rangeOf(value.of, inputs), isNumberCell);
     case "sum": {
       let total = 0;
       for (const term of value.terms) {

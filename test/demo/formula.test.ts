@@ -174,6 +174,15 @@ describe("evaluate: built-in functions", () => {
     expect(calc("COUNT(T[Value])")).toBe(3);
   });
 
+  it('MEDIAN ignores blank and text cells of a range; no number is #NUM! (Microsoft, "MEDIAN function")', () => {
+    // A1:A5 holds 1, 2, blank, 4, "note": the middle of 1, 2, 4.
+    expect(calc("MEDIAN(A1:A5)")).toBe(2);
+    // With B1's 10 added, an even count: the mean of the two middle numbers, (2 + 4) / 2.
+    expect(calc("MEDIAN(A1:A5,B1)")).toBe(3);
+    const none = calc("MEDIAN(A5)");
+    expect(isError(none) && none.code).toBe("#NUM!");
+  });
+
   it("IF chooses, and passes an error condition through", () => {
     expect(calc('IF(A1<=0.05,"reject","keep")')).toBe("keep");
     expect(calc('IF(A1>=1,"yes","no")')).toBe("yes");

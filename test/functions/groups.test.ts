@@ -94,6 +94,15 @@ describe("BYGROUP", () => {
     expect(failed[0].every((c) => isCellError(c) && c.code === "#VALUE!")).toBe(true);
   });
 
+  it("without a hypothesised median gives the counts, medians and bounds, and leaves both p-value columns empty", () => {
+    const values = col([48, 49, 50.5, 47, 49.5, 46, 51, 52, 53, 54, 55, 56]);
+    const labels = col(["B", "B", "B", "B", "B", "B", "A", "A", "A", "a", "A", "A"]);
+    const table = bygroup(values, labels, null, null, 0.9);
+    // The same numbers as with a target (the first test above), the p-values left out.
+    expect(table[1]).toEqual(["B", 6, 48.5, 46, 50.5, 0.96875, "", ""]);
+    expect(table[2]).toEqual(["A", 6, 53.5, 51, 56, 0.96875, "", ""]);
+  });
+
   it("is in the catalogue under its id, as are the other three", () => {
     expect(callFunction("BYGROUP", [col([51]), col(["A"]), 50])).toBeInstanceOf(Array);
     for (const id of ["TWOGROUPS", "SHIFT", "GROUPS"]) expect(() => callFunction(id, [col([1]), col([2])])).not.toThrow();

@@ -2,7 +2,7 @@
  * Evaluates an expression tree for one cell of the demo sheet: references,
  * array constants, the few built-in functions the result block and the
  * installation check use (INDEX, ROWS, COLUMNS, COUNT, COUNTA, IF, ABS,
- * IFERROR, COUNTIF), arithmetic, comparison, concatenation, and the
+ * IFERROR, COUNTIF, MEDIAN), arithmetic, comparison, concatenation, and the
  * EVENSPLIT.* functions taken from the real cell-function bundle.
  *
  * Method: a direct tree walk. Values follow the spreadsheet's coercions
@@ -205,6 +205,25 @@ function count(args: Value[], context: EvaluationContext, counts: (cell: Scalar)
   return total;
 }
 
+/**
+ * MEDIAN over ranges and values as Microsoft's "MEDIAN function" page describes it: text, logical values and
+ * empty cells inside a range are ignored, an error met is the answer, and with no number at all the answer is
+ * #NUM!; an even count gives the mean of the two middle numbers.
+ */
+function median(args: Value[], context: EvaluationContext): Value {
+  const numbers: number[] = [];
+  for (const arg of args) {
+    const cells = cellsOf(arg, context);
+    const error = firstError(cells);
+    if (error) return error;
+    for (const row of cells) for (const cell of row) if (typeof cell === "number") numbers.push(cell);
+  }
+  if (numbers.length === 0) return errorValue("#NUM!", "MEDIAN found no number.");
+  numbers.sort((a, b) => a - b);
+  const middle = numbers.length >> 1;
+  return numbers.length % 2 === 1 ? numbers[middle] : (numbers[middle - 1] + numbers[middle]) / 2;
+}
+
 function truth(value: Scalar): boolean | ErrorValue {
   if (isError(value)) return value;
   if (typeof value === "boolean") return value;
@@ -262,6 +281,8 @@ function builtIn(name: string, args: Value[], context: EvaluationContext): Value
       return count(args, context, (cell) => typeof cell === "number");
     case "COUNTA":
       return count(args, context, (cell) => cell !== null);
+    case "MEDIAN":
+      return median(args, context);
     case "IF": {
       if (args.length < 2 || args.length > 3) return errorValue("#VALUE!", "IF takes a condition and one or two results.");
       const condition = truth(single(args[0], context));
