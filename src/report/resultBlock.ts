@@ -70,8 +70,9 @@ export interface BlockRequest {
   /** True when the block's references take in rows added later (a table column or an open-ended range). */
   readonly followsNewRows?: boolean;
   /**
-   * True when the result will be looked at again as rows arrive. A one-sample sign-test block then uses the
-   * watching versions (WATCHPVALUE, WATCHBOUNDS); other blocks are unchanged.
+   * True when the result will be looked at again as rows arrive. A sign-test block then uses the watching
+   * versions (WATCHPVALUE and WATCHBOUNDS; PAIREDWATCHPVALUE and PAIREDWATCHBOUNDS for pairs); other blocks
+   * are unchanged.
    */
   readonly watching?: boolean;
   /**
@@ -375,9 +376,9 @@ function row(key: string, label: string, value: BlockValue, format: BlockFormat,
   return { key, label, value, format, style };
 }
 
-/** Only the one-sample sign test has watching versions (WATCHPVALUE, WATCHBOUNDS). */
+/** Only the sign test has watching versions (WATCHPVALUE, WATCHBOUNDS; for pairs PAIREDWATCHPVALUE, PAIREDWATCHBOUNDS). */
 function canWatch(request: BlockRequest): boolean {
-  return request.test === "sign" && !request.paired;
+  return request.test === "sign";
 }
 
 /** The block uses the watching versions in place of the fixed-sample test. */
@@ -390,34 +391,43 @@ function showsWatchingBeside(request: BlockRequest): boolean {
   return canWatch(request) && request.followsNewRows === true && request.watching !== true;
 }
 
-/** The watching p-value of a one-sample sign block: valid however often it is looked at as rows arrive. */
+/** The watching p-value of a sign block: valid however often it is looked at as rows arrive. */
 function watchingPValue(request: BlockRequest): CallValue {
-  return call("WATCHPVALUE", [data(), num(request.center), word(request.alternative), word(request.ties ?? "drop")]);
+  const options = [num(request.center), word(request.alternative), word(request.ties ?? "drop")];
+  return request.paired ? call("PAIREDWATCHPVALUE", [data(), second(), ...options]) : call("WATCHPVALUE", [data(), ...options]);
 }
 
-const WATCHING_METHOD_WORDS = "these hold however often the result is looked at as rows arrive (rows read in sheet order; one sample only)";
+/** What the watching versions promise, and the order they read the rows (or the pairs) in. */
+function watchingMethodWords(request: BlockRequest): string {
+  const order = request.paired ? "pairs read in sheet order" : "rows read in sheet order";
+  return `these hold however often the result is looked at as rows arrive (${order})`;
+}
 
 /**
- * The watching version of a one-sample sign block: the p-value and bounds that may be looked at after every
- * new row (Howard, Ramdas, McAuliffe and Sekhon 2021, via WATCHPVALUE and WATCHBOUNDS). The bounds are
- * two-sided whatever the alternative: WATCHBOUNDS gives both ends.
+ * The watching version of a sign block: the p-value and bounds that may be looked at after every new row
+ * (Howard, Ramdas, McAuliffe and Sekhon 2021, via WATCHPVALUE and WATCHBOUNDS, or their paired versions on
+ * second − first). The bounds are two-sided whatever the alternative: WATCHBOUNDS gives both ends; for pairs
+ * they bound the median of second − first, as PAIREDBOUNDS does in the fixed-sample block.
  */
 function watchingSignRows(
   request: BlockRequest,
   statistic: BlockRow,
 ): { statistic: BlockRow; pValue: CallValue; method: BlockValue; bounds: BlockRow[] } {
   const ties = request.ties ?? "drop";
-  const bound = (column: number): CallValue => call("WATCHBOUNDS", [data(), num(request.confidence)], column);
-  const level = percentWords(request.confidence);
-  const label = (end: "lower" | "upper"): string => `${level} bounds for the median, at every row count at once: ${end}`;
+  const level = num(request.confidence);
+  const bound = (column: number): CallValue =>
+    request.paired ? call("PAIREDWATCHBOUNDS", [data(), second(), level], column) : call("WATCHBOUNDS", [data(), level], column);
+  const what = request.paired ? "median difference" : "median";
+  const label = (end: "lower" | "upper"): string =>
+    `${percentWords(request.confidence)} bounds for the ${what}, at every ${request.paired ? "pair" : "row"} count at once: ${end}`;
   return {
     statistic,
     pValue: watchingPValue(request),
-    method: text(`Sign test, watching p-value and bounds: ${WATCHING_METHOD_WORDS}; ${TIE_WORDS[ties]}`),
+    method: text(`Sign test, watching p-value and bounds: ${watchingMethodWords(request)}; ${TIE_WORDS[ties]}`),
     bounds: [
       row("lower", label("lower"), bound(1), "number"),
       row("upper", label("upper"), bound(2), "number"),
-      row("rowsRead", "Rows read by these bounds", bound(3), "integer"),
+      row("rowsRead", request.paired ? "Pairs read by these bounds" : "Rows read by these bounds", bound(3), "integer"),
     ],
   };
 }
@@ -549,7 +559,7 @@ function boundRows(
 function lookingAgainRow(request: BlockRequest): BlockRow {
   const remedy = canWatch(request)
     ? "the watching p-value may be checked at every new row."
-    : "for a result to check at every new row, use the one-sample sign test's watching p-value (WATCHPVALUE).";
+    : "for a result to check at every new row, use the sign test's watching p-value (WATCHPVALUE, or PAIREDWATCHPVALUE for pairs).";
   return row(
     "lookingAgain",
     "Looking again as rows arrive",

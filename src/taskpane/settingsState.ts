@@ -32,13 +32,13 @@ export function setWatching(state: PaneState, watching: boolean): PaneState {
 
 /**
  * Whether the Settings step asks about looking again as rows arrive: only when the block follows new rows
- * and has watching versions (the one-sample sign test).
+ * and has watching versions (the sign test, one sample or pairs).
  *
  * @example
  * asksWatching({ ...initialState(), reference: "table" }); // true
  */
 export function asksWatching(state: PaneState): boolean {
-  return blockFollowsNewRows(state) && !state.paired && effectiveTest(state) === "sign";
+  return blockFollowsNewRows(state) && effectiveTest(state) === "sign";
 }
 
 /**

@@ -29,12 +29,31 @@ const ONE_SAMPLE: BlockRequest[] = [
   { ...BASE, test: "sign", paired: false, center: 50, alternative: "less", ties: "conservative", method: "normal" },
   { ...BASE, test: "signed-rank", paired: false, center: 50, alternative: "greater", method: "auto", zeros: "pratt" },
   { ...BASE, test: "quantile", paired: false, center: 53, quantile: 0.9, alternative: "two-sided", confidence: 0.9 },
+  { ...BASE, test: "sign", paired: false, center: 50, alternative: "greater", followsNewRows: true, watching: true },
+  { ...BASE, test: "sign", paired: false, center: 50, alternative: "two-sided", ties: "split", followsNewRows: true, watching: false },
 ];
 
 const PAIRED: BlockRequest[] = [
   { ...BASE, test: "sign", paired: true, center: 0, alternative: "two-sided", secondName: "After nozzle change (µm)" },
   { ...BASE, test: "signed-rank", paired: true, center: -1, alternative: "less", method: "exact" },
+  { ...BASE, test: "sign", paired: true, center: 0, alternative: "greater", followsNewRows: true, watching: true },
+  {
+    ...BASE,
+    test: "sign",
+    paired: true,
+    center: 0.5,
+    alternative: "two-sided",
+    ties: "conservative",
+    followsNewRows: true,
+    watching: false,
+  },
 ];
+
+/** A request in a test's name: the test, the alternative, and whether it is watched or follows new rows. */
+function named(r: BlockRequest): string {
+  const looking = r.watching === true ? ", watched" : r.followsNewRows === true ? ", follows new rows" : "";
+  return `${r.test} ${r.alternative}${looking}`;
+}
 
 /** The body cells as Range.values gives them (blank as ""). */
 function column(c: number): unknown[][] {
@@ -79,7 +98,7 @@ function expectSame(sheet: unknown, direct: unknown, label: string): void {
 }
 
 describe("the block's formulas in the demo sheet agree with REPORT's direct evaluation", () => {
-  it.each(ONE_SAMPLE.map((r) => [`${r.test} ${r.alternative}`, r] as const))("one sample, exact cells: %s", (_, request) => {
+  it.each(ONE_SAMPLE.map((r) => [named(r), r] as const))("one sample, exact cells: %s", (_, request) => {
     const workbook = sheetWithData();
     const values = sheetValues(workbook, request, { data: "$B$2:$B$25" });
     resultBlockRows(request).forEach((row, i) =>
@@ -87,7 +106,7 @@ describe("the block's formulas in the demo sheet agree with REPORT's direct eval
     );
   });
 
-  it.each(ONE_SAMPLE.map((r) => [`${r.test} ${r.alternative}`, r] as const))("one sample, table column: %s", (_, request) => {
+  it.each(ONE_SAMPLE.map((r) => [named(r), r] as const))("one sample, table column: %s", (_, request) => {
     const workbook = sheetWithData();
     workbook.addTable(DEMO_SHEET, { top: 0, left: 0, bottom: 24, right: 2 });
     const values = sheetValues(workbook, request, { data: "Table1[Thickness (µm)]" });
@@ -96,7 +115,7 @@ describe("the block's formulas in the demo sheet agree with REPORT's direct eval
     );
   });
 
-  it.each(PAIRED.map((r) => [`${r.test} ${r.alternative}`, r] as const))("pairs, exact cells and table columns: %s", (_, request) => {
+  it.each(PAIRED.map((r) => [named(r), r] as const))("pairs, exact cells and table columns: %s", (_, request) => {
     const direct = resultBlockRows(request).map((row) => blockValue(row.value, { data: column(1), second: column(2) }, callFunction));
     const exact = sheetValues(sheetWithData(), request, { data: "$B$2:$B$25", second: "$C$2:$C$25" });
     const inTable = sheetWithData();
@@ -108,7 +127,7 @@ describe("the block's formulas in the demo sheet agree with REPORT's direct eval
     });
   });
 
-  it.each([...ONE_SAMPLE, ...PAIRED].map((r) => [`${r.paired ? "pairs" : "one sample"} ${r.test} ${r.alternative}`, r] as const))(
+  it.each([...ONE_SAMPLE, ...PAIRED].map((r) => [`${r.paired ? "pairs" : "one sample"} ${named(r)}`, r] as const))(
     "open-ended reference to the end of the sheet gives the same block as the exact cells: %s",
     (_, request) => {
       // The million blank rows below the data must change nothing: blanks are neither skipped cells nor pairs.

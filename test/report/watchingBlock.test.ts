@@ -1,6 +1,7 @@
 /**
- * The block of a one-sample sign test whose result is looked at again as rows arrive. With the request's
- * `watching` flag the p-value and bounds rows use WATCHPVALUE and WATCHBOUNDS and the method row says they
+ * The block of a sign test whose result is looked at again as rows arrive. With the request's `watching`
+ * flag the p-value and bounds rows use WATCHPVALUE and WATCHBOUNDS (for pairs PAIREDWATCHPVALUE and
+ * PAIREDWATCHBOUNDS) and the method row says they
  * hold however often the result is looked at; a block that follows new rows (a table column or an
  * open-ended range) but keeps the fixed-sample test shows the watching p-value beside it and a caution
  * against stopping the first time p drops below alpha (common practice: repeated looks at a fixed-sample
@@ -10,7 +11,7 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import type { CustomFunction } from "../../src/demo/formula/evaluate";
 import { Workbook } from "../../src/demo/workbook";
-import { callFunction, watchbounds, watchpvalue } from "../../src/functions/functions";
+import { callFunction, pairedwatchbounds, pairedwatchpvalue, watchbounds, watchpvalue } from "../../src/functions/functions";
 import { blockFormula, blockValue, resultBlockRows, type BlockRequest, type BlockRow } from "../../src/report/resultBlock";
 import { catalogueFunctions } from "../demo/catalogue";
 
@@ -32,6 +33,17 @@ const SIGN: BlockRequest = {
 };
 const WATCHING: BlockRequest = { ...SIGN, followsNewRows: true, watching: true };
 const FOLLOWING: BlockRequest = { ...SIGN, followsNewRows: true, watching: false };
+
+/** The same panels measured again after a nozzle change (invented): mostly thinner, one pair incomplete, one unreadable. */
+const BEFORE: unknown[] = THICKNESS.map((x) => x);
+const AFTER: unknown[] = THICKNESS.map((x, i) => Math.round((x - 0.6 + ((i * 5) % 7) / 5 - 0.4) * 10) / 10);
+BEFORE[6] = null;
+AFTER[11] = "re-measure";
+AFTER[17] = null;
+BEFORE[17] = null;
+const PAIRED: BlockRequest = { ...SIGN, paired: true, center: 0, alternative: "less", dataName: "Before", secondName: "After" };
+const PAIRED_WATCHING: BlockRequest = { ...PAIRED, followsNewRows: true, watching: true };
+const PAIRED_FOLLOWING: BlockRequest = { ...PAIRED, followsNewRows: true, watching: false };
 
 const keysOf = (request: BlockRequest): string[] => resultBlockRows(request).map((r) => r.key);
 const rowOf = (request: BlockRequest, key: string): BlockRow | undefined => resultBlockRows(request).find((r) => r.key === key);
@@ -59,7 +71,7 @@ describe("a watched one-sample sign block", () => {
 
   it("says in the method row that these hold however often the result is looked at as rows arrive", () => {
     expect(textOf(rowOf(WATCHING, "method"))).toMatch(/hold however often the result is looked at as rows arrive/);
-    expect(textOf(rowOf(WATCHING, "method"))).toMatch(/one sample only/);
+    expect(textOf(rowOf(WATCHING, "method"))).toMatch(/rows read in sheet order/);
     expect(rowOf(WATCHING, "audit")!.value).toMatchObject({ method: expect.stringMatching(/watching p-value and bounds/) });
   });
 
@@ -92,9 +104,60 @@ describe("a sign block that follows new rows but keeps the fixed-sample test", (
   });
 });
 
+describe("a watched paired sign block", () => {
+  const pairs = [{ ref: "data" }, { ref: "second" }];
+  it("takes its p-value from PAIREDWATCHPVALUE on both ranges with the shift, and decides on it", () => {
+    const p = { kind: "call", fn: "PAIREDWATCHPVALUE", args: [...pairs, { number: 0 }, { text: "less" }, { text: "drop" }] };
+    expect(rowOf(PAIRED_WATCHING, "pvalue")!.value).toEqual(p);
+    expect(rowOf(PAIRED_WATCHING, "decision")!.value).toMatchObject({ kind: "decision", pValue: p });
+  });
+
+  it("takes its bounds for the median difference from PAIREDWATCHBOUNDS and states the pairs they read", () => {
+    for (const [key, column] of [
+      ["lower", 1],
+      ["upper", 2],
+      ["rowsRead", 3],
+    ] as const) {
+      expect(rowOf(PAIRED_WATCHING, key)!.value).toEqual({
+        kind: "call",
+        fn: "PAIREDWATCHBOUNDS",
+        args: [...pairs, { number: 0.95 }],
+        column,
+      });
+    }
+    expect(rowOf(PAIRED_WATCHING, "lower")!.label).toBe("95% bounds for the median difference, at every pair count at once: lower");
+    expect(rowOf(PAIRED_WATCHING, "rowsRead")!.label).toBe("Pairs read by these bounds");
+    expect(keysOf(PAIRED_WATCHING)).not.toContain("coverage");
+  });
+
+  it("says so in the method row and the audit line, and carries no caution about stopping early", () => {
+    expect(textOf(rowOf(PAIRED_WATCHING, "method"))).toMatch(
+      /hold however often the result is looked at as rows arrive \(pairs read in sheet order\)/,
+    );
+    expect(rowOf(PAIRED_WATCHING, "audit")!.value).toMatchObject({ method: expect.stringMatching(/paired \(watching p-value and bounds/) });
+    expect(keysOf(PAIRED_WATCHING)).not.toContain("watchPvalue");
+    expect(keysOf(PAIRED_WATCHING)).not.toContain("lookingAgain");
+  });
+
+  it("keeps the pair rows of the fixed-sample paired block, with the watching rows in place of the bounds", () => {
+    expect(keysOf(PAIRED_WATCHING)).toEqual(keysOf(PAIRED).map((key) => (key === "coverage" ? "rowsRead" : key)));
+    expect(keysOf(PAIRED_WATCHING)).toContain("pairs");
+  });
+});
+
+describe("a paired sign block that follows new rows but keeps the fixed-sample test", () => {
+  it("keeps PAIRED and shows PAIREDWATCHPVALUE beside it, with the caution naming the watching p-value", () => {
+    const keys = keysOf(PAIRED_FOLLOWING);
+    expect(rowOf(PAIRED_FOLLOWING, "pvalue")!.value).toMatchObject({ fn: "PAIRED" });
+    expect(keys.indexOf("watchPvalue")).toBe(keys.indexOf("pvalue") + 1);
+    expect(rowOf(PAIRED_FOLLOWING, "watchPvalue")).toMatchObject({ label: "Watching p-value", value: { fn: "PAIREDWATCHPVALUE" } });
+    expect(textOf(rowOf(PAIRED_FOLLOWING, "lookingAgain"))).toMatch(/the watching p-value may be checked at every new row/);
+    expect(keys.filter((key) => !keysOf(PAIRED).includes(key))).toEqual(["watchPvalue", "lookingAgain"]);
+  });
+});
+
 describe("other tests keep their own p-value and bounds", () => {
   const others: BlockRequest[] = [
-    { ...SIGN, paired: true, center: 0, secondName: "After" },
     { ...SIGN, test: "signed-rank", method: "auto", zeros: "drop", ties: undefined },
     { ...SIGN, test: "quantile", quantile: 0.9, ties: undefined, method: undefined },
   ];
@@ -107,7 +170,7 @@ describe("other tests keep their own p-value and bounds", () => {
       expect(caution.style).toBe("caution");
       expect(caution.value).toMatchObject({
         kind: "text",
-        text: expect.stringContaining("use the one-sample sign test's watching p-value"),
+        text: expect.stringContaining("use the sign test's watching p-value (WATCHPVALUE, or PAIREDWATCHPVALUE for pairs)"),
       });
     }
     expect(resultBlockRows({ ...request, followsNewRows: false })).toEqual(resultBlockRows(request));
@@ -143,5 +206,40 @@ describe("the sheet's formulas and REPORT's direct evaluation agree", () => {
     expect(at(WATCHING, "rowsRead")).toBe(THICKNESS.length);
     // The watching p-value pays for every look it allows: here it is larger than the one-look p-value.
     expect(watched as number).toBeGreaterThan(at(FOLLOWING, "pvalue") as number);
+  });
+});
+
+describe("the sheet's formulas and REPORT's direct evaluation agree for pairs, blanks and text skipped as pairs", () => {
+  const first = BEFORE.map((x) => [x]);
+  const second = AFTER.map((x) => [x]);
+  it.each([PAIRED_WATCHING, PAIRED_FOLLOWING])("row by row (%#)", (request) => {
+    const workbook = new Workbook([SHEET]);
+    workbook.writeEntries(SHEET, 0, 0, [["Before", "After"], ...BEFORE.map((b, i) => [b, AFTER[i]])] as never);
+    workbook.setFunctions(functions);
+    const rows = resultBlockRows(request).filter((r) => r.key !== "audit");
+    const last = BEFORE.length + 1;
+    workbook.writeEntries(
+      SHEET,
+      0,
+      3,
+      rows.map((r) => [blockFormula(r.value, { data: `$A$2:$A$${last}`, second: `$B$2:$B$${last}` })]),
+    );
+    rows.forEach((r, i) => {
+      const direct = blockValue(r.value, { data: first, second }, callFunction);
+      expect([r.key, workbook.value(SHEET, i, 3)]).toEqual([r.key, direct]);
+    });
+  });
+
+  it("shows the paired cell functions' own values", () => {
+    const at = (request: BlockRequest, key: string) => blockValue(rowOf(request, key)!.value, { data: first, second }, callFunction);
+    const watched = pairedwatchpvalue(first, second, 0, "less", "drop");
+    expect(typeof watched).toBe("number");
+    expect(at(PAIRED_WATCHING, "pvalue")).toBe(watched);
+    expect(at(PAIRED_FOLLOWING, "watchPvalue")).toBe(watched);
+    expect(at(PAIRED_WATCHING, "lower")).toBe(pairedwatchbounds(first, second, 0.95)[0][0]);
+    expect(at(PAIRED_WATCHING, "upper")).toBe(pairedwatchbounds(first, second, 0.95)[0][1]);
+    // 40 positions: one both blank (no pair), two with one side blank or text (skipped).
+    expect(at(PAIRED_WATCHING, "rowsRead")).toBe(37);
+    expect(at(PAIRED_WATCHING, "skipped")).toBe(2);
   });
 });
