@@ -263,6 +263,20 @@ export async function paneToSettings(page: Page): Promise<void> {
   await page.getByRole("button", { name: "Next: settings" }).click();
 }
 
+/**
+ * Walks the pane to its Settings step for pairs: the demo's thickness before (B1:B25) and after the nozzle
+ * change (C1:C25), shift 0.
+ */
+export async function paneToPairedSettings(page: Page): Promise<void> {
+  await page.getByLabel("Pairs of values").check();
+  await typeRange(page, "First values (for example, before)", "B1:B25");
+  await typeRange(page, "Second values (for example, after)", "C1:C25");
+  await eventually(() => page.locator(".es-summary").nth(1).innerText()).toContain("24 numbers");
+  await page.getByRole("button", { name: "Next: the question" }).click();
+  await eventually(() => page.getByLabel("Hypothesised shift (often 0)").inputValue()).toBe("0");
+  await page.getByRole("button", { name: "Next: settings" }).click();
+}
+
 /** The same, on to the Result step. */
 export async function paneToResult(page: Page): Promise<void> {
   await paneToSettings(page);
