@@ -977,6 +977,17 @@ class FakeContext implements HostContext {
 }
 
 /**
+ * The demo page's stand-in for Office.context.diagnostics (Microsoft, "Office.ContextInformation interface":
+ * host, platform, version). It says plainly that no Excel is present, so an installation check written on
+ * the demo page can never pass for a record of an Excel installation.
+ */
+export const DEMO_DIAGNOSTICS = {
+  host: "Excel",
+  platform: "Evensplit demo page (no Excel)",
+  version: "none: the demo page's stand-in calculates",
+} as const;
+
+/**
  * Excel.run for the demo workbook: runs a batch against a fresh request
  * context and syncs what is left queued at the end, as Excel.run does.
  *

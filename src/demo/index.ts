@@ -15,7 +15,7 @@ import { el, replaceChildren } from "../taskpane/dom";
 import { createHost } from "../taskpane/host";
 import { mountPane } from "../taskpane/pane";
 import { applyTheme, type Theme } from "../taskpane/theme";
-import { fakeRun } from "./fakeExcel";
+import { DEMO_DIAGNOSTICS, fakeRun } from "./fakeExcel";
 import { mountGrid } from "./grid";
 import { demoWorkbook } from "./demoWorkbook";
 import { DEMO_SHEET, extraPanel } from "./inventedData";
@@ -62,7 +62,7 @@ async function start(): Promise<void> {
   window.evensplitDemo = { workbook };
 
   mountGrid(sheetHost, workbook);
-  mountPane(paneHost, { host: createHost(fakeRun(workbook)), calculate: callFunction });
+  mountPane(paneHost, { host: createHost(fakeRun(workbook)), calculate: callFunction, diagnostics: DEMO_DIAGNOSTICS });
 
   let added = 0;
   const themeButton = el(

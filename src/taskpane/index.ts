@@ -52,7 +52,11 @@ function start(): void {
       return;
     }
     applyTheme(document.documentElement, themeFor(Office.context.officeTheme) ?? systemTheme());
-    mountPane(app, { host: createHost((batch) => Excel.run((context) => batch(context))), calculate: callFunction });
+    mountPane(app, {
+      host: createHost((batch) => Excel.run((context) => batch(context))),
+      calculate: callFunction,
+      diagnostics: Office.context.diagnostics,
+    });
   });
 }
 

@@ -52,6 +52,9 @@ import {
 import { resultPage } from "./resultView";
 import { setSetting, setWatching, settingsStepProblem, settingsView } from "./settingsState";
 import { settingsPage } from "./settingsView";
+import { environmentFrom, writeCheckSheet, type DiagnosticsLike } from "./checkSheet";
+import { REFERENCE_CASES } from "../report/installationCheck";
+import { EVENSPLIT_VERSION } from "../report/version";
 import { analyzeRange, blockInputs, blockRefs, defaultPlace, writeResult, type WriteOutcome } from "./workflow";
 import { blockAt, readBlock, type BlockReading } from "./blockEdit";
 import { blockPreview, blockWrite } from "./preview";
@@ -63,6 +66,8 @@ export interface PaneOptions {
   readonly host: Host;
   /** Runs a catalogue function by id: the preview's calculator (functions.ts callFunction). */
   readonly calculate: CatalogueCall;
+  /** Office.context.diagnostics (Excel's version and platform) for the installation check; absent where the host reports none. */
+  readonly diagnostics?: DiagnosticsLike | null;
 }
 
 /** The block's audit line (resultBlock.ts): it holds the time of writing. */
@@ -155,6 +160,19 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
   });
 
   const steps = [data.element, question.element, settings.element, result.element];
+  const checkHeading = el("h2", { id: newId("check") }, "Installation");
+  const checkButton = button("Check this installation", "secondary", () => void checkInstallation());
+  const installation = el(
+    "section",
+    { class: "es-installation", attrs: { "aria-labelledby": checkHeading.id } },
+    checkHeading,
+    el(
+      "p",
+      undefined,
+      "Adds a sheet where the installed functions calculate reference cases with known answers, each beside its expected value and source, to keep with the workbook as a record.",
+    ),
+    checkButton,
+  );
   replaceChildren(
     root,
     el(
@@ -173,8 +191,23 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
       nav,
       el("main", undefined, ...steps),
       status,
+      installation,
     ),
   );
+
+  /** Writes the installation check's sheet (checkSheet.ts); the button rests while the workbook works. */
+  async function checkInstallation(): Promise<void> {
+    checkButton.disabled = true;
+    say("Writing the installation check…");
+    try {
+      const facts = { evensplitVersion: EVENSPLIT_VERSION, ...environmentFrom(options.diagnostics), checkedAt: new Date() };
+      say((await writeCheckSheet(host, REFERENCE_CASES, facts)).message);
+    } catch (thrown) {
+      say(`No check sheet was written: ${errorMessage(thrown)}`);
+    } finally {
+      checkButton.disabled = false;
+    }
+  }
 
   async function analyzeSlot(index: number, text: string, quiet = false): Promise<void> {
     if (text.trim() === "") {
