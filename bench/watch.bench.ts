@@ -3,7 +3,10 @@
  *
  * Speed, each against a bare loop that reads every cell of the same range once, measured in the same run:
  * - WATCHPVALUE on 100,000 rows: at most 20x (two-sided and one-sided);
- * - WATCHBOUNDS on 100,000 rows: at most 20x (median and the 0.9 quantile).
+ * - WATCHBOUNDS on 100,000 rows: at most 20x (median and the 0.9 quantile);
+ * - PAIREDWATCHPVALUE and PAIREDWATCHBOUNDS on 100,000 pairs: at most 2x the fixed-sample PAIRED and
+ *   PAIREDBOUNDS on the same pairs, whose shared reading of the pairs and rounding of the differences
+ *   (cells.ts, differences.ts) costs several times the bare loop over both ranges on its own.
  * Data: invented coating thicknesses (µm) around a target of 50 from a fixed-seed generator (no real data);
  * a second column drifts upwards, so the one-sided p-value keeps setting new highs of its evidence.
  *
@@ -12,7 +15,15 @@
  * the rate at which the confidence sequence covers the true median and 0.9 quantile at every row (20,000
  * runs); the SPRT's achieved error rates against Wald's bounds alpha / (1 − beta) and beta / (1 − alpha).
  */
-import { sprt as sprtCell, watchbounds, watchpvalue } from "../src/functions/functions";
+import {
+  paired,
+  pairedbounds,
+  pairedwatchbounds,
+  pairedwatchpvalue,
+  sprt as sprtCell,
+  watchbounds,
+  watchpvalue,
+} from "../src/functions/functions";
 import { anytimeSignTest } from "../src/stats/anytimeSign";
 import { confidenceSequence } from "../src/stats/confidenceSequence";
 import { signTest } from "../src/stats/signTest";
@@ -63,7 +74,12 @@ function cpuPerCall(fn: () => unknown, rounds: number): number {
 /** Times the function and the bare loop in alternating rounds (CPU time) and reports the medians. */
 function compare(name: string, cells: number[][], candidate: () => unknown, limit: number): void {
   let sink = 0;
-  const baseline = () => (sink += bareLoop(cells));
+  compareWith(name, () => (sink += bareLoop(cells)), candidate, limit);
+  if (Number.isNaN(sink)) throw new Error("the bare loop read a NaN");
+}
+
+/** Times the function and a baseline in alternating rounds (CPU time) and reports the medians. */
+function compareWith(name: string, baseline: () => unknown, candidate: () => unknown, limit: number): void {
   for (let i = 0; i < 5; i++) {
     baseline();
     candidate();
@@ -75,7 +91,6 @@ function compare(name: string, cells: number[][], candidate: () => unknown, limi
     timed.push(cpuPerCall(candidate, 5));
   }
   const median = (xs: number[]) => xs.sort((x, y) => x - y)[Math.floor(xs.length / 2)];
-  if (Number.isNaN(sink)) throw new Error("the bare loop read a NaN");
   report(name, median(timed), median(base), limit);
 }
 
@@ -93,6 +108,23 @@ export function speed(): void {
   compare("WATCHPVALUE greater, 100,000 drifting rows", drifting, () => watchpvalue(drifting, 50, "greater"), 20);
   compare("WATCHBOUNDS median 95%, 100,000 rows", steady, () => watchbounds(steady, 0.95), 20);
   compare("WATCHBOUNDS 0.9 quantile 95%, 100,000 rows", steady, () => watchbounds(steady, 0.95, 0.9), 20);
+  // Pairs: the same panels measured again after a change of about -0.5 µm, give or take 0.6 µm.
+  const after = column(100_000, 23, 0).map(([x], r) => [Math.round((steady[r][0] - 0.5 + (x - 50) / 10) * 100) / 100]);
+  console.log(
+    `         PAIREDWATCHPVALUE ${String(pairedwatchpvalue(steady, after))}, PAIREDWATCHBOUNDS ${JSON.stringify(pairedwatchbounds(steady, after))}`,
+  );
+  compareWith(
+    "PAIREDWATCHPVALUE over PAIRED, 100,000 pairs",
+    () => paired(steady, after),
+    () => pairedwatchpvalue(steady, after),
+    2,
+  );
+  compareWith(
+    "PAIREDWATCHBOUNDS over PAIREDBOUNDS, 100,000 pairs",
+    () => pairedbounds(steady, after, 0.95),
+    () => pairedwatchbounds(steady, after, 0.95),
+    2,
+  );
 }
 
 function monteCarlo(): void {
