@@ -16,7 +16,7 @@
  *
  * Cost: one pass over the cells, plus the cost of the core routine (see its header).
  */
-import { blockValue, reportCell, resultBlockRows, type BlockRequest } from "../report/resultBlock";
+import { blockValue, reportCell, resultBlockRows, type BlockInputs, type BlockRequest } from "../report/resultBlock";
 import { adjustPValues } from "../stats/adjust";
 import { anytimeSignTest } from "../stats/anytimeSign";
 import { pairsInArrivalOrder, withNumbersInArrivalOrder } from "../stats/arrivalOrder";
@@ -647,6 +647,29 @@ export function adjust(pvalues: unknown[][], method?: unknown): unknown[][] {
 // ---------------------------------------------------------------------------
 // The result block
 
+/** Where REPORT's ranges sit among its arguments, for `invocation.parameterAddresses` (one address per argument, in order). */
+const REPORT_DATA_ARGUMENT = 0;
+const REPORT_SECOND_ARGUMENT = 5;
+
+/**
+ * The addresses of REPORT's ranges as Excel gives them when the metadata asks for parameter addresses
+ * (CustomFunctionsRuntime 1.3: Microsoft, "CustomFunctions.Invocation interface", parameterAddresses; the
+ * format is SheetName!A1, as "Custom functions parameter options" shows it). Anything else (no invocation,
+ * an older host, an argument that is not a reference) leaves the audit row to give the ranges' sizes.
+ */
+function addressesGiven(invocation: CustomFunctions.Invocation | undefined, isPaired: boolean): BlockInputs["addresses"] {
+  const given = invocation?.parameterAddresses;
+  const address = (at: number): string | undefined => {
+    const text: unknown = given?.[at];
+    return typeof text === "string" && text.includes("!") ? text : undefined;
+  };
+  const data = address(REPORT_DATA_ARGUMENT);
+  if (data === undefined) return undefined;
+  if (!isPaired) return { data };
+  const second = address(REPORT_SECOND_ARGUMENT);
+  return second === undefined ? undefined : { data, second };
+}
+
 /**
  * The full result of a sign test as a block of two columns, label and value: hypotheses, counts, statistic, p-value, decision, bounds and cautions. Give second for a paired test of second − first.
  * @customfunction REPORT
@@ -656,7 +679,9 @@ export function adjust(pvalues: unknown[][], method?: unknown): unknown[][] {
  * @param [alpha] Significance level for the decision, such as 0.05 (default).
  * @param [confidence] Confidence of the bounds, such as 0.95 (default).
  * @param [second] For a paired test: range with the second measurement, same shape as data.
+ * @param invocation Filled in by Excel: the addresses of the ranges, which the audit row names.
  * @returns Two columns: label, value.
+ * @requiresParameterAddresses
  * @helpurl https://localhost:3000/help/report.html
  * @example =EVENSPLIT.REPORT(Panels[Thickness], 50, "greater") writes the whole sign-test result for the panels as label and value.
  * @see W. J. Dixon and A. M. Mood (1946), "The statistical sign test", Journal of the American Statistical Association 41, 557-566.
@@ -669,6 +694,7 @@ export function report(
   alpha?: unknown,
   confidence?: unknown,
   second?: unknown[][],
+  invocation?: CustomFunctions.Invocation,
 ): unknown[][] {
   try {
     const isPaired = second !== null && second !== undefined;
@@ -681,7 +707,7 @@ export function report(
       alpha: fractionArgument("alpha", alpha, 0.05, "0.05"),
       confidence: fractionArgument("confidence", confidence, 0.95),
     };
-    const cellsIn = { data: inputs.first, second: inputs.second, passedAsArgument: true };
+    const cellsIn = { data: inputs.first, second: inputs.second, passedAsArgument: true, addresses: addressesGiven(invocation, isPaired) };
     return resultBlockRows(request).map((row) => {
       const value = reportCell(row.format, blockValue(row.value, cellsIn, callFunction));
       return [row.label, value === null || value === undefined ? "" : value];

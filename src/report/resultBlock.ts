@@ -18,7 +18,8 @@
  * traced: the Evensplit version, the method and its options, the exact ranges
  * the formulas read and when the block was written (a fixed text set at
  * writing, not a volatile NOW(), which would change at every recalculation);
- * REPORT shows the same row with the time it was evaluated instead.
+ * REPORT shows the same row with the addresses Excel gave it (or, without them,
+ * the ranges' sizes) and the time it was evaluated instead.
  *
  * Cost: O(rows) to build; evaluation costs the catalogue calls it makes.
  */
@@ -1118,6 +1119,12 @@ export interface BlockInputs {
   readonly passedAsArgument?: boolean;
   /** The moment the audit line states as the evaluation time; now when not given. */
   readonly evaluatedAt?: Date;
+  /**
+   * The ranges' addresses as the host gave them (REPORT: `invocation.parameterAddresses`, such as
+   * "Panels!B2:B25"), for the audit line; without them (an older host, a call without a sheet) it gives
+   * the ranges' sizes. For a paired block both are needed.
+   */
+  readonly addresses?: { readonly data: string; readonly second?: string };
 }
 
 /** Runs a catalogue function by id on cell matrices, numbers and words; returns a scalar or a one-row matrix. */
@@ -1185,19 +1192,25 @@ function blankCheck(value: BlankCheckValue, inputs: BlockInputs, run: CatalogueC
   return inputs.passedAsArgument === true && zeros > 0 ? blankCheckUncheckedWords(zeros, read) : value.agree;
 }
 
-/** A range as REPORT receives it: its values, not its address, so the audit line gives its outline. */
+/** A range's outline, for the audit line when the host gave REPORT the values without their address. */
 function rangeWords(cells: readonly (readonly unknown[])[]): string {
   const rows = cells.length;
   const columns = rows === 0 ? 0 : cells[0].length;
   return `${rows} row${rows === 1 ? "" : "s"} × ${columns} column${columns === 1 ? "" : "s"}`;
 }
 
+/** The ranges read: their addresses when the host gave every one of them, otherwise their sizes. */
+function rangesRead(inputs: BlockInputs): string {
+  const addresses = inputs.addresses;
+  if (addresses !== undefined && (inputs.second === undefined) === (addresses.second === undefined))
+    return addresses.second === undefined ? addresses.data : `${addresses.data} and ${addresses.second}`;
+  return inputs.second === undefined
+    ? `the range given (${rangeWords(inputs.data)})`
+    : `the ranges given (${rangeWords(inputs.data)} and ${rangeWords(inputs.second)})`;
+}
+
 function auditValue(value: AuditValue, inputs: BlockInputs): string {
-  const given =
-    inputs.second === undefined
-      ? `the range given (${rangeWords(inputs.data)})`
-      : `the ranges given (${rangeWords(inputs.data)} and ${rangeWords(inputs.second)})`;
-  return auditWords(value, given, `evaluated ${auditTime(inputs.evaluatedAt ?? new Date())}`);
+  return auditWords(value, rangesRead(inputs), `evaluated ${auditTime(inputs.evaluatedAt ?? new Date())}`);
 }
 
 /** One cell of the data's first row (from 1), as the sheet holds it. */

@@ -93,6 +93,22 @@ describe("dist/functions.js", () => {
     expect(block.find((row) => row[0] === "p-value")?.[1]).toBeCloseTo(0.5, 14);
   });
 
+  it("names REPORT's ranges in its audit row by the addresses Excel passes, and gives their sizes without them", () => {
+    // Microsoft, "Manually create JSON metadata for custom functions": requiresParameterAddresses, with a matrix
+    // result; "Custom functions parameter options": the invocation comes last, one SheetName!A1 address per argument.
+    const meta = metadata.functions.find((f) => f.id === "REPORT")!;
+    expect(meta.options?.requiresParameterAddresses).toBe(true);
+    expect(meta.result.dimensionality).toBe("matrix");
+    const data = col(52, 49, 55);
+    const audit = (...args: unknown[]) => (bundle.call("REPORT", data, 50, "greater", ...args) as unknown[][]).at(-1)![1];
+    const addresses = (first: string, second = "") => ({ parameterAddresses: [first, "", "", "", "", second] });
+    expect(audit(null, null, null, addresses("Panels!B2:B4"))).toMatch(/; reads Panels!B2:B4; evaluated /);
+    expect(audit(null, null, data, addresses("Nozzle!B2:B4", "Nozzle!C2:C4"))).toMatch(/; reads Nozzle!B2:B4 and Nozzle!C2:C4; evaluated /);
+    // An Excel before CustomFunctionsRuntime 1.3 leaves parameterAddresses undefined; a call without an invocation has none.
+    expect(audit(null, null, null, {})).toMatch(/; reads the range given \(3 rows × 1 column\); evaluated /);
+    expect(audit()).toMatch(/; reads the range given \(3 rows × 1 column\); evaluated /);
+  });
+
   it("answers a bad word with #VALUE! listing what is accepted", () => {
     expectError(
       bundle.call("PVALUE", col(1, 2), 0, "upwards"),

@@ -71,10 +71,11 @@ describe("manifest.xml", () => {
     expect(path(root, "Permissions").text).toBe("ReadWriteDocument");
   });
 
-  it("requires the shared runtime and the custom-functions runtime with error messages (1.2)", () => {
+  it("requires the shared runtime and the custom-functions runtime with parameter addresses (1.3)", () => {
+    // 1.3: REPORT's audit row names the addresses of its ranges (metadataRequirements.test.ts derives the set).
     const sets = new Map(path(root, "Requirements", "Sets").children.map((s) => [s.attributes.Name, s.attributes.MinVersion]));
     expect(sets.get("SharedRuntime")).toBe("1.1");
-    expect(sets.get("CustomFunctionsRuntime")).toBe("1.2");
+    expect(sets.get("CustomFunctionsRuntime")).toBe("1.3");
   });
 
   it("runs the pane and the functions in one long-lived runtime on the pane's page", () => {

@@ -84,6 +84,33 @@ describe("the audit line", () => {
     );
   });
 
+  it("in REPORT names the ranges by the addresses the host gave, and falls back to their outline without them", () => {
+    const data = [[51.2], [49.8], [50.6]];
+    const one = blockValue(auditOf(SIGN).row.value, { data, evaluatedAt: WRITTEN, addresses: { data: "Panels!B2:B4" } }, callFunction);
+    expect(one).toContain("; reads Panels!B2:B4; evaluated 2026-01-09 14:05:07 UTC");
+    const pairedRequest = requests[1];
+    const both = { data: "'Nozzle check'!A2:A4", second: "'Nozzle check'!B2:B4" };
+    const paired = blockValue(auditOf(pairedRequest).row.value, { data, second: data, addresses: both }, callFunction);
+    expect(paired).toContain("; reads 'Nozzle check'!A2:A4 and 'Nozzle check'!B2:B4; evaluated");
+    // A paired block whose second address is missing names neither rather than one of two.
+    const half = blockValue(auditOf(pairedRequest).row.value, { data, second: data, addresses: { data: both.data } }, callFunction);
+    expect(half).toContain("reads the ranges given (3 rows × 1 column and 3 rows × 1 column)");
+  });
+
+  it("in REPORT takes the addresses from the invocation Excel passes last, and the sizes without them", () => {
+    const data = [[51.2], [49.8], [50.6]];
+    const audit = (...args: unknown[]) => (report as (...a: unknown[]) => unknown[][])(data, 50, "greater", null, null, ...args).at(-1)![1];
+    // One address per argument, in order (Microsoft, "Custom functions parameter options": SheetName!CellNumber).
+    const invocation = { parameterAddresses: ["Panels!B2:B4", "", "", "", "", ""] };
+    expect(audit(null, invocation)).toMatch(/; reads Panels!B2:B4; evaluated /);
+    expect(audit(data, { parameterAddresses: ["Nozzle!B2:B4", "", "", "", "", "Nozzle!C2:C4"] })).toMatch(
+      /; reads Nozzle!B2:B4 and Nozzle!C2:C4; evaluated /,
+    );
+    expect(audit(null, {})).toMatch(/; reads the range given \(3 rows × 1 column\); evaluated /);
+    expect(audit(null, { parameterAddresses: ["", "", "", "", "", ""] })).toMatch(/reads the range given/);
+    expect(audit()).toMatch(/reads the range given/);
+  });
+
   it("gives times in UTC to the second", () => {
     expect(auditTime(new Date(Date.UTC(2026, 11, 2, 6, 30, 5)))).toBe("2026-12-02 06:30:05 UTC");
   });
