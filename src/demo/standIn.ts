@@ -103,12 +103,14 @@ interface MetadataFunction {
   readonly id?: string;
   readonly parameters?: readonly MetadataParameter[];
   readonly result?: { readonly dimensionality?: string };
+  readonly options?: { readonly requiresParameterAddresses?: boolean };
 }
 
-/** What a function's metadata declares: the shape of each argument and of the answer. */
+/** What a function's metadata declares: the shape of each argument and of the answer, and whether it wants the arguments' addresses. */
 export interface FunctionShape {
   readonly args: readonly ArgumentShape[];
   readonly result: ArgumentShape;
+  readonly parameterAddresses: boolean;
 }
 
 /**
@@ -117,7 +119,7 @@ export interface FunctionShape {
  * "Manually create JSON metadata for custom functions").
  *
  * @example
- * shapesFrom({ functions: [{ id: "PVALUE", parameters: [{ dimensionality: "matrix" }, { }] }] }).get("PVALUE"); // { args: ["matrix", "scalar"], result: "scalar" }
+ * shapesFrom({ functions: [{ id: "PVALUE", parameters: [{ dimensionality: "matrix" }, { }] }] }).get("PVALUE"); // { args: ["matrix", "scalar"], result: "scalar", parameterAddresses: false }
  */
 export function shapesFrom(metadata: unknown): Map<string, FunctionShape> {
   const shapes = new Map<string, FunctionShape>();
@@ -128,6 +130,7 @@ export function shapesFrom(metadata: unknown): Map<string, FunctionShape> {
     shapes.set(f.id.toUpperCase(), {
       args: (f.parameters ?? []).map((p) => shape(p.dimensionality)),
       result: shape(f.result?.dimensionality),
+      parameterAddresses: f.options?.requiresParameterAddresses === true,
     });
   }
   return shapes;
@@ -149,7 +152,7 @@ export function withShapes(
   const joined = new Map<string, CustomFunction>();
   for (const [id, fn] of registered) {
     const shape = shapes.get(id);
-    if (shape) joined.set(id, { fn, shapes: shape.args, result: shape.result });
+    if (shape) joined.set(id, { fn, shapes: shape.args, result: shape.result, parameterAddresses: shape.parameterAddresses });
   }
   return joined;
 }

@@ -373,3 +373,41 @@ describe('new worksheets (Microsoft, "Excel.WorksheetCollection class"; names as
     ).rejects.toMatchObject({ code: "InvalidOperation" });
   });
 });
+
+describe('parameter addresses (Microsoft, "Custom functions parameter options": invocation parameter, detect the address of a parameter)', () => {
+  it("passes a function that asks for them an invocation last, after every declared argument, with one address per argument", () => {
+    const seen: unknown[][] = [];
+    const echo: CustomFunction = {
+      fn: (...args: unknown[]) => (seen.push(args), 1),
+      shapes: ["matrix", "scalar", "scalar"],
+      result: "scalar",
+      parameterAddresses: true,
+    };
+    const plain: CustomFunction = { fn: (...args: unknown[]) => (seen.push(args), 2), shapes: ["matrix", "scalar"], result: "scalar" };
+    const w = new Workbook([S]);
+    w.setFunctions(
+      new Map([
+        ["ECHO", echo],
+        ["PLAIN", plain],
+      ]),
+    );
+    w.writeEntries(S, 0, 0, [[1], [2], [3], ["=EVENSPLIT.ECHO(A1:A3, 5)"], ["=EVENSPLIT.ECHO(A2,,C1)"], ["=EVENSPLIT.PLAIN(A1:A3)"]]);
+    expect(seen[0]).toEqual([[[1], [2], [3]], 5, null, { parameterAddresses: ["'Paint line'!A1:A3", "", ""] }]);
+    expect(seen[1]).toEqual([[[2]], null, 0, { parameterAddresses: ["'Paint line'!A2", "", "'Paint line'!C1"] }]);
+    // A function whose metadata does not ask gets only its arguments, as before.
+    expect(seen[2]).toEqual([[[1], [2], [3]]]);
+  });
+
+  it("lets REPORT's audit row name the range it read, as the addresses Excel gives", async () => {
+    const functions = await catalogueFunctions();
+    expect(functions.get("REPORT")?.parameterAddresses).toBe(true);
+    const sheet = new Workbook([DEMO_SHEET]);
+    sheet.writeEntries(DEMO_SHEET, 0, 0, demoRows());
+    sheet.setFunctions(functions);
+    sheet.writeEntries(DEMO_SHEET, 0, 5, [["=EVENSPLIT.REPORT($B$2:$B$26, 50)"]]);
+    let audit: unknown;
+    for (let row = 0; row < 60 && audit === undefined; row++)
+      if (sheet.value(DEMO_SHEET, row, 5) === "Audit") audit = sheet.value(DEMO_SHEET, row, 6);
+    expect(audit).toMatch(/; reads 'Paint line'!B2:B26; evaluated /);
+  });
+});

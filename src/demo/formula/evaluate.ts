@@ -14,7 +14,7 @@
  *
  * Cost: O(size of the tree + cells read).
  */
-import { parseAddress, rectSize } from "../../taskpane/a1";
+import { formatAddress, parseAddress, rectSize } from "../../taskpane/a1";
 import type { Expression } from "./parse";
 import { errorValue, isError, isMatrix, isReference, type ErrorValue, type ReferenceValue, type Scalar, type Value } from "./values";
 
@@ -27,6 +27,11 @@ export interface CustomFunction {
   readonly shapes: readonly ArgumentShape[];
   /** The answer's shape as the metadata declares it. */
   readonly result: ArgumentShape;
+  /**
+   * True when the metadata asks for the arguments' addresses (requiresParameterAddresses): the call
+   * then ends with an invocation object holding them, as Excel makes it (see `invocationFor`).
+   */
+  readonly parameterAddresses?: boolean;
 }
 
 /** What the evaluator needs from the workbook. */
@@ -358,22 +363,41 @@ function declared(value: Value, shape: ArgumentShape): Value {
   return value;
 }
 
+/**
+ * The invocation argument for a function whose metadata asks for parameter addresses. Excel passes an
+ * invocation object as the last argument, after every declared parameter (an omitted one as null), and
+ * fills its parameterAddresses with one address per parameter in the form SheetName!A1 (Microsoft, "Custom
+ * functions parameter options": Invocation parameter, Detect the address of a parameter; "CustomFunctions.Invocation
+ * interface": parameterAddresses). The page does not say what stands for an argument that is no reference (a
+ * number, an omitted one); the stand-in gives empty text there, which tells a function no more than Excel could.
+ */
+function invocationFor(custom: CustomFunction, passed: unknown[], addresses: string[]): unknown[] {
+  while (passed.length < custom.shapes.length) passed.push(null);
+  while (addresses.length < custom.shapes.length) addresses.push("");
+  return [...passed, { parameterAddresses: addresses }];
+}
+
 function callCustom(id: string, args: readonly Expression[], context: EvaluationContext): Value {
   const custom = context.customFunction(id);
   if (custom === undefined) return errorValue("#NAME?", `There is no function ${NAMESPACE}${id}.`);
   const passed: unknown[] = [];
+  const addresses: string[] = [];
   for (let i = 0; i < args.length; i++) {
     const arg = args[i];
     if (arg.type === "missing") {
       passed.push(null);
+      addresses.push("");
       continue;
     }
-    const value = customArgument(evaluate(arg, context), custom.shapes[i] ?? "scalar", context);
+    const evaluated = evaluate(arg, context);
+    addresses.push(isReference(evaluated) ? formatAddress(evaluated.rect, evaluated.sheet) : "");
+    const value = customArgument(evaluated, custom.shapes[i] ?? "scalar", context);
     if (isError(value)) return value;
     passed.push(value);
   }
   try {
-    return declared(fromCustom(custom.fn(...passed)), custom.result);
+    const call = custom.parameterAddresses === true ? invocationFor(custom, passed, addresses) : passed;
+    return declared(fromCustom(custom.fn(...call)), custom.result);
   } catch (thrown) {
     return fromCustom(typeof thrown === "object" && thrown !== null && "code" in thrown ? thrown : undefined);
   }
