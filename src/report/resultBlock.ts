@@ -899,8 +899,8 @@ function pastedColumn(source: DatabaseSource, what: keyof typeof PASTED_COLUMNS)
 
 /**
  * The block for a database query's answer pasted into one row: the counts as pasted, the sign test from
- * them (COUNTPVALUE), ORDERRANKS' ranks and exact coverage for the pasted n, and the two order statistics
- * the query fetched at those ranks.
+ * them (COUNTPVALUE), ORDERRANKS' two-sided ranks and exact coverage for the pasted n, and the two order
+ * statistics the query fetched at those ranks.
  */
 function databaseRows(request: BlockRequest, source: DatabaseSource): BlockRow[] {
   const at = (what: keyof typeof PASTED_COLUMNS): number => pastedColumn(source, what);
@@ -908,16 +908,11 @@ function databaseRows(request: BlockRequest, source: DatabaseSource): BlockRow[]
   const about = subject(request);
   const method = (request.method as SignTestMethod | undefined) ?? "exact";
   const pValue = call("COUNTPVALUE", [pastedCell(at("above")), pastedCell(at("below")), word(request.alternative), word(method)]);
-  const side = boundSideFor(request.alternative);
+  // Two-sided whatever the alternative: the ranks go into the query before the question's direction is asked.
   const ranks = (column: number): CallValue =>
-    call("ORDERRANKS", [pastedCell(at("n")), num(request.confidence), num(0.5), word(side)], column);
+    call("ORDERRANKS", [pastedCell(at("n")), num(request.confidence), num(0.5), word("two-sided")], column);
   const level = percentWords(request.confidence);
-  const boundLabel = (end: "lower" | "upper"): string =>
-    side === "two-sided"
-      ? `${level} bounds for the median: ${end}`
-      : side === end
-        ? `${level} ${end} bound for the median (one-sided)`
-        : `${end[0].toUpperCase()}${end.slice(1)} bound (none: one-sided)`;
+  const boundLabel = (end: "lower" | "upper"): string => `${level} bounds for the median (two-sided): ${end}`;
   const where = source.group === undefined ? "" : `, group ${source.group.label}`;
   const alphaWords = numberWords(request.alpha);
   return [

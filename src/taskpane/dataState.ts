@@ -11,6 +11,7 @@
 import { formatAddress, rectsOverlap, type CellRect } from "./a1";
 import { headerName } from "./dataInfo";
 import { groupCells } from "../stats/groupedCells";
+import { databaseChoices, databaseProblem, databaseView, emptyDatabaseForm, type DatabaseView } from "./databaseState";
 import { emptySlot, type PaneState, type RangeSlot } from "./paneState";
 import { absoluteReference, openEnded } from "./references";
 import {
@@ -39,7 +40,7 @@ function withSlot(state: PaneState, index: number, slot: RangeSlot): PaneState {
 }
 
 /** The kinds of data the Data step offers. */
-export type DataKind = "one" | "pairs" | "two-groups" | "groups";
+export type DataKind = "one" | "pairs" | "two-groups" | "groups" | "database";
 
 /**
  * The kind of data a state holds.
@@ -48,6 +49,7 @@ export type DataKind = "one" | "pairs" | "two-groups" | "groups";
  * dataKind(initialState()); // "one"
  */
 export function dataKind(state: PaneState): DataKind {
+  if (state.database !== null) return "database";
   if (state.paired) return "pairs";
   return state.groups === "two" ? "two-groups" : state.groups === "several" ? "groups" : "one";
 }
@@ -76,6 +78,13 @@ export function setDataKind(state: PaneState, kind: DataKind): PaneState {
   if (kind === before) return state;
   const paired = kind === "pairs";
   const groups = kind === "two-groups" ? "two" : kind === "groups" ? "several" : "none";
+  // The query's answer is pasted anew, read as exactly those cells (a table or an open end would take in other rows).
+  if (kind === "database" || before === "database") {
+    const database = kind === "database" ? emptyDatabaseForm() : null;
+    const question = { ...state.question, center: "", test: "sign" as const };
+    const reference = kind === "database" ? ({ reference: "exact", referenceChosen: true } as const) : { referenceChosen: false };
+    return settleData({ ...state, paired, groups, database, ...reference, slots: [emptySlot(), emptySlot()], question, confirm: null });
+  }
   // A median and a shift are different questions: the value typed for one means nothing for the other.
   const shift = kind === "pairs" || kind === "two-groups";
   let question = { ...state.question, center: shift ? "0" : "" };
@@ -197,6 +206,7 @@ export function setReference(state: PaneState, reference: ReferenceChoice): Pane
  * choices(state).length; // 1
  */
 export function choices(state: PaneState): DataChoice[] {
+  if (state.database !== null) return databaseChoices(state);
   const used = usesTwoRanges(state) ? state.slots : [state.slots[0]];
   return used.flatMap((slot) => (slot.range ? [{ range: slot.range, useHeader: slot.useHeader }] : []));
 }
@@ -238,6 +248,7 @@ export function dataReady(state: PaneState): boolean {
  * problemOfData(stateWithValuesAndOneLabel); // "The group column names only one group (“Line A”): ..."
  */
 export function problemOfData(state: PaneState): string | null {
+  if (state.database !== null) return databaseProblem(state);
   const c = choices(state);
   if (state.groups === "none") return dataProblem(c);
   const [first, second] = c.map(bodyOf);
@@ -305,6 +316,7 @@ export function withLabelHeader(state: PaneState): PaneState {
  * dataStepProblem(initialState()); // "Give the range with the values first."
  */
 export function dataStepProblem(state: PaneState): string | null {
+  if (state.database !== null) return databaseProblem(state);
   if (!dataComplete(state)) {
     const kind = dataKind(state);
     if (kind === "groups") return "Give the values and the group column first.";
@@ -339,6 +351,8 @@ export interface DataView {
   readonly reference: ReferenceChoice;
   readonly note: string;
   readonly problem: string;
+  /** Data in a database: the names, the queries and the pasted answer; null for data in the sheet. */
+  readonly database: DatabaseView | null;
 }
 
 /** How many labels a group column holds and how they are counted, beside the values they name. */
@@ -403,6 +417,7 @@ const SLOT_LABELS: Readonly<Record<DataKind, readonly [string, string]>> = {
   pairs: ["First values (for example, before)", "Second values (for example, after)"],
   "two-groups": ["First group (for example, line A)", "Second group (for example, line B)"],
   groups: ["Values (all groups in one column)", "Group column (the group of each value, beside it)"],
+  database: ["Cells holding the query's answer", "Second values"],
 };
 
 /**
@@ -458,5 +473,6 @@ export function dataView(state: PaneState): DataView {
     reference: state.reference,
     note: referenceSentence(state),
     problem: complete ? (problemOfData(state) ?? "") : "",
+    database: databaseView(state),
   };
 }

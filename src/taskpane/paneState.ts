@@ -37,6 +37,11 @@ export interface PaneState {
    * and a group column beside them. "none" for one set of values or pairs.
    */
   readonly groups: GroupsKind;
+  /**
+   * Data in a database: what the person named for the query, and which pasted row the block reads; null when
+   * the data are in the sheet. The cells holding the query's answer are the first range (`slots[0]`).
+   */
+  readonly database: DatabaseForm | null;
   readonly slots: readonly [RangeSlot, RangeSlot];
   readonly reference: ReferenceChoice;
   /** True once the person picked the reference form; until then it follows the default (a table where one can be made). */
@@ -53,6 +58,16 @@ export interface PaneState {
   readonly showNull: boolean;
   readonly confirm: Confirmation | null;
   readonly busy: boolean;
+}
+
+/** The Data step's fields for data in a database, as typed. */
+export interface DatabaseForm {
+  readonly table: string;
+  readonly column: string;
+  /** Optional: a column whose values label groups. */
+  readonly group: string;
+  /** With groups: the pasted row (from 0, header left out) that the block reads. */
+  readonly row: number;
 }
 
 /** Independent groups in the data: none, two from two ranges, or several named by a group column. */
@@ -81,6 +96,7 @@ export function initialState(): PaneState {
     step: 0,
     paired: false,
     groups: "none",
+    database: null,
     slots: [emptySlot(), emptySlot()],
     reference: "exact",
     referenceChosen: false,

@@ -15,6 +15,7 @@ import { blockFollowsNewRows, choices } from "./dataState";
 import type { PaneState } from "./paneState";
 import { buildRequest, notation, type FieldName, type FieldProblem } from "./request";
 import { bodyOf } from "./workflow";
+import { databaseRequest } from "./databaseState";
 
 /**
  * The test chosen.
@@ -58,6 +59,8 @@ export function setQuantile(state: PaneState, quantile: string): PaneState {
 
 /** The test that runs: pairs take no quantile test. */
 export function effectiveTest(state: PaneState): BlockTest {
+  // A database query gives the sign counts only.
+  if (state.database !== null) return "sign";
   return state.paired && state.question.test === "quantile" ? "sign" : state.question.test;
 }
 
@@ -68,6 +71,7 @@ export function effectiveTest(state: PaneState): BlockTest {
  * currentRequest(setCenter(state, "50")); // { ok: true, request: { test: "sign", center: 50, ... } }
  */
 export function currentRequest(state: PaneState): ReturnType<typeof buildRequest> {
+  if (state.database !== null) return databaseRequest(state);
   const names = choices(state).map((choice) => bodyOf(choice).name);
   const built = buildRequest(state.paired, state.question, state.settings, { data: names[0], second: names[1] });
   // The block learns whether it follows new rows and, if so, the Settings step's answer about looking again.
@@ -100,6 +104,8 @@ export function questionStepProblem(state: PaneState): string | null {
 export interface QuestionView {
   readonly test: BlockTest;
   readonly quantileAvailable: boolean;
+  /** False for a database query's answer, which holds the sign counts only. */
+  readonly signedRankAvailable: boolean;
   readonly showQuantile: boolean;
   readonly subjectLabel: string;
   readonly centerLabel: string;
@@ -121,7 +127,9 @@ export interface QuestionView {
  */
 export function questionView(state: PaneState, showStepProblems: boolean): QuestionView {
   const test = effectiveTest(state);
-  const names = choices(state).map((choice) => bodyOf(choice).name);
+  // A database's pasted answer has no name row of its own: the column named for the query names the values.
+  const column = state.database?.column.trim();
+  const names = state.database !== null ? [column === "" ? undefined : column] : choices(state).map((choice) => bodyOf(choice).name);
   const { question } = state;
   const second = names[1] === undefined ? "the second value" : `“${names[1]}”`;
   const first = names[0] === undefined ? "the first value" : `“${names[0]}”`;
@@ -146,7 +154,8 @@ export function questionView(state: PaneState, showStepProblems: boolean): Quest
     : null;
   return {
     test,
-    quantileAvailable: !state.paired,
+    quantileAvailable: !state.paired && state.database === null,
+    signedRankAvailable: state.database === null,
     showQuantile: test === "quantile",
     subjectLabel,
     centerLabel,

@@ -88,12 +88,14 @@ export function setConfirm(state: PaneState, confirm: Confirmation | null): Pane
 }
 
 /**
- * The state with a chart only where one can be made (paired columns side by side).
+ * The state with a chart only where one can be made (paired columns side by side; never for a database's answer).
  *
  * @example
  * settleResult({ ...state, chart: true }).chart; // false when the two columns are apart
  */
 export function settleResult(state: PaneState): PaneState {
+  // A database's values are not in the sheet: a chart of the pasted counts would mean nothing.
+  if (state.chart && state.database !== null) return { ...state, chart: false };
   const c = choices(state);
   if (!state.chart || c.length === 0 || chartSource(c, []) !== null) return state;
   return { ...state, chart: false };
@@ -126,6 +128,23 @@ export function plotValues(c: readonly DataChoice[]): Float64Array {
 
 function numberOrNull(value: unknown): number | null {
   return typeof value === "number" && Number.isFinite(value) ? value : null;
+}
+
+/** Where the block goes, in words, and what is wrong with the place typed. */
+function placeOf(state: PaneState, request: BlockRequest, height: number): { targetHint: string; targetProblem: string | null } {
+  const target = targetPlace(state, request);
+  const fits = target !== null && onSheet(target.rect);
+  const targetHint = fits
+    ? `The block takes 2 columns × ${height} rows: ${formatAddress(target.rect, target.sheet)}.${state.targetEdited ? "" : " Suggested: the first empty area to the right of the data."}`
+    : `The block takes 2 columns × ${height} rows; type the cell for its top-left corner, such as E1.`;
+  const targetProblem =
+    state.target.trim() === "" ? null : !target ? "That is not a cell address; type one such as E1." : fits ? null : PAST_EDGE;
+  return { targetHint, targetProblem };
+}
+
+/** The Result step's recap for a database query's pasted answer. */
+function databaseRecap(cells: string): string {
+  return `The block will read the query's answer in ${cells}: its formulas recalculate when a new answer is pasted there.`;
 }
 
 /** What the Result step shows. */
@@ -186,6 +205,9 @@ export function resultView(state: PaneState, calculate: CatalogueCall): ResultVi
   const refs = blockRefs(c, state.reference, [], c[0].range.sheet);
   const rows = blockPreview(wordingRequest(request), blockInputs(c), refs, calculate);
   const value = (key: string): unknown => rows.find((r) => r.key === key)?.value;
+  // A database's values stay in the database: the pane holds only the pasted counts, so there is nothing to plot.
+  if (state.database !== null)
+    return { ...EMPTY, ...fixed, rows, ...placeOf(state, request, rows.length), recap: databaseRecap(refs.data) };
   const values = plotValues(c);
   const what = state.paired ? "differences" : "values";
   const plot = { values, center: request.center, lower: numberOrNull(value("lower")), upper: numberOrNull(value("upper")), what };
@@ -204,13 +226,6 @@ export function resultView(state: PaneState, calculate: CatalogueCall): ResultVi
   const used = numberOrNull(value("used"));
   const observed = request.test === "quantile" ? numberOrNull(value("below")) : numberOrNull(value("statistic"));
   const bars = countTest && state.showNull && used !== null && observed !== null ? nullBars(used, request.quantile ?? 0.5, observed) : [];
-  const target = targetPlace(state, request);
-  const fits = target !== null && onSheet(target.rect);
-  const targetHint = fits
-    ? `The block takes 2 columns × ${rows.length} rows: ${formatAddress(target.rect, target.sheet)}.${state.targetEdited ? "" : " Suggested: the first empty area to the right of the data."}`
-    : `The block takes 2 columns × ${rows.length} rows; type the cell for its top-left corner, such as E1.`;
-  const targetProblem =
-    state.target.trim() === "" ? null : !target ? "That is not a cell address; type one such as E1." : fits ? null : PAST_EDGE;
   const source = chartSource(c, []);
   return {
     ...fixed,
@@ -225,8 +240,7 @@ export function resultView(state: PaneState, calculate: CatalogueCall): ResultVi
         ? `Bars: how likely each ${request.test === "quantile" ? "count below the hypothesised value" : "count above the hypothesised value"} is if H0 holds, for the ${used} values used; the observed count is marked.`
         : "",
     tooManyBars: state.showNull && countTest && bars.length === 0,
-    targetHint,
-    targetProblem,
+    ...placeOf(state, request, rows.length),
     recap: referenceSentence(state),
     chartAvailable: source !== null,
     makesTable: state.reference === "table" && !referenceOptions(c).allTableColumns && tablesToCreate(c).length > 0,

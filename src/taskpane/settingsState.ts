@@ -58,6 +58,8 @@ export interface SettingsView {
   readonly confidenceProblem: string | null;
   /** Ties and the sign test's method: sign test only. */
   readonly signTest: boolean;
+  /** The tie rule is offered: not for a database query's answer, whose counts leave the ties out. */
+  readonly tiesChoice: boolean;
   /** Zeros and the signed-rank method: signed-rank test only. */
   readonly signedRank: boolean;
   readonly quantileTest: boolean;
@@ -82,6 +84,7 @@ export function settingsView(state: PaneState): SettingsView {
     alphaProblem: problems.find((p) => p.field === "alpha")?.message ?? null,
     confidenceProblem: problems.find((p) => p.field === "confidence")?.message ?? null,
     signTest: test === "sign",
+    tiesChoice: test === "sign" && state.database === null,
     signedRank: test === "signed-rank",
     quantileTest: test === "quantile",
     zerosLabel: state.paired ? "Pairs whose difference equals the shift under test" : "Values that equal the median under test",

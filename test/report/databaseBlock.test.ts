@@ -60,11 +60,10 @@ async function run(sql: string): Promise<unknown[][]> {
 }
 
 /** What a person does: the first run for n, ORDERRANKS for the ranks, the second run with them. */
-async function answer(question: DatabaseQuestion, confidence: number, side: string): Promise<unknown[]> {
+async function answer(question: DatabaseQuestion, confidence: number): Promise<unknown[]> {
   const [first] = await run(databaseQuery(question, null));
-  const [lower, upper] = orderranks(first[0], confidence, 0.5, side)[0];
-  const ranks = { lower: lower === "" ? null : (lower as number), upper: upper === "" ? null : (upper as number) };
-  const [second] = await run(databaseQuery(question, ranks));
+  const [lower, upper] = orderranks(first[0], confidence)[0] as number[];
+  const [second] = await run(databaseQuery(question, { lower, upper }));
   return second;
 }
 
@@ -122,8 +121,7 @@ describe("the block from a database query's pasted answer", () => {
   it.each(cases)(
     "%s, %s, confidence %s: the sheet equals the direct evaluation, and PVALUE and BOUNDS on the values",
     async (alt, method, level) => {
-      const side = alt === "greater" ? "lower" : alt === "less" ? "upper" : "two-sided";
-      const pasted = await answer(QUESTION, level, side);
+      const pasted = await answer(QUESTION, level);
       const req = request(alt, method, level);
       const rows = resultBlockRows(req);
       const direct = rows.map((row) => blockValue(row.value, { data: [pasted] }, callFunction));
@@ -132,7 +130,8 @@ describe("the block from a database query's pasted answer", () => {
       const value = (key: string): unknown => direct[rows.findIndex((r) => r.key === key)];
       const cells = values.map((x) => [x]);
       expect(value("pvalue")).toBe(pvalue(cells, CENTER, alt, "drop", method));
-      const [lower, upper, coverage] = bounds(cells, level, side, "exact")[0];
+      // Two-sided bounds whatever the alternative (the query's ranks are chosen before the direction is).
+      const [lower, upper, coverage] = bounds(cells, level, "two-sided", "exact")[0];
       expect([value("lower"), value("upper"), value("coverage")]).toEqual([lower, upper, coverage]);
       expect(value("numbers")).toBe(values.length);
       expect(value("addsUp")).toBe(PASTED_CHECK_WORDS.agree);
