@@ -6,12 +6,13 @@
  * Cost: O(1) nodes per render.
  */
 import { button, field, newId, radioGroup, setProblem, textInput } from "./controls";
-import type { DataView } from "./dataState";
+import { databasePage, type DatabaseEvents } from "./databaseView";
+import type { DataKind, DataView } from "./dataState";
 import { el, show } from "./dom";
 import type { ReferenceChoice } from "./workflow";
 
 export interface DataEvents {
-  kind(paired: boolean): void;
+  kind(kind: DataKind): void;
   /** A range typed and committed (Enter, or leaving the field). */
   rangeTyped(index: number, text: string): void;
   useSelection(index: number): void;
@@ -22,6 +23,8 @@ export interface DataEvents {
   /** Load the block that holds the selected cell, to change it and write it again. */
   editBlock(): void;
   next(): void;
+  /** The part for data in a database. */
+  readonly database: DatabaseEvents;
 }
 
 export interface DataPage {
@@ -38,7 +41,7 @@ export interface DataPage {
  * const page = dataPage(heading, events); page.render(dataView(state), state.slots.map((s) => s.text));
  */
 export function dataPage(heading: HTMLElement, events: DataEvents): DataPage {
-  const kindGroup = radioGroup<"one" | "pairs">(
+  const kindGroup = radioGroup<DataKind>(
     "What kind of data?",
     [
       { value: "one", label: "One set of values", hint: "Test where the median of one column lies." },
@@ -47,10 +50,16 @@ export function dataPage(heading: HTMLElement, events: DataEvents): DataPage {
         label: "Pairs of values",
         hint: "Two columns, a first and a second value for each item (such as before and after); the test looks at second − first.",
       },
+      {
+        value: "database",
+        label: "Data in a database",
+        hint: "Too many rows for a sheet: the pane gives the SQL to run in your own tool, and you paste its answer back.",
+      },
     ],
     "one",
-    (value) => events.kind(value === "pairs"),
+    (value) => events.kind(value),
   );
+  const database = databasePage(events.database);
   const slotViews = [0, 1].map((index) => {
     const input = textInput("", { autocomplete: "off" });
     const pick = button("Use the selection", "secondary", () => events.useSelection(index));
@@ -105,6 +114,7 @@ export function dataPage(heading: HTMLElement, events: DataEvents): DataPage {
     kindGroup.element,
     slotViews[0].element,
     slotViews[1].element,
+    database.element,
     referenceGroup.element,
     referenceNote,
     problemText,
@@ -116,8 +126,11 @@ export function dataPage(heading: HTMLElement, events: DataEvents): DataPage {
   );
 
   function render(view: DataView, texts: readonly string[]): void {
-    kindGroup.set(view.paired ? "pairs" : "one");
+    kindGroup.set(view.kind);
+    show(slotViews[0].element, view.database === null);
     show(slotViews[1].element, view.paired);
+    show(database.element, view.database !== null);
+    if (view.database !== null) database.render(view.database, texts[0]);
     view.slots.forEach((slot, i) => {
       const page = slotViews[i];
       page.field.label.textContent = slot.label;
@@ -134,15 +147,16 @@ export function dataPage(heading: HTMLElement, events: DataEvents): DataPage {
       show(page.headerRow, slot.canToggleHeader);
       page.headerBox.checked = slot.useHeader;
     });
-    const offered = view.options !== null && !view.options.allTableColumns;
+    const offered = view.options !== null && !view.options.allTableColumns && view.database === null;
     show(referenceGroup.element, offered);
     if (view.options && offered) {
       referenceGroup.enable("table", view.options.table.available, view.options.table.reason);
       referenceGroup.enable("open", view.options.open.available, view.options.open.reason);
     }
     referenceGroup.set(view.reference);
-    referenceNote.textContent = view.note;
-    problemText.textContent = view.problem;
+    referenceNote.textContent = view.database === null ? view.note : "";
+    // For a database the part's own line says what is left to do.
+    problemText.textContent = view.database === null ? view.problem : "";
   }
 
   return { element, inputs: slotViews.map((s) => s.input), render };

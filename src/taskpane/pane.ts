@@ -21,6 +21,7 @@ import {
   dataReady,
   dataStepProblem,
   dataView,
+  setDataKind,
   setPaired,
   setReference,
   setUseHeader,
@@ -31,6 +32,7 @@ import {
   usesTwoRanges,
 } from "./dataState";
 import { dataPage } from "./dataView";
+import { databaseView, setDatabaseField, setDatabaseRow } from "./databaseState";
 import { el, replaceChildren, show } from "./dom";
 import type { Host } from "./host";
 import { atStep, initialState, STEPS, withBusy, type PaneState } from "./paneState";
@@ -116,7 +118,7 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
   const headings = STEPS.map((name, i) => el("h2", { id: newId("step"), attrs: { tabindex: "-1" } }, `${i + 1}. ${name}`));
 
   const data = dataPage(headings[0], {
-    kind: (paired) => update(setPaired(state, paired)),
+    kind: (kind) => update(setDataKind(state, kind)),
     rangeTyped: (index, text) => void analyzeSlot(index, text),
     useSelection: (index) => void useSelection(index),
     header: (index, useHeader) => update(setUseHeader(state, index, useHeader)),
@@ -124,6 +126,19 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
     asPairs: () => update(splitIntoPairs(state)),
     editBlock: () => void editSelectedBlock(true),
     next: () => void goTo(1),
+    database: {
+      name: (field, text) => update(setDatabaseField(state, field, text)),
+      center: (text) => update(setCenter(state, text)),
+      confidence: (text) => update(setSetting(state, "confidence", text)),
+      copy: (which) => {
+        const view = databaseView(state);
+        const query = which === "first" ? view?.firstQuery : view?.secondQuery;
+        if (query) copyText(query, `The ${which} query was copied. Run it in your database tool and paste its answer into the sheet.`);
+      },
+      answerTyped: (text) => void analyzeSlot(0, text),
+      answerFromSelection: () => void useSelection(0),
+      row: (index) => update(setDatabaseRow(state, index)),
+    },
   });
   const question = questionPage(headings[1], {
     test: (test) => update(setTest(state, test)),
@@ -391,23 +406,33 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
     const rows = resultView(state, calculate).rows;
     if (!built.ok || rows.length === 0) return;
     const copy = reportCopy(wordingRequest(built.request), rows);
-    const fill = (event: ClipboardEvent): void => {
-      event.clipboardData?.setData("text/plain", copy.text);
-      event.clipboardData?.setData("text/html", copy.html);
-      event.preventDefault();
-    };
-    document.addEventListener("copy", fill);
-    let copied = false;
-    try {
-      copied = document.execCommand("copy");
-    } finally {
-      document.removeEventListener("copy", fill);
-    }
+    const copied = copyThroughEvent({ "text/plain": copy.text, "text/html": copy.html });
     say(
       copied
         ? "The result was copied: one sentence for a report, then the block’s rows (as text and as a table)."
         : "This browser did not allow copying; select the preview table and copy it instead.",
     );
+  }
+
+  /** Copies a plain text (a query) through the copy event, as copyResult does. */
+  function copyText(text: string, done: string): void {
+    say(
+      copyThroughEvent({ "text/plain": text }) ? done : "This browser did not allow copying; select the query's text and copy it instead.",
+    );
+  }
+
+  /** Puts each format's data on the clipboard inside the page's copy event; true when the browser copied. */
+  function copyThroughEvent(data: Readonly<Record<string, string>>): boolean {
+    const fill = (event: ClipboardEvent): void => {
+      for (const [format, text] of Object.entries(data)) event.clipboardData?.setData(format, text);
+      event.preventDefault();
+    };
+    document.addEventListener("copy", fill);
+    try {
+      return document.execCommand("copy");
+    } finally {
+      document.removeEventListener("copy", fill);
+    }
   }
 
   /** The text to read for a reference of a block's formula: a table column with its header, or the cells with the name row above them when there is one. */

@@ -159,7 +159,7 @@ export function settingsPage(heading: HTMLElement, events: SettingsEvents): Sett
     keep(lookingField.control, looking);
     setProblem(alphaField, view.alphaProblem);
     setProblem(confidenceField, view.confidenceProblem);
-    show(tiesField.element, view.signTest);
+    show(tiesField.element, view.tiesChoice);
     show(signMethodField.element, view.signTest);
     show(rankMethodField.element, view.signedRank);
     show(zerosField.element, view.signedRank);
