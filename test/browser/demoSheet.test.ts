@@ -98,7 +98,7 @@ describe.runIf(run)("the demo sheet", () => {
     // The README gives 0.0216 for this example.
     await expect.poll(async () => Number(await cellText(page, 1, 14)).toFixed(4)).toBe("0.0216");
     await snap(page, "20-demo-readme-sheet");
-    await page.getByRole("button", { name: "Paint line" }).click();
+    await page.getByRole("button", { name: "Paint line", exact: true }).click();
     await expect.poll(() => cellText(page, 0, 1)).toBe("Thickness (µm)");
     await page.close();
   });
