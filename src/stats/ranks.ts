@@ -3,7 +3,8 @@
  *
  * Method
  * - Sort: least-significant-digit radix sort on the 64-bit patterns, 11 bits per
- *   pass (six passes, 2,048 buckets), through the order-preserving key map of
+ *   pass (six passes, 2,048 buckets; the high word's three first, finished by an
+ *   insertion pass, when values seldom share their high 32 bits), through the order-preserving key map of
  *   P. M. Herf (2001), "Radix tricks" (flip every bit of a negative number, only
  *   the sign bit of a positive one), so that unsigned order of the keys is
  *   numeric order. A pass whose digit is
@@ -31,11 +32,23 @@ const LITTLE_ENDIAN = new Uint8Array(new Uint32Array([1]).buffer)[0] === 1;
 const LO = LITTLE_ENDIAN ? 0 : 1;
 const HI = 1 - LO;
 
+/** Longest sort whose second buffer is kept for the next call (8 MB). */
+const KEPT_SCRATCH = 1 << 20;
+/**
+ * The second buffer of the radix passes, kept between calls up to KEPT_SCRATCH values: a fresh buffer on
+ * every call is memory outside the engine's heap, and enough of it makes the engine collect its whole heap,
+ * which costs more than the sort when a sheet's ranges are held there.
+ */
+let scratch = new Float64Array(0);
+
 /**
  * LSD radix sort of the doubles by their order-preserving keys (Herf 2001): for a negative number every bit
  * is flipped, for a positive one only the sign bit. The keys are computed on the fly from each double's
  * halves and never stored, so only real values are moved (as doubles): a stored key could look like a
- * NaN, whose bits an engine is free to change.
+ * NaN, whose bits an engine is free to change. When the low 32 bits would need passes, the three passes
+ * of the high 32 bits (sign, exponent and 20 bits of fraction) come first alone: measurements with more
+ * digits than that seldom share a high word, so an insertion pass then finishes the order in a few moves
+ * per value; should it need more, all six passes run.
  */
 function radixSort(values: Float64Array): void {
   const n = values.length;
@@ -53,16 +66,36 @@ function radixSort(values: Float64Array): void {
     counts[4 * BUCKETS + ((hi >>> 11) & 0x7ff)]++;
     counts[5 * BUCKETS + (hi >>> 22)]++;
   }
+  if (scratch.length < n && n <= KEPT_SCRATCH) scratch = new Float64Array(n);
+  const spare: Float64Array = n <= KEPT_SCRATCH ? scratch.subarray(0, n) : new Float64Array(n);
+  let lowNeeded = false;
+  for (let pass = 0; pass < 3; pass++) lowNeeded ||= !oneDigit(values, counts, pass);
+  if (lowNeeded) {
+    radixPasses(values, spare, counts.slice(), 3);
+    if (finishedByInsertion(values, 8 * n)) return;
+  }
+  radixPasses(values, spare, counts, lowNeeded ? 0 : 3);
+}
+
+/** Whether every key has the same digit in this pass (then the pass would leave the order as it is). */
+function oneDigit(values: Float64Array, counts: Uint32Array, pass: number): boolean {
+  const bits = new Uint32Array(values.buffer, values.byteOffset, 2);
+  const flip = bits[HI] >> 31;
+  const key = pass < 3 ? bits[LO] ^ flip : bits[HI] ^ (flip | 0x80000000);
+  return counts[pass * BUCKETS + ((key >>> ((pass % 3) * 11)) & 0x7ff)] === values.length;
+}
+
+/** The LSD passes from `firstPass` to the last, skipping digits every key shares; the order ends up in `values`. */
+function radixPasses(values: Float64Array, spare: Float64Array, counts: Uint32Array, firstPass: number): void {
+  const n = values.length;
   let source: Float64Array = values;
-  let target: Float64Array = new Float64Array(n);
-  for (let pass = 0; pass < PASSES; pass++) {
+  let target: Float64Array = spare;
+  for (let pass = firstPass; pass < PASSES; pass++) {
     const base = pass * BUCKETS;
     const word = pass < 3 ? LO : HI;
     const shift = (pass % 3) * 11;
+    if (oneDigit(source, counts, pass)) continue; // one digit everywhere: order unchanged
     const bits = new Uint32Array(source.buffer, source.byteOffset, 2 * n);
-    const firstFlip = bits[HI] >> 31;
-    const firstKey = word === LO ? bits[LO] ^ firstFlip : bits[HI] ^ (firstFlip | 0x80000000);
-    if (counts[base + ((firstKey >>> shift) & 0x7ff)] === n) continue; // one digit everywhere: order unchanged
     let offset = 0;
     for (let d = 0; d < BUCKETS; d++) {
       const c = counts[base + d];
@@ -86,6 +119,24 @@ function radixSort(values: Float64Array): void {
     target = swap;
   }
   if (source !== values) values.set(source);
+}
+
+/** Insertion sort of nearly sorted values in place; false (still a permutation) once it would take more than `budget` moves. */
+function finishedByInsertion(values: Float64Array, budget: number): boolean {
+  let moves = 0;
+  for (let k = 1; k < values.length; k++) {
+    const x = values[k];
+    if (!(x < values[k - 1])) continue;
+    let j = k - 1;
+    while (j >= 0 && values[j] > x) {
+      values[j + 1] = values[j];
+      j--;
+    }
+    values[j + 1] = x;
+    moves += k - 1 - j;
+    if (moves > budget) return false;
+  }
+  return true;
 }
 
 /**

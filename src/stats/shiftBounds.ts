@@ -21,13 +21,7 @@
  * expected time, p and q the numbers of distinct values; O(m + n) memory; the exact rank adds O(min(m, n) m n) at worst,
  * for m + n <= EXACT_AUTO_SIZE.
  */
-import {
-  differenceMatrix,
-  differenceOrderStatistic,
-  differenceOrderStatistics,
-  nextDifference,
-  type DifferenceMatrix,
-} from "./differenceSelection";
+import { differenceMatrix, differenceOrderStatistics, type DifferenceMatrix } from "./differenceSelection";
 import { boundRank, type BoundRank } from "./boundRank";
 import { confidenceWords } from "./quantileBounds";
 import { EXACT_AUTO_SIZE } from "./rankSum";
@@ -72,18 +66,16 @@ function differencesFit(matrix: DifferenceMatrix): boolean {
 const TOO_LARGE =
   "A difference between the groups is too large to hold as a number (values near ±1E+308 on opposite sides); rescale the data (other units).";
 
-/** The median of the differences given the lower middle one (rank floor((mn + 1)/2)). */
-function medianFrom(matrix: DifferenceMatrix, lowerMiddle: number): number {
-  const count = matrix.pairs;
-  if (count % 2 === 1) return lowerMiddle + 0;
-  const upperMiddle = nextDifference(matrix, lowerMiddle, count / 2);
-  const m = (lowerMiddle + upperMiddle) / 2;
-  return (Number.isFinite(m) ? m : lowerMiddle / 2 + upperMiddle / 2) + 0;
+/** Ranks of the middle differences: the median's alone for an odd count, the two it averages for an even one. */
+function middleRanks(count: number): number[] {
+  return count % 2 === 1 ? [(count + 1) / 2] : [count / 2, count / 2 + 1];
 }
 
-/** Rank of the lower middle difference: the median itself for an odd count. */
-function middleRank(count: number): number {
-  return Math.floor((count + 1) / 2);
+/** The median of the differences from the middle ones (middleRanks). */
+function medianOf(middle: readonly number[]): number {
+  if (middle.length === 1) return middle[0] + 0;
+  const m = (middle[0] + middle[1]) / 2;
+  return (Number.isFinite(m) ? m : middle[0] / 2 + middle[1] / 2) + 0;
 }
 
 /**
@@ -100,7 +92,7 @@ export function shiftEstimate(first: ArrayLike<number>, second: ArrayLike<number
   checkFinite(first, second, "shiftEstimate");
   const matrix = differenceMatrix(first, second);
   if (!differencesFit(matrix)) return unavailable("unreachable", TOO_LARGE);
-  return medianFrom(matrix, differenceOrderStatistic(matrix, middleRank(matrix.pairs)));
+  return medianOf(differenceOrderStatistics(matrix, middleRanks(matrix.pairs)));
 }
 
 /** The rank of the shift's bounds: the Mann–Whitney null distribution of the m·n differences. */
@@ -162,11 +154,13 @@ export function shiftBounds(
   }
   const count = m * n;
   // The bounds and the estimate are selected together: they lie close together among the m·n differences.
-  const ranks = [middleRank(count), ...(side === "upper" ? [] : [rank.k]), ...(side === "lower" ? [] : [count - rank.k + 1])];
-  const [middle, ...ends] = differenceOrderStatistics(matrix, ranks);
+  const middle = middleRanks(count);
+  const ranks = [...middle, ...(side === "upper" ? [] : [rank.k]), ...(side === "lower" ? [] : [count - rank.k + 1])];
+  const selected = differenceOrderStatistics(matrix, ranks);
+  const ends = selected.slice(middle.length);
   return {
     available: true,
-    estimate: medianFrom(matrix, middle),
+    estimate: medianOf(selected.slice(0, middle.length)),
     lower: side === "upper" ? null : ends[0] + 0,
     upper: side === "lower" ? null : ends[ends.length - 1] + 0,
     achievedConfidence: rank.achieved,

@@ -41,6 +41,10 @@ describe("sortFloat64", () => {
       () => Math.round(next() * 20000) / 100,
       () => (next() < 0.5 ? -1 : 1) * Math.round(next() * 50),
       () => (next() < 0.01 ? -0 : next() < 0.02 ? Infinity : -(next() * 1e-300)),
+      // Measurements with more digits than the high 32 bits hold apart: the high passes and an insertion pass.
+      () => 44 + Math.round(next() * 1200) / 100 + next() * 1e-3,
+      // Values sharing their high 32 bits, most of them: the insertion pass gives up and all six passes run.
+      () => (next() < 0.5 ? -1 : 1) * (1 + next() * 1e-9),
     ];
     for (const shape of shapes) {
       const x = Array.from({ length: 50_000 }, shape);

@@ -43,6 +43,56 @@ describe("differenceOrderStatistic against the sorted list of every difference (
   });
 });
 
+describe("differenceOrderStatistics on samples large enough for the thinned matrix (p + q >= 20,000 distinct values)", () => {
+  /** Pairs with second − first below v and at most v, counted over every pair: the definition of the k-th difference. */
+  function countsAt(first: Float64Array, second: Float64Array, v: number): { less: number; atMost: number } {
+    let less = 0;
+    let atMost = 0;
+    for (let j = 0; j < second.length; j++) {
+      const y = second[j];
+      for (let i = 0; i < first.length; i++) {
+        const d = y - first[i];
+        less += +(d < v);
+        atMost += +(d <= v);
+      }
+    }
+    return { less, atMost };
+  }
+
+  it("gives the k-th difference (fewer than k pairs below it, at least k at or below it; brute-force count), with and without ties", () => {
+    let seed = 11;
+    const next = () => (seed = (Math.imul(seed, 1103515245) + 12345) >>> 0) / 2 ** 32;
+    const shapes: [string, () => number, () => number][] = [
+      ["no repeats", () => 50 + next() * 12, () => 50.3 + next() * 12],
+      [
+        "two decimals jittered",
+        () => 44 + Math.round(next() * 1200) / 100 + next() * 1e-3,
+        () => 44.3 + Math.round(next() * 1200) / 100 + next() * 1e-3,
+      ],
+      [
+        "repeats and far outliers",
+        () => (next() < 0.01 ? 1e6 * next() : Math.round(next() * 4e5) / 40),
+        () => (next() < 0.02 ? -1e5 : Math.round(next() * 3e3) / 3),
+      ],
+    ];
+    for (const [, drawFirst, drawSecond] of shapes) {
+      const first = Float64Array.from({ length: 21_000 }, drawFirst);
+      const second = Float64Array.from({ length: 1_500 }, drawSecond);
+      const matrix = differenceMatrix(first, second);
+      expect(matrix.a.values.length + matrix.b.values.length).toBeGreaterThanOrEqual(20_000);
+      const pairs = first.length * second.length;
+      const middle = pairs / 2;
+      const ranks = [1, Math.round(pairs * 0.03), middle - 70_000, middle, middle + 1, pairs];
+      const got = differenceOrderStatistics(matrix, ranks);
+      ranks.forEach((k, r) => {
+        const { less, atMost } = countsAt(first, second, got[r]);
+        expect(less).toBeLessThan(k);
+        expect(atMost).toBeGreaterThanOrEqual(k);
+      });
+    }
+  });
+});
+
 describe("shiftBounds", () => {
   it("gives the documented example (exact arithmetic: 19 of the C(11, 5) = 462 arrangements have U <= 5)", () => {
     const r = available(shiftBounds([10.1, 11.4, 9.8, 10.6, 10.9], [11.9, 12.4, 11.1, 12.8, 12.2, 11.6], { confidence: 0.9 }));
