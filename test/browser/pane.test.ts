@@ -173,9 +173,11 @@ describe.skipIf(!run)("the pane on the demo page", () => {
 
     await page.getByRole("button", { name: "Write the block" }).click();
     await page.getByRole("button", { name: "Replace them" }).click();
-    // 23 rows: the paired block follows the table's new rows, so it carries the caution about looking again.
-    await eventually(() => statusText(page)).toContain("The block was written to 'Paint line'!E1:F23");
+    // 24 rows: the paired block follows the table's new rows, so it shows the watching p-value beside the fixed one
+    // and carries the caution about looking again.
+    await eventually(() => statusText(page)).toContain("The block was written to 'Paint line'!E1:F24");
     expect(await rowOfLabel(page, 4, "Looking again as rows arrive")).toBeGreaterThan(0);
+    expect(await rowOfLabel(page, 4, "Watching p-value")).toBe((await rowOfLabel(page, 4, "p-value")) + 1);
     expect(await cellText(page, 4, 5)).not.toBe("keep me");
     const pLine = await rowOfLabel(page, 4, "p-value");
     expect(await cellText(page, pLine, 5)).toBe(expected);
