@@ -9,13 +9,13 @@
 import { DuckDBInstance, type DuckDBConnection } from "@duckdb/node-api";
 import type { Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { DEMO_SHEET, demoRows } from "../../src/demo/inventedData";
+import { DEMO_SHEET, demoRows, groupRows } from "../../src/demo/inventedData";
 import { bounds, pvalue } from "../../src/functions/functions";
 import { browserAvailable, closeSession, eventually, openDemo, snap, startSession, typeIntoCell, typeRange, type Session } from "./browser";
 
 const ANSWER = "Cells holding the pasted answer";
-/** Where the answers are typed: the header row at E1:J1, the numbers at E2:J2. */
-const COLUMNS = ["E", "F", "G", "H", "I", "J"];
+/** Where the answers are typed: the header row at E1, the numbers from E2 (a seventh column, K, for groups). */
+const COLUMNS = ["E", "F", "G", "H", "I", "J", "K"];
 
 describe.skipIf(!browserAvailable())("data in a database, on the demo page", () => {
   let session: Session;
@@ -33,6 +33,13 @@ describe.skipIf(!browserAvailable())("data in a database, on the demo page", () 
     await connection.run(`CREATE TABLE "paint ""line"" panels" ("Thickness (µm)" DOUBLE)`);
     const values = thickness.map(([x]) => (typeof x === "number" ? String(x) : "NULL"));
     await connection.run(`INSERT INTO "paint ""line"" panels" VALUES ${values.map((v) => `(${v})`).join(", ")}`);
+    // The demo's second sheet: panels from three lines, one with no line written down (a NULL group).
+    await connection.run(`CREATE TABLE line_panels (line VARCHAR, thickness DOUBLE)`);
+    const lines = groupRows()
+      .slice(1)
+      .filter((row) => typeof row[2] === "number")
+      .map((row) => `(${row[1] === null ? "NULL" : `'${row[1]}'`}, ${row[2]})`);
+    await connection.run(`INSERT INTO line_panels VALUES ${lines.join(", ")}`);
   });
 
   afterAll(async () => {
@@ -41,13 +48,30 @@ describe.skipIf(!browserAvailable())("data in a database, on the demo page", () 
     await closeSession(session);
   });
 
-  /** Runs a query shown by the pane in DuckDB and types its one answer row into E2:J2. */
-  async function runAndPaste(page: Page, which: "First" | "Second"): Promise<unknown[]> {
+  /** Runs a query shown by the pane in DuckDB and types its answer rows from E2 (blank for NULL). */
+  async function runAndPasteAll(page: Page, which: "First" | "Second"): Promise<unknown[][]> {
     const sql = await page.getByLabel(`${which} query`).innerText();
     const reader = await connection.runAndReadAll(sql);
-    const [row] = reader.getRows().map((r) => r.map((v) => (v === null ? null : Number(v))));
-    for (let i = 0; i < row.length; i++) if (row[i] !== null) await typeIntoCell(page, `${COLUMNS[i]}2`, String(row[i]));
-    return row;
+    const rows = reader.getRows().map((r) => r.map((v) => (v === null ? null : typeof v === "string" ? v : Number(v))));
+    for (const [r, row] of rows.entries())
+      for (let i = 0; i < row.length; i++) if (row[i] !== null) await typeIntoCell(page, `${COLUMNS[i]}${r + 2}`, String(row[i]));
+    return rows;
+  }
+
+  async function runAndPaste(page: Page, which: "First" | "Second"): Promise<unknown[]> {
+    return (await runAndPasteAll(page, which))[0];
+  }
+
+  /** The value beside a label in the block's label column (L by default), on the demo's first sheet. */
+  function valueBeside(page: Page, label: string, column = 11): Promise<unknown> {
+    return page.evaluate(
+      ([sheet, wanted, c]) => {
+        const book = window.evensplitDemo?.workbook;
+        for (let r = 0; r < 60; r++) if (book?.value(sheet, r, c) === wanted) return book.value(sheet, r, c + 1);
+        return undefined;
+      },
+      [DEMO_SHEET, label, column] as const,
+    );
   }
 
   it("gives the queries, reads the pasted answers and writes a block that equals PVALUE and BOUNDS on the column", async () => {
@@ -82,15 +106,7 @@ describe.skipIf(!browserAvailable())("data in a database, on the demo page", () 
     await eventually(() => page.locator(".es-status").innerText()).toContain("The block was written to 'Paint line'!L2:M");
     await snap(page, "database-block", true);
 
-    const valueOf = (label: string): Promise<unknown> =>
-      page.evaluate(
-        ([sheet, wanted]) => {
-          const book = window.evensplitDemo?.workbook;
-          for (let r = 0; r < 60; r++) if (book?.value(sheet, r, 11) === wanted) return book.value(sheet, r, 12);
-          return undefined;
-        },
-        [DEMO_SHEET, label] as const,
-      );
+    const valueOf = (label: string): Promise<unknown> => valueBeside(page, label);
     expect(await valueOf("p-value")).toBe(pvalue(thickness, 50, "greater"));
     const [lower, upper, coverage] = bounds(thickness, 0.95, "two-sided", "exact")[0];
     expect(await valueOf("95% bounds for the median (two-sided): lower")).toBe(lower);
@@ -100,6 +116,42 @@ describe.skipIf(!browserAvailable())("data in a database, on the demo page", () 
     const audit = String(await valueOf("Audit"));
     expect(audit).toContain('table paint "line" panels, column Thickness (µm); query SHA-256 ');
     expect(audit).toMatch(/SHA-256 [0-9a-f]{64}; reads \$E\$2:\$J\$2; written /);
+    await page.close();
+  });
+
+  it("with a group column: one answer row per group, and the block for the group chosen", async () => {
+    const page = await openDemo(session);
+    await page.getByRole("radio", { name: "Data in a database" }).check();
+    const part = page.locator(".es-database");
+    await part.getByLabel("Table", { exact: true }).fill("line_panels");
+    await part.getByLabel("Column with the values").fill("thickness");
+    await part.getByLabel("Group column (optional)").fill("line");
+    await part.getByLabel("Median the counts compare with").fill("50");
+    await eventually(() => page.getByLabel("First query").innerText()).toContain("SELECT line AS group_label, thickness AS measurement");
+    const first = await runAndPasteAll(page, "First");
+    // By hand from src/demo/inventedData.ts: East, North, South, and the panel with no line (NULL, sorted last).
+    expect(first.map((row) => row[0])).toEqual(["East", "North", "South", null]);
+    const end = first.length + 1;
+    await typeRange(page, ANSWER, `E2:K${end}`);
+    await eventually(() => part.locator(".es-database-next").innerText()).toContain("Run the second query");
+    await runAndPasteAll(page, "Second");
+    await typeRange(page, ANSWER, `E2:K${end}`);
+    await part.getByLabel("The block reads the row of group").selectOption({ label: "South" });
+    await eventually(() => part.locator(".es-database-next").innerText()).toBe("The answer is complete: go on to the question.");
+    await page.getByRole("button", { name: "Next: the question" }).click();
+    await page.getByRole("button", { name: "Next: settings" }).click();
+    await page.getByRole("button", { name: "Next: the result" }).click();
+    await page.getByRole("button", { name: /write the block$/i }).click();
+    await eventually(() => page.locator(".es-status").innerText()).toContain("The block was written to 'Paint line'!M4:N");
+    const south = groupRows()
+      .slice(1)
+      .filter((row) => row[1] === "South" && typeof row[2] === "number")
+      .map((row) => [row[2]]);
+    expect(await valueBeside(page, "Evensplit result", 12)).toBe("Sign test, one sample, from a database query, group South");
+    expect(await valueBeside(page, "p-value", 12)).toBe(pvalue(south, 50, "two-sided"));
+    const [lower, upper] = bounds(south, 0.95, "two-sided", "exact")[0];
+    expect(await valueBeside(page, "95% bounds for the median (two-sided): lower", 12)).toBe(lower);
+    expect(await valueBeside(page, "95% bounds for the median (two-sided): upper", 12)).toBe(upper);
     await page.close();
   });
 });
