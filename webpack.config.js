@@ -44,7 +44,9 @@ class HelpPagesPlugin {
         const source = fs.readFileSync(path.resolve(__dirname, functionsSource), "utf8");
         const help = helpFiles(metadata.source.source().toString(), source, fs.readFileSync(paneCss, "utf8"));
         compilation.updateAsset("functions.json", new webpack.sources.RawSource(help.metadataJson));
-        for (const [name, text] of help.files) compilation.emitAsset(name, new webpack.sources.RawSource(text));
+        // Marked minimized so webpack's own minimizer passes them by: it decoded &lt;&gt; in a word list to a bare "<>",
+        // which is not valid HTML. The pages are small and are served as written.
+        for (const [name, text] of help.files) compilation.emitAsset(name, new webpack.sources.RawSource(text), { minimized: true });
       });
     });
   }

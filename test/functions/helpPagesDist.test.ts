@@ -7,6 +7,8 @@
 import { createServer, type Server } from "node:http";
 import type { AddressInfo } from "node:net";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { readFileSync } from "node:fs";
+import { helpFiles } from "../../scripts/helpPages";
 import { staticHandler } from "../../scripts/staticFiles";
 import { DIST, distText } from "./dist";
 
@@ -34,5 +36,18 @@ describe("dist/functions.json's help links", () => {
       expect(response.headers.get("content-type")).toBe("text/html; charset=utf-8");
       expect(await response.text()).toContain(`EVENSPLIT.${fn.name}`);
     }
+  });
+
+  it("are the pages the generator writes, byte for byte: no later minimizer rewrites them (it once decoded &lt;&gt; to a bare <>)", () => {
+    const metadata = JSON.parse(distText("functions.json")) as { functions: { helpUrl?: string }[] };
+    // The generator's input is the metadata plugin's output, before help links were added.
+    for (const fn of metadata.functions) delete fn.helpUrl;
+    const expected = helpFiles(
+      JSON.stringify(metadata),
+      readFileSync("src/functions/functions.ts", "utf8"),
+      readFileSync("src/taskpane/taskpane.css", "utf8"),
+    );
+    for (const [name, text] of expected.files) expect(distText(name), name).toBe(text);
+    expect(distText("help/pvalue.html")).toContain("<code>&lt;&gt;</code>");
   });
 });
