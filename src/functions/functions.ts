@@ -824,6 +824,7 @@ function sprtOptions(p_above: unknown, alpha: unknown, beta: unknown): SprtOptio
   return { pAbove, alpha: errorI, beta: errorII };
 }
 
+/** The SPRT's one row: decision, rows (or pairs) read up to it, log likelihood ratio, accept limit, reject limit. */
 function sprtRow(r: SprtResult): unknown[][] {
   return [[r.decision, r.rowsUsed, r.logLikelihoodRatio, r.limits.acceptAt, r.limits.rejectAt]];
 }
@@ -845,7 +846,7 @@ function arrivingDifferencesOf(first: unknown, second: unknown, shift: number): 
  * @param second Range with the second measurement, same shape as first (such as after).
  * @param [shift] The median difference under test; default 0.
  * @param [alternative] "two-sided" (default), "greater" (second tends to exceed first + shift) or "less".
- * @param [ties] Zero differences: "drop" (default), "split" (taken in pairs, one below and one above) or "conservative".
+ * @param [ties] Differences equal to the shift: "drop" (default), "split" (taken two at a time, one below and one above) or "conservative".
  * @returns The p-value after the last pair.
  * @helpurl https://localhost:3000/help/pairedwatchpvalue.html
  * @example =EVENSPLIT.PAIREDWATCHPVALUE(Nozzle[Before], Nozzle[After], 0, "less") may be checked after every new panel measured before and after the nozzle change.
