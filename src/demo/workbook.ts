@@ -419,7 +419,8 @@ export class Workbook {
     const sheet = this.sheet(sheetName);
     const k = key(row, column);
     const cell = sheet.cells.get(k);
-    if (cell && cell.formula === null) return cell.constant;
+    // A cell that only carries a format is empty: a spill passes over it and shows there, as in Excel.
+    if (cell && cell.formula === null && cell.constant !== null) return cell.constant;
     const own = cell ? this.computed.get(sheet.name)?.get(k) : undefined;
     if (own !== undefined) return this.cellValue(own, sheet.name, row, column);
     return this.spilledValue(sheet.name, row, column);

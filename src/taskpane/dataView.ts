@@ -51,6 +51,16 @@ export function dataPage(heading: HTMLElement, events: DataEvents): DataPage {
         hint: "Two columns, a first and a second value for each item (such as before and after); the test looks at second − first.",
       },
       {
+        value: "two-groups",
+        label: "Two groups",
+        hint: "Two ranges from different items (such as line A and line B), of any sizes; compares them and estimates the shift between them.",
+      },
+      {
+        value: "groups",
+        label: "Several groups",
+        hint: "One range of values and a column beside it naming each value's group; compares all groups and gives a row for each.",
+      },
+      {
         value: "database",
         label: "Data in a database",
         hint: "Too many rows for a sheet: the pane gives the SQL to run in your own tool, and you paste its answer back.",
@@ -128,7 +138,7 @@ export function dataPage(heading: HTMLElement, events: DataEvents): DataPage {
   function render(view: DataView, texts: readonly string[]): void {
     kindGroup.set(view.kind);
     show(slotViews[0].element, view.database === null);
-    show(slotViews[1].element, view.paired);
+    show(slotViews[1].element, view.twoRanges);
     show(database.element, view.database !== null);
     if (view.database !== null) database.render(view.database, texts[0]);
     view.slots.forEach((slot, i) => {

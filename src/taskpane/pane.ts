@@ -13,7 +13,7 @@
  *
  * Cost: O(cells of the data) per render of the Result step's preview.
  */
-import { resultBlockRows, type CatalogueCall } from "../report/resultBlock";
+import type { CatalogueCall } from "../report/resultBlock";
 import { formatAddress, parseAddress } from "./a1";
 import { button, newId } from "./controls";
 import {
@@ -50,6 +50,7 @@ import {
   suggestTarget,
   targetFromSelection,
   targetPlace,
+  targetSize,
 } from "./resultState";
 import { resultPage } from "./resultView";
 import { setSetting, setWatching, settingsStepProblem, settingsView } from "./settingsState";
@@ -297,7 +298,8 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
     const built = currentRequest(state);
     if (!built.ok || !dataReady(state) || state.targetEdited) return;
     try {
-      const place = await defaultPlace(host, choices(state), resultBlockRows(built.request).length);
+      const size = targetSize(state, built.request, calculate);
+      const place = await defaultPlace(host, choices(state), size.rows, size.columns);
       update(suggestTarget(state, formatAddress({ ...place.rect, bottom: place.rect.top, right: place.rect.left })));
     } catch (thrown) {
       say(`The sheet could not be searched for an empty place: ${errorMessage(thrown)}`);
@@ -328,7 +330,7 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
   async function write(agreed: boolean): Promise<void> {
     const built = currentRequest(state);
     if (!built.ok || !dataReady(state) || state.busy) return;
-    const target = targetPlace(state, built.request);
+    const target = targetPlace(state, built.request, calculate);
     if (!target || !onSheet(target.rect)) {
       const message = target ? PAST_EDGE : NO_ADDRESS;
       result.targetProblem(message);

@@ -11,7 +11,7 @@
  */
 import type { BlockTest } from "../report/resultBlock";
 import type { Alternative } from "../stats/types";
-import { blockFollowsNewRows, choices } from "./dataState";
+import { blockFollowsNewRows, choices, dataKind, type DataKind } from "./dataState";
 import type { PaneState } from "./paneState";
 import { buildRequest, notation, type FieldName, type FieldProblem } from "./request";
 import { bodyOf } from "./workflow";
@@ -57,10 +57,12 @@ export function setQuantile(state: PaneState, quantile: string): PaneState {
   return { ...state, question: { ...state.question, quantile } };
 }
 
-/** The test that runs: pairs take no quantile test. */
+/** The test that runs: pairs take no quantile test; groups take their own tests, whatever was picked for one sample. */
 export function effectiveTest(state: PaneState): BlockTest {
   // A database query gives the sign counts only.
   if (state.database !== null) return "sign";
+  if (state.groups === "two") return "two-groups";
+  if (state.groups === "several") return "groups";
   return state.paired && state.question.test === "quantile" ? "sign" : state.question.test;
 }
 
@@ -73,7 +75,7 @@ export function effectiveTest(state: PaneState): BlockTest {
 export function currentRequest(state: PaneState): ReturnType<typeof buildRequest> {
   if (state.database !== null) return databaseRequest(state);
   const names = choices(state).map((choice) => bodyOf(choice).name);
-  const built = buildRequest(state.paired, state.question, state.settings, { data: names[0], second: names[1] });
+  const built = buildRequest(state.paired, state.question, state.settings, { data: names[0], second: names[1] }, state.groups);
   // The block learns whether it follows new rows and, if so, the Settings step's answer about looking again.
   if (!built.ok || !blockFollowsNewRows(state)) return built;
   return { ok: true, request: { ...built.request, followsNewRows: true, watching: state.watching } };
@@ -102,6 +104,9 @@ export function questionStepProblem(state: PaneState): string | null {
 
 /** What the Question step shows. */
 export interface QuestionView {
+  readonly kind: DataKind;
+  /** The choice of test is offered (one set of values or pairs; groups have their own tests, chosen in Settings). */
+  readonly showTests: boolean;
   readonly test: BlockTest;
   readonly quantileAvailable: boolean;
   /** False for a database query's answer, which holds the sign counts only. */
@@ -126,6 +131,7 @@ export interface QuestionView {
  * questionView(setCenter(state, "50"), false).h0; // "H0: median = 50"
  */
 export function questionView(state: PaneState, showStepProblems: boolean): QuestionView {
+  if (state.groups !== "none") return groupQuestionView(state, showStepProblems);
   const test = effectiveTest(state);
   // A database's pasted answer has no name row of its own: the column named for the query names the values.
   const column = state.database?.column.trim();
@@ -153,6 +159,8 @@ export function questionView(state: PaneState, showStepProblems: boolean): Quest
     ? notation({ test, paired: state.paired, center, alternative: question.alternative, quantile: Number.isFinite(q) ? q : 0.5 })
     : null;
   return {
+    kind: dataKind(state),
+    showTests: true,
     test,
     quantileAvailable: !state.paired && state.database === null,
     signedRankAvailable: state.database === null,
@@ -165,5 +173,71 @@ export function questionView(state: PaneState, showStepProblems: boolean): Quest
     h0: n ? n.h0 : "H0: …",
     h1: n ? n.h1 : "H1: …",
     symbol: n ? `${n.symbol}${pairNames}` : "Type the hypothesised value to see the hypotheses.",
+  };
+}
+
+function quoted(name: string | undefined, otherwise: string): string {
+  return name === undefined ? otherwise : `“${name}”`;
+}
+
+/**
+ * The Question step for groups. Two groups: the claim about how the second group lies against the first
+ * moved by a hypothesised shift (second − first, often 0), in plain words. Several groups: the test always
+ * asks whether the typical values differ between the groups; a target median is optional and, when given,
+ * each group is tested against it in the by-group table, in the chosen direction.
+ */
+function groupQuestionView(state: PaneState, showStepProblems: boolean): QuestionView {
+  const test = effectiveTest(state);
+  const names = choices(state).map((choice) => bodyOf(choice).name);
+  const { question } = state;
+  const problems = problemsFor(state, ["center"]);
+  const showCenterProblem = showStepProblems || (state.step >= 1 && (question.center !== "" || state.step > 1));
+  const typed = question.center.trim();
+  const value = Number(typed);
+  const known = typed !== "" && Number.isFinite(value);
+  const relation = { "two-sided": "≠", greater: ">", less: "<" }[question.alternative];
+  const common = {
+    kind: dataKind(state),
+    showTests: false,
+    test,
+    quantileAvailable: false,
+    signedRankAvailable: false,
+    showQuantile: false,
+    question,
+    centerProblem: showCenterProblem ? (problems.find((p) => p.field === "center")?.message ?? null) : null,
+    quantileProblem: null,
+  };
+  if (test === "two-groups") {
+    const first = quoted(names[0], "the first group");
+    const second = quoted(names[1], "the second group");
+    const moved = known && value !== 0 ? `${first} ${value > 0 ? "+" : "−"} ${Math.abs(value)}` : first;
+    const words: Record<string, string> = {
+      "two-sided": `the values of ${second} lie above or below those of ${moved}`,
+      greater: `the values of ${second} tend to lie above those of ${moved}`,
+      less: `the values of ${second} tend to lie below those of ${moved}`,
+    };
+    return {
+      ...common,
+      subjectLabel: `Compared with ${first} moved by the shift, the values of ${second} tend to be`,
+      centerLabel: `Hypothesised shift: how much ${second} lies above ${first} (second − first; 0 asks whether they differ at all)`,
+      h0: known ? `H0: ${second} and ${moved} have the same distribution` : "H0: …",
+      h1: known ? `H1: ${words[question.alternative]}` : "H1: …",
+      symbol: known
+        ? `The shift is second − first: a positive shift says ${second} is higher. The block also estimates the shift with bounds.`
+        : "Type the hypothesised shift (often 0) to see the hypotheses.",
+    };
+  }
+  const values = quoted(names[0], "the values");
+  const labels = quoted(names[1], "the group column");
+  const target = known
+    ? ` Each group's median is also tested against ${typed} (H1: median ${relation} ${typed}), with the p-values adjusted across the groups.`
+    : " No target median: the table by group gives counts, medians and bounds without p-values.";
+  return {
+    ...common,
+    subjectLabel: "Against the target, each group's median is",
+    centerLabel: "Target median for every group (optional)",
+    h0: `H0: the typical values of ${values} are the same in every group of ${labels}`,
+    h1: `H1: the typical values differ between at least two groups`,
+    symbol: `The test compares the groups with one another.${target}`,
   };
 }

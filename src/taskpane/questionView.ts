@@ -98,7 +98,8 @@ export function questionPage(heading: HTMLElement, events: QuestionEvents): Ques
   );
 
   function render(view: QuestionView): void {
-    testGroup.set(view.test);
+    show(testGroup.element, view.showTests);
+    if (view.showTests) testGroup.set(view.test);
     testGroup.enable("quantile", view.quantileAvailable, "it takes one set of values in the sheet.");
     testGroup.enable("signed-rank", view.signedRankAvailable, "a database query's answer holds the sign counts only.");
     show(quantileField.element, view.showQuantile);

@@ -56,6 +56,7 @@ function boundsWords(rows: (key: string) => PreviewRow | undefined): string {
  * //  95% bounds for the median: 50 to 52.7, exact coverage 98.31%."
  */
 export function reportSentence(request: BlockRequest, previewRows: readonly PreviewRow[]): string {
+  if (request.test === "two-groups" || request.test === "groups") return groupSentence(request, previewRows);
   const row = (key: string): PreviewRow | undefined => previewRows.find((r) => r.key === key);
   const shown = (key: string): string => row(key)?.shown ?? "";
   const total = Number(row(request.paired ? "pairs" : "numbers")?.value);
@@ -77,6 +78,47 @@ export function reportSentence(request: BlockRequest, previewRows: readonly Prev
 }
 
 /**
+ * The report sentence for groups. Two groups: both counts and medians, the p-value and decision, the shift
+ * with its bounds (read as a shift only for groups of the same shape). Several groups: the count, the
+ * p-value and decision, then each group's count and median from the table by group.
+ *
+ * @example
+ * groupSentence(twoGroupRequest, rows);
+ * // "Two groups, Wilcoxon–Mann–Whitney rank-sum test, H1: ...: n = 9 and 11; medians 50.4 and 51.7; p = 0.0012; Reject H0: ... at alpha = 0.05.
+ * //  Shift estimate ... 1.2, 95% bounds 0.6 to 1.9 (exact coverage 95.12%; a shift for groups of the same shape)."
+ */
+export function groupSentence(request: BlockRequest, previewRows: readonly PreviewRow[]): string {
+  const shown = (key: string): string => previewRows.find((r) => r.key === key)?.shown ?? "";
+  const start = `${shown("title")}, H1: ${shown("h1")}`;
+  const decision = `p = ${shown("pvalue")}; ${shown("decision")} at alpha = ${request.alpha}`;
+  if (request.test === "two-groups") {
+    const estimate = previewRows.find((r) => r.key === "estimate");
+    const bounds =
+      shown("lower") !== "" && shown("upper") !== ""
+        ? `, ${percent(request.confidence)} bounds ${shown("lower")} to ${shown("upper")} (exact coverage ${shown("coverage")}; a shift for groups of the same shape)`
+        : ", no bounds at this confidence level for these data";
+    const shift = estimate && estimate.shown !== "" ? ` ${estimate.label} ${estimate.shown}${bounds}.` : "";
+    return `${start}: n = ${shown("firstNumbers")} and ${shown("secondNumbers")}; medians ${shown("firstMedian")} and ${shown("secondMedian")}; ${decision}.${shift}`;
+  }
+  const table = previewRows.find((r) => r.table !== undefined)?.table?.shown ?? [];
+  const groups = table
+    .slice(1)
+    .filter((cells) => cells[2] !== "")
+    .map((cells) => `${cells[0]} n = ${cells[1]}, median ${cells[2]}`);
+  const byGroup = groups.length > 0 ? ` By group: ${groups.join("; ")}.` : "";
+  return `${start}: n = ${shown("numbers")}; ${decision}.${byGroup}`;
+}
+
+function percent(fraction: number): string {
+  return `${Number((fraction * 100).toPrecision(12))}%`;
+}
+
+/** The rows of a spilled table as text: one line per row, cells separated by tabs. */
+function tableText(shown: readonly (readonly string[])[]): string[] {
+  return shown.map((cells) => cells.join("\t"));
+}
+
+/**
  * The clipboard's two forms of the result: the sentence, then each row.
  *
  * @example
@@ -85,8 +127,18 @@ export function reportSentence(request: BlockRequest, previewRows: readonly Prev
 export function reportCopy(request: BlockRequest, previewRows: readonly PreviewRow[]): { text: string; html: string } {
   const sentence = reportSentence(request, previewRows);
   const value = (row: PreviewRow): string => (row.message ? `${row.shown} (${row.message})` : row.shown);
-  const text = [sentence, "", ...previewRows.map((row) => `${row.label}\t${value(row)}`)].join("\n");
-  const cells = previewRows.map((row) => `<tr><th>${escapeHtml(row.label)}</th><td>${escapeHtml(value(row))}</td></tr>`).join("");
+  const text = [
+    sentence,
+    "",
+    ...previewRows.flatMap((row) => (row.table ? tableText(row.table.shown) : [`${row.label}\t${value(row)}`])),
+  ].join("\n");
+  const cells = previewRows
+    .map((row) =>
+      row.table
+        ? `<tr><td colspan="2"><table>${row.table.shown.map((r) => `<tr>${r.map((cell) => `<td>${escapeHtml(cell)}</td>`).join("")}</tr>`).join("")}</table></td></tr>`
+        : `<tr><th>${escapeHtml(row.label)}</th><td>${escapeHtml(value(row))}</td></tr>`,
+    )
+    .join("");
   const html = `<p>${escapeHtml(sentence)}</p><table>${cells}</table>`;
   return { text, html };
 }

@@ -10,8 +10,9 @@
  *
  * Cost: O(length of the inputs).
  */
-import type { BlockRequest, BlockTest } from "../report/resultBlock";
-import type { Alternative, SignTestMethod, SignedRankMethod, TieRule, ZeroRule } from "../stats/types";
+import type { BlockRequest, BlockTest, ManyGroupMethod, TwoGroupMethod } from "../report/resultBlock";
+import type { AdjustMethod, Alternative, SignTestMethod, SignedRankMethod, TieRule, ZeroRule } from "../stats/types";
+import type { GroupsKind } from "./paneState";
 
 export interface QuestionForm {
   readonly test: BlockTest;
@@ -29,6 +30,12 @@ export interface SettingsForm {
   readonly signMethod: SignTestMethod;
   readonly rankMethod: SignedRankMethod;
   readonly zeros: ZeroRule;
+  /** Two groups: the rank-sum test (default) or Mood's median test. */
+  readonly twoGroupMethod: TwoGroupMethod;
+  /** Several groups: Mood's median test (default) or Kruskal–Wallis. */
+  readonly manyGroupMethod: ManyGroupMethod;
+  /** Several groups with a target median: how the by-group p-values are adjusted. */
+  readonly adjust: AdjustMethod;
 }
 
 export type FieldName = "center" | "quantile" | "alpha" | "confidence";
@@ -94,7 +101,9 @@ export function buildRequest(
   question: QuestionForm,
   settings: SettingsForm,
   names: DataNames,
+  groups: GroupsKind = "none",
 ): { readonly ok: true; readonly request: BlockRequest } | { readonly ok: false; readonly problems: readonly FieldProblem[] } {
+  if (groups !== "none") return buildGroupRequest(groups, question, settings, names);
   const problems: FieldProblem[] = [];
   const test: BlockTest = paired && question.test === "quantile" ? "sign" : question.test;
   const centerWhat = paired
@@ -124,6 +133,48 @@ export function buildRequest(
   if (test === "sign") return { ok: true, request: { ...base, ties: settings.ties, method: settings.signMethod } };
   if (test === "signed-rank") return { ok: true, request: { ...base, method: settings.rankMethod, zeros: settings.zeros } };
   return { ok: true, request: { ...base, quantile: quantile.value } };
+}
+
+/**
+ * The block request for independent groups: two groups take a shift (second − first, required, often 0) and
+ * the two-group method; several groups take an optional target median for the by-group table (blank: no
+ * target, no p-values there), the several-group method and the adjustment.
+ *
+ * @example
+ * buildGroupRequest("several", { test: "sign", alternative: "two-sided", center: "", quantile: "" }, settings, { data: "Thickness", second: "Line" });
+ * // { ok: true, request: { test: "groups", paired: false, center: 0, withTarget: false, method: "median", adjust: "holm", ... } }
+ */
+export function buildGroupRequest(
+  groups: Exclude<GroupsKind, "none">,
+  question: QuestionForm,
+  settings: SettingsForm,
+  names: DataNames,
+): { readonly ok: true; readonly request: BlockRequest } | { readonly ok: false; readonly problems: readonly FieldProblem[] } {
+  const problems: FieldProblem[] = [];
+  const blankTarget = groups === "several" && question.center.trim() === "";
+  const center = blankTarget
+    ? ({ ok: true, value: 0 } as const)
+    : readNumber(question.center, groups === "two" ? "The hypothesised shift" : "The target median");
+  if (!center.ok) problems.push({ field: "center", message: center.message });
+  const alpha = readFraction(settings.alpha, "Alpha");
+  if (!alpha.ok) problems.push({ field: "alpha", message: alpha.message });
+  const confidence = readFraction(settings.confidence, "The confidence level");
+  if (!confidence.ok) problems.push({ field: "confidence", message: confidence.message });
+  if (!center.ok || !alpha.ok || !confidence.ok) return { ok: false, problems };
+  const base = {
+    paired: false,
+    center: center.value,
+    alternative: question.alternative,
+    alpha: alpha.value,
+    confidence: confidence.value,
+    ...(names.data === undefined ? {} : { dataName: names.data }),
+    ...(names.second === undefined ? {} : { secondName: names.second }),
+  };
+  if (groups === "two") return { ok: true, request: { ...base, test: "two-groups", method: settings.twoGroupMethod } };
+  return {
+    ok: true,
+    request: { ...base, test: "groups", withTarget: !blankTarget, method: settings.manyGroupMethod, adjust: settings.adjust },
+  };
 }
 
 const RELATION: Readonly<Record<Alternative, string>> = { "two-sided": "≠", greater: ">", less: "<" };

@@ -18,7 +18,7 @@ import { choices, dataReady, referenceSentence } from "./dataState";
 import type { Confirmation, PaneState } from "./paneState";
 import { nullBars, type NullBar } from "./plot";
 import { numberLineLayout, type NumberLineInput } from "./plotView";
-import { blockPreview, type PreviewRow } from "./preview";
+import { blockPreview, blockSize, type PreviewRow } from "./preview";
 import { currentRequest } from "./questionState";
 import { blockInputs, blockRefs, bodyOf, chartSource, placeFromText, referenceOptions, tablesToCreate, type DataChoice } from "./workflow";
 import { onSheet, wordingRequest } from "./writePlan";
@@ -97,8 +97,32 @@ export function settleResult(state: PaneState): PaneState {
   // A database's values are not in the sheet: a chart of the pasted counts would mean nothing.
   if (state.chart && state.database !== null) return { ...state, chart: false };
   const c = choices(state);
-  if (!state.chart || c.length === 0 || chartSource(c, []) !== null) return state;
+  if (!state.chart || c.length === 0 || (state.groups !== "several" && chartSource(c, []) !== null)) return state;
   return { ...state, chart: false };
+}
+
+/**
+ * The preview rows of the block the state asks for, evaluated now.
+ *
+ * @example
+ * statePreview(state, request, callFunction).find((r) => r.key === "pvalue")?.shown; // "0.0133"
+ */
+export function statePreview(state: PaneState, request: BlockRequest, calculate: CatalogueCall): PreviewRow[] {
+  const c = choices(state);
+  return blockPreview(wordingRequest(request), blockInputs(c), blockRefs(c, state.reference, [], c[0].range.sheet), calculate);
+}
+
+/**
+ * The block's size: from its rows alone, or, when it spills a table by group, from the preview, since the
+ * table takes a row per group.
+ *
+ * @example
+ * targetSize(state, request, callFunction); // { rows: 24, columns: 2 }
+ */
+export function targetSize(state: PaneState, request: BlockRequest, calculate: CatalogueCall): { rows: number; columns: number } {
+  const rows = resultBlockRows(request);
+  if (!rows.some((row) => row.spill) || choices(state).length === 0) return { rows: rows.length, columns: 2 };
+  return blockSize(statePreview(state, request, calculate));
 }
 
 /**
@@ -107,10 +131,11 @@ export function settleResult(state: PaneState): PaneState {
  * @example
  * targetPlace(state, request); // { sheet: "Paint line", rect: { top: 0, left: 4, bottom: 20, right: 5 } }
  */
-export function targetPlace(state: PaneState, request: BlockRequest): { sheet: string; rect: CellRect } | null {
+export function targetPlace(state: PaneState, request: BlockRequest, calculate: CatalogueCall): { sheet: string; rect: CellRect } | null {
   const c = choices(state);
   if (c.length === 0) return null;
-  return placeFromText(state.target, c[0].range.sheet, resultBlockRows(request).length);
+  const size = targetSize(state, request, calculate);
+  return placeFromText(state.target, c[0].range.sheet, size.rows, size.columns);
 }
 
 /**
@@ -131,8 +156,13 @@ function numberOrNull(value: unknown): number | null {
 }
 
 /** Where the block goes, in words, and what is wrong with the place typed. */
-function placeOf(state: PaneState, request: BlockRequest, height: number): { targetHint: string; targetProblem: string | null } {
-  const target = targetPlace(state, request);
+function placeOf(
+  state: PaneState,
+  request: BlockRequest,
+  height: number,
+  calculate: CatalogueCall,
+): { targetHint: string; targetProblem: string | null } {
+  const target = targetPlace(state, request, calculate);
   const fits = target !== null && onSheet(target.rect);
   const targetHint = fits
     ? `The block takes 2 columns × ${height} rows: ${formatAddress(target.rect, target.sheet)}.${state.targetEdited ? "" : " Suggested: the first empty area to the right of the data."}`
@@ -202,12 +232,18 @@ export function resultView(state: PaneState, calculate: CatalogueCall): ResultVi
   if (state.step !== 3 || !built.ok || !dataReady(state)) return { ...EMPTY, ...fixed };
   const c = choices(state);
   const request = built.request;
-  const refs = blockRefs(c, state.reference, [], c[0].range.sheet);
-  const rows = blockPreview(wordingRequest(request), blockInputs(c), refs, calculate);
+  const rows = statePreview(state, request, calculate);
+  if (state.groups !== "none") return groupResultView(state, rows, fixed);
   const value = (key: string): unknown => rows.find((r) => r.key === key)?.value;
   // A database's values stay in the database: the pane holds only the pasted counts, so there is nothing to plot.
   if (state.database !== null)
-    return { ...EMPTY, ...fixed, rows, ...placeOf(state, request, rows.length), recap: databaseRecap(refs.data) };
+    return {
+      ...EMPTY,
+      ...fixed,
+      rows,
+      ...placeOf(state, request, rows.length, calculate),
+      recap: databaseRecap(blockRefs(c, state.reference, [], c[0].range.sheet).data),
+    };
   const values = plotValues(c);
   const what = state.paired ? "differences" : "values";
   const plot = { values, center: request.center, lower: numberOrNull(value("lower")), upper: numberOrNull(value("upper")), what };
@@ -240,7 +276,7 @@ export function resultView(state: PaneState, calculate: CatalogueCall): ResultVi
         ? `Bars: how likely each ${request.test === "quantile" ? "count below the hypothesised value" : "count above the hypothesised value"} is if H0 holds, for the ${used} values used; the observed count is marked.`
         : "",
     tooManyBars: state.showNull && countTest && bars.length === 0,
-    ...placeOf(state, request, rows.length),
+    ...placeOf(state, request, rows.length, calculate),
     recap: referenceSentence(state),
     chartAvailable: source !== null,
     makesTable: state.reference === "table" && !referenceOptions(c).allTableColumns && tablesToCreate(c).length > 0,
@@ -248,5 +284,45 @@ export function resultView(state: PaneState, calculate: CatalogueCall): ResultVi
       source === null
         ? "Not available: the two columns are not side by side."
         : `A clustered column chart of ${formatAddress(source.rect)}, linked to the same cells, placed to the right of the block.`,
+  };
+}
+
+/**
+ * The Result step for groups: the preview (the table by group included) and the place; no number line, since
+ * the groups' values are not one set to draw against one hypothesised value. A chart is offered for two
+ * groups side by side, never for a group column.
+ */
+function groupResultView(
+  state: PaneState,
+  rows: PreviewRow[],
+  fixed: Pick<ResultView, "busy" | "confirm" | "target" | "chart">,
+): ResultView {
+  const c = choices(state);
+  const size = blockSize(rows);
+  const target = placeFromText(state.target, c[0].range.sheet, size.rows, size.columns);
+  const fits = target !== null && onSheet(target.rect);
+  const table = rows.some((row) => row.table !== undefined) ? ", the table by group taking a row per group" : "";
+  const shape = `The block takes ${size.columns} columns × ${size.rows} rows${table}`;
+  const targetHint = fits
+    ? `${shape}: ${formatAddress(target.rect, target.sheet)}.${state.targetEdited ? "" : " Suggested: the first empty area to the right of the data."}`
+    : `${shape}; type the cell for its top-left corner, such as H1.`;
+  const targetProblem =
+    state.target.trim() === "" ? null : !target ? "That is not a cell address; type one such as H1." : fits ? null : PAST_EDGE;
+  const source = state.groups === "two" ? chartSource(c, []) : null;
+  return {
+    ...EMPTY,
+    ...fixed,
+    rows,
+    targetHint,
+    targetProblem,
+    recap: referenceSentence(state),
+    chartAvailable: source !== null,
+    makesTable: state.reference === "table" && !referenceOptions(c).allTableColumns && tablesToCreate(c).length > 0,
+    chartHint:
+      source !== null
+        ? `A clustered column chart of ${formatAddress(source.rect)}, linked to the same cells, placed to the right of the block.`
+        : state.groups === "two"
+          ? "Not available: the two columns are not side by side."
+          : "Not available for values with a group column.",
   };
 }

@@ -46,6 +46,25 @@ export interface ResultPage {
   targetProblem(message: string): void;
 }
 
+/** A spilled table as the sheet will show it: its first row as column headers, the rest as rows. */
+function spilledTable(shown: readonly (readonly string[])[]): HTMLElement {
+  const [header = [], ...body] = shown;
+  const table = el(
+    "table",
+    { class: "es-spill" },
+    el("thead", undefined, el("tr", undefined, ...header.map((cell) => el("th", { attrs: { scope: "col" } }, cell)))),
+    el(
+      "tbody",
+      undefined,
+      ...body.map((cells) =>
+        el("tr", undefined, ...cells.map((cell, c) => (c === 0 ? el("th", { attrs: { scope: "row" } }, cell) : el("td", undefined, cell)))),
+      ),
+    ),
+  );
+  // A narrow pane scrolls the table sideways rather than squeezing its eight columns.
+  return el("div", { class: "es-spill-box", attrs: { role: "region", "aria-label": "Table by group", tabindex: "0" } }, table);
+}
+
 /**
  * Builds the Result step under `heading`.
  *
@@ -72,6 +91,7 @@ export function resultPage(heading: HTMLElement, events: ResultEvents): ResultPa
   );
   const plotBox = el("div", { class: "es-plot-box" });
   const plotCaption = el("figcaption", { class: "es-hint" });
+  const plotFigure = el("figure", { class: "es-figure" }, plotBox, plotCaption);
   const nullBox = el("div", { class: "es-plot-box" });
   const nullCaption = el("figcaption", { class: "es-hint" });
   const nullFigure = el("figure", { class: "es-figure" }, nullBox, nullCaption);
@@ -130,7 +150,7 @@ export function resultPage(heading: HTMLElement, events: ResultEvents): ResultPa
       { class: "es-actions" },
       button("Copy as text", "secondary", () => events.copy()),
     ),
-    el("figure", { class: "es-figure" }, plotBox, plotCaption),
+    plotFigure,
     nullRow,
     nullFigure,
     formulas,
@@ -157,17 +177,19 @@ export function resultPage(heading: HTMLElement, events: ResultEvents): ResultPa
     replaceChildren(
       previewBody,
       ...view.rows.map((row) =>
-        el(
-          "tr",
-          { class: `es-row-${row.style}` },
-          el("th", { attrs: { scope: "row" } }, row.label),
-          el(
-            "td",
-            undefined,
-            row.shown === "" ? "—" : row.shown,
-            row.message ? el("span", { class: "es-cell-message" }, row.message) : null,
-          ),
-        ),
+        row.table
+          ? el("tr", { class: "es-row-spill" }, el("td", { attrs: { colspan: "2" } }, spilledTable(row.table.shown)))
+          : el(
+              "tr",
+              { class: `es-row-${row.style}` },
+              el("th", { attrs: { scope: "row" } }, row.label),
+              el(
+                "td",
+                undefined,
+                row.shown === "" ? "—" : row.shown,
+                row.message ? el("span", { class: "es-cell-message" }, row.message) : null,
+              ),
+            ),
       ),
     );
     if (view.rows.length > 0) {
@@ -179,6 +201,7 @@ export function resultPage(heading: HTMLElement, events: ResultEvents): ResultPa
       );
     }
     replaceChildren(plotBox, view.plot ? numberLinePlot(view.plot) : null);
+    show(plotFigure, view.plot !== null);
     if (view.plot) plotCaption.textContent = view.caption;
     show(nullRow, view.countTest);
     replaceChildren(nullBox, view.bars.length > 0 ? nullDistributionPlot(view.bars, view.barsWhat) : null);

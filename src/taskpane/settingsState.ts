@@ -65,6 +65,12 @@ export interface SettingsView {
   readonly quantileTest: boolean;
   /** What the signed-rank test sets aside, in words for one set of values or for pairs. */
   readonly zerosLabel: string;
+  /** Two groups: the choice of the rank-sum test or the median test. */
+  readonly twoGroups: boolean;
+  /** Several groups: the choice of the median test or the rank test, and the adjustment of the by-group p-values. */
+  readonly manyGroups: boolean;
+  /** The adjustment matters: several groups tested against a target median. */
+  readonly adjustUsed: boolean;
   /** The question about looking again as rows arrive is shown. */
   readonly asksWatching: boolean;
   readonly watching: boolean;
@@ -87,6 +93,9 @@ export function settingsView(state: PaneState): SettingsView {
     tiesChoice: test === "sign" && state.database === null,
     signedRank: test === "signed-rank",
     quantileTest: test === "quantile",
+    twoGroups: test === "two-groups",
+    manyGroups: test === "groups",
+    adjustUsed: test === "groups" && state.question.center.trim() !== "",
     zerosLabel: state.paired ? "Pairs whose difference equals the shift under test" : "Values that equal the median under test",
     asksWatching: asksWatching(state),
     watching: state.watching,

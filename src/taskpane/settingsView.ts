@@ -6,7 +6,9 @@
  * Cost: O(1) nodes per render.
  */
 import { EXACT_AUTO_LIMIT, EXACT_LIMIT } from "../stats/signedRank";
-import type { SignTestMethod, SignedRankMethod, TieRule, ZeroRule } from "../stats/types";
+import type { ManyGroupMethod, TwoGroupMethod } from "../report/resultBlock";
+import { EXACT_AUTO_SIZE, EXACT_AUTO_TIED_SIZE } from "../stats/rankSum";
+import type { AdjustMethod, SignTestMethod, SignedRankMethod, TieRule, ZeroRule } from "../stats/types";
 import { button, field, hintFor, selectControl, setProblem, textInput, type Choice } from "./controls";
 import { el, show } from "./dom";
 import type { SettingsForm } from "./request";
@@ -48,6 +50,48 @@ const ZERO_CHOICES: readonly Choice<ZeroRule>[] = [
     value: "pratt",
     label: "Rank them, then leave them out of V (Pratt)",
     hint: "They take part in the ranking, which shifts the other ranks up.",
+  },
+];
+
+const TWO_GROUP_CHOICES: readonly Choice<TwoGroupMethod>[] = [
+  {
+    value: "rank-sum",
+    label: "Rank-sum test, Wilcoxon–Mann–Whitney (default)",
+    hint: `Ranks all values together; exact up to ${EXACT_AUTO_SIZE} values without ties (${EXACT_AUTO_TIED_SIZE} with ties), normal approximation beyond. It compares whole distributions.`,
+  },
+  {
+    value: "median",
+    label: "Median test (Mood)",
+    hint: "Counts each group's values above the pooled median; Fisher's exact test. Asks about the medians alone, with less power when the shapes match.",
+  },
+];
+
+const MANY_GROUP_CHOICES: readonly Choice<ManyGroupMethod>[] = [
+  {
+    value: "median",
+    label: "Median test (Mood, default)",
+    hint: "Counts each group's values above the pooled median: asks about the medians alone, whatever the shapes.",
+  },
+  {
+    value: "rank",
+    label: "Rank test (Kruskal–Wallis)",
+    hint: "Ranks all values together: more power when the groups have the same shape; it compares whole distributions.",
+  },
+];
+
+const ADJUST_CHOICES: readonly Choice<AdjustMethod>[] = [
+  {
+    value: "holm",
+    label: "Holm (default)",
+    hint: "Keeps the chance of any false alarm across the groups at alpha; never weaker than Bonferroni.",
+  },
+  { value: "bonferroni", label: "Bonferroni", hint: "Each p-value times the number of groups: the simplest, most cautious choice." },
+  { value: "hochberg", label: "Hochberg", hint: "Like Holm, a little more power; assumes the groups' tests are not negatively related." },
+  { value: "bh", label: "Benjamini–Hochberg", hint: "Keeps the expected share of false alarms among the groups flagged at alpha." },
+  {
+    value: "by",
+    label: "Benjamini–Yekutieli",
+    hint: "Like Benjamini–Hochberg, valid however the groups' tests are related; more cautious.",
   },
 ];
 
@@ -117,6 +161,22 @@ export function settingsPage(heading: HTMLElement, events: SettingsEvents): Sett
   rankMethodField.control.addEventListener("change", () => events.setting("rankMethod", rankMethodField.control.value as SignedRankMethod));
   const zerosField = field("Values that equal the median under test", selectControl(ZERO_CHOICES, "drop"), hintFor(ZERO_CHOICES, "drop"));
   zerosField.control.addEventListener("change", () => events.setting("zeros", zerosField.control.value as ZeroRule));
+  const twoGroupField = field("Test for two groups", selectControl(TWO_GROUP_CHOICES, "rank-sum"), hintFor(TWO_GROUP_CHOICES, "rank-sum"));
+  twoGroupField.control.addEventListener("change", () => events.setting("twoGroupMethod", twoGroupField.control.value as TwoGroupMethod));
+  const manyGroupField = field(
+    "Test for several groups",
+    selectControl(MANY_GROUP_CHOICES, "median"),
+    hintFor(MANY_GROUP_CHOICES, "median"),
+  );
+  manyGroupField.control.addEventListener("change", () =>
+    events.setting("manyGroupMethod", manyGroupField.control.value as ManyGroupMethod),
+  );
+  const adjustField = field(
+    "Adjusting the p-values of the groups' table",
+    selectControl(ADJUST_CHOICES, "holm"),
+    hintFor(ADJUST_CHOICES, "holm"),
+  );
+  adjustField.control.addEventListener("change", () => events.setting("adjust", adjustField.control.value as AdjustMethod));
   const lookingField = field(
     "Will you look at this result again as new rows arrive?",
     selectControl(LOOKING_CHOICES, "once"),
@@ -134,6 +194,9 @@ export function settingsPage(heading: HTMLElement, events: SettingsEvents): Sett
     signMethodField.element,
     rankMethodField.element,
     zerosField.element,
+    twoGroupField.element,
+    manyGroupField.element,
+    adjustField.element,
     lookingField.element,
     quantileNote,
     el(
@@ -155,6 +218,15 @@ export function settingsPage(heading: HTMLElement, events: SettingsEvents): Sett
     keep(signMethodField.control, settings.signMethod);
     keep(rankMethodField.control, settings.rankMethod);
     keep(zerosField.control, settings.zeros);
+    keep(twoGroupField.control, settings.twoGroupMethod);
+    keep(manyGroupField.control, settings.manyGroupMethod);
+    keep(adjustField.control, settings.adjust);
+    show(twoGroupField.element, view.twoGroups);
+    show(manyGroupField.element, view.manyGroups);
+    show(adjustField.element, view.adjustUsed);
+    twoGroupField.hint.textContent = hintFor(TWO_GROUP_CHOICES, settings.twoGroupMethod);
+    manyGroupField.hint.textContent = hintFor(MANY_GROUP_CHOICES, settings.manyGroupMethod);
+    adjustField.hint.textContent = hintFor(ADJUST_CHOICES, settings.adjust);
     const looking: LookingAgain = view.watching ? "again" : "once";
     keep(lookingField.control, looking);
     setProblem(alphaField, view.alphaProblem);

@@ -17,7 +17,7 @@ import { formatAddress, LAST_ROW, parseAddress, rectsOverlap, type CellRect } fr
 import { headerName, tablePlace, tallyCells, type CellTally, type TablePlace } from "./dataInfo";
 import type { CellsRead, Host, SheetRect, TableInfo } from "./host";
 import { blockRect, cellContents, filledCells, firstFreeColumn, type FilledCell } from "./placement";
-import { blockPreview, blockWrite, type BlockRefs, type PreviewRow } from "./preview";
+import { blockPreview, blockSize, blockWrite, type BlockRefs, type PreviewRow } from "./preview";
 import { absoluteReference, openEnded, structuredReference } from "./references";
 import {
   BLOCK_NAME_PREFIX,
@@ -264,23 +264,28 @@ export function blockInputs(choices: readonly DataChoice[]): BlockInputs {
 }
 
 /**
- * The default place of a block `height` rows tall and two columns wide: the
- * first empty area to the right of the data with an empty column before it,
- * level with the data's first row.
+ * The default place of a block `height` rows tall and `width` columns wide (two: label and value; more for a
+ * spilled table): the first empty area to the right of the data with an empty column before it, level with
+ * the data's first row.
  *
  * @example
  * await defaultPlace(host, [{ range, useHeader: true }], 23); // { sheet: "Paint line", rect: { top: 0, left: 4, bottom: 22, right: 5 } }
  */
-export async function defaultPlace(host: Host, choices: readonly DataChoice[], height: number): Promise<{ sheet: string; rect: CellRect }> {
+export async function defaultPlace(
+  host: Host,
+  choices: readonly DataChoice[],
+  height: number,
+  width = 2,
+): Promise<{ sheet: string; rect: CellRect }> {
   const sheet = choices[0].range.sheet;
   const onSheet = choices.filter((c) => c.range.sheet === sheet).map((c) => c.range.rect);
   const top = Math.min(...onSheet.map((r) => r.top));
   const start = Math.max(...onSheet.map((r) => r.right)) + 2;
   const used = await host.usedRect(sheet);
-  const stripRight = Math.max(start + 1, (used?.right ?? start) + 1);
+  const stripRight = Math.max(start + width - 1, (used?.right ?? start) + 1);
   const strip = await host.read(formatAddress({ top, bottom: top + height - 1, left: start - 1, right: stripRight }, sheet));
-  const column = strip ? firstFreeColumn(strip, start, 2) : start;
-  return { sheet, rect: blockRect({ row: top, column }, height, 2) };
+  const column = strip ? firstFreeColumn(strip, start, width) : start;
+  return { sheet, rect: blockRect({ row: top, column }, height, width) };
 }
 
 /**
@@ -290,10 +295,10 @@ export async function defaultPlace(host: Host, choices: readonly DataChoice[], h
  * @example
  * placeFromText("E1", "Paint line", 23); // { sheet: "Paint line", rect: { top: 0, left: 4, bottom: 22, right: 5 } }
  */
-export function placeFromText(text: string, defaultSheet: string, height: number): { sheet: string; rect: CellRect } | null {
+export function placeFromText(text: string, defaultSheet: string, height: number, width = 2): { sheet: string; rect: CellRect } | null {
   const parsed = parseAddress(text);
   if (!parsed) return null;
-  return { sheet: parsed.sheet ?? defaultSheet, rect: blockRect({ row: parsed.top, column: parsed.left }, height, 2) };
+  return { sheet: parsed.sheet ?? defaultSheet, rect: blockRect({ row: parsed.top, column: parsed.left }, height, width) };
 }
 
 /**
@@ -411,7 +416,9 @@ export function planWrite(
   }
   const refs = blockRefs(plan.choices, plan.reference, tables, target.sheet);
   const rows = blockPreview(wordingRequest(plan.request), blockInputs(plan.choices), refs, plan.calculate);
-  const block = blockWrite(rows, target.sheet, target.rect);
+  // The block takes the size its rows give (a table by group takes a row per group) from the target's top-left cell.
+  const size = blockSize(rows);
+  const block = blockWrite(rows, target.sheet, blockRect({ row: target.rect.top, column: target.rect.left }, size.rows, size.columns));
   const blockName = freeName(BLOCK_NAME_PREFIX, names);
   names.push(blockName);
   const source = plan.chart ? chartSource(plan.choices, tables) : null;
@@ -514,6 +521,10 @@ export async function writeResult(host: Host, plan: WritePlan): Promise<WriteOut
   );
   if (!planned.ok) return { kind: "refused", message: planned.message };
   const { write } = planned;
+  // The place read and listed must be exactly the block's: otherwise cells outside the listing would be written.
+  if (formatAddress(write.block.rect) !== formatAddress(place.rect)) {
+    return { kind: "refused", message: "The block's size changed since the place was chosen (the data changed): press Write again." };
+  }
   const region: SheetRect[] = [{ sheet: place.sheet, rect: place.rect }, ...write.replaces.map((b) => ({ sheet: b.sheet, rect: b.rect }))];
   const reads: CellsRead[] = [place];
   for (const earlier of write.replaces) {

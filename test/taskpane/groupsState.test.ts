@@ -9,8 +9,13 @@ import { GROUPS_SHEET, groupRows } from "../../src/demo/inventedData";
 import { Workbook } from "../../src/demo/workbook";
 import { choices, dataKind, dataReady, dataStepProblem, dataView, setDataKind, setUseHeader, slotRead } from "../../src/taskpane/dataState";
 import { createHost, type Host } from "../../src/taskpane/host";
-import { initialState, type PaneState } from "../../src/taskpane/paneState";
-import { setCenter } from "../../src/taskpane/questionState";
+import { callFunction } from "../../src/functions/functions";
+import { resultBlockRows } from "../../src/report/resultBlock";
+import { atStep, initialState, type PaneState } from "../../src/taskpane/paneState";
+import { currentRequest, questionStepProblem, questionView, setAlternative, setCenter } from "../../src/taskpane/questionState";
+import { reportCopy } from "../../src/taskpane/reportText";
+import { resultView, setChart, setTarget, settleResult, suggestTarget, targetSize } from "../../src/taskpane/resultState";
+import { setSetting, settingsView } from "../../src/taskpane/settingsState";
 import { analyzeRange } from "../../src/taskpane/workflow";
 
 function host(extra: { row: number; column: number; rows: unknown[][] } | null = null): Host {
@@ -100,3 +105,128 @@ describe("several groups from values and a group column", () => {
     expect(dataStepProblem(state)).toBe("The group column names only one group with numbers (“Day”): several groups need at least two.");
   });
 });
+
+async function twoGroups(): Promise<PaneState> {
+  return withRange(await withRange(setDataKind(initialState(), "two-groups"), 0, "E1:E12"), 1, "F1:F12");
+}
+
+async function severalGroups(): Promise<PaneState> {
+  return withRange(await withRange(setDataKind(initialState(), "groups"), 0, "C1:C20"), 1, "B1:B20");
+}
+
+describe("the Question step for groups", () => {
+  it("two groups: a shift second − first in words, required, with the test of the kind", async () => {
+    const state = atStep(await twoGroups(), 1);
+    const view = questionView(setCenter(state, "0.5"), false);
+    expect(view.showTests).toBe(false);
+    expect(view.test).toBe("two-groups");
+    expect(view.centerLabel).toBe(
+      "Hypothesised shift: how much “New supplier (µm)” lies above “Old supplier (µm)” (second − first; 0 asks whether they differ at all)",
+    );
+    expect(view.h0).toBe("H0: “New supplier (µm)” and “Old supplier (µm)” + 0.5 have the same distribution");
+    expect(questionView(setAlternative(setCenter(state, "0"), "greater"), false).h1).toBe(
+      "H1: the values of “New supplier (µm)” tend to lie above those of “Old supplier (µm)”",
+    );
+    expect(questionStepProblem(setCenter(state, ""))).toBe("The hypothesised shift is empty: type a number.");
+    const built = currentRequest(setCenter(state, "0.5"));
+    expect(built.ok && built.request).toMatchObject({
+      test: "two-groups",
+      paired: false,
+      center: 0.5,
+      method: "rank-sum",
+      dataName: "Old supplier (µm)",
+      secondName: "New supplier (µm)",
+    });
+  });
+
+  it("several groups: any difference between the groups, and an optional target median for the table", async () => {
+    const state = atStep(await severalGroups(), 1);
+    expect(questionStepProblem(state)).toBeNull();
+    const none = currentRequest(state);
+    expect(none.ok && none.request).toMatchObject({
+      test: "groups",
+      withTarget: false,
+      method: "median",
+      adjust: "holm",
+      secondName: "Line",
+    });
+    expect(questionView(state, false).h0).toBe("H0: the typical values of “Thickness (µm)” are the same in every group of “Line”");
+    expect(questionView(state, false).symbol).toContain("No target median");
+    const target = currentRequest(setCenter(state, "50"));
+    expect(target.ok && target.request).toMatchObject({ withTarget: true, center: 50 });
+    expect(questionView(setCenter(state, "50"), false).symbol).toContain("tested against 50 (H1: median ≠ 50)");
+    expect(questionStepProblem(setCenter(state, "fifty"))).toContain("The target median must be a plain number");
+  });
+});
+
+describe("the Settings step for groups", () => {
+  it("offers each kind's methods, and the adjustment only with a target", async () => {
+    const two = settingsView(await twoGroups());
+    expect([two.twoGroups, two.manyGroups, two.signTest, two.signedRank, two.asksWatching]).toEqual([true, false, false, false, false]);
+    const several = await severalGroups();
+    expect(settingsView(several).manyGroups).toBe(true);
+    expect(settingsView(several).adjustUsed).toBe(false);
+    expect(settingsView(setCenter(several, "50")).adjustUsed).toBe(true);
+    const built = currentRequest(setSetting(setSetting(setCenter(several, "50"), "manyGroupMethod", "rank"), "adjust", "bh"));
+    expect(built.ok && built.request).toMatchObject({ method: "rank", adjust: "bh" });
+    const median = currentRequest(setSetting(await twoGroups(), "twoGroupMethod", "median"));
+    expect(median.ok && median.request.method).toBe("median");
+  });
+});
+
+describe("the Result step for groups", () => {
+  it("two groups: the preview from the same core, no number line, the block two columns wide", async () => {
+    const view = resultView(atStep(await twoGroups(), 3), callFunction);
+    const shown = (key: string): unknown => view.rows.find((r) => r.key === key)?.value;
+    // By hand from the invented data: 9 and 11 numbers, medians 50.4 and 51.7.
+    expect([shown("firstNumbers"), shown("secondNumbers"), shown("firstMedian"), shown("secondMedian")]).toEqual([9, 11, 50.4, 51.7]);
+    expect(shown("pvalue")).toBe(callFunction("TWOGROUPS", [column(4, 11), column(5, 11), 0, "two-sided", "rank-sum"]));
+    expect(view.plot).toBeNull();
+    expect(view.targetHint).toContain("The block takes 2 columns ×");
+  });
+
+  it("several groups: the table by group spills k + 2 rows (header, three lines, the skipped row) and eight columns", async () => {
+    const state = atStep(setCenter(await severalGroups(), "50"), 3);
+    const request = currentRequest(state);
+    if (!request.ok) throw new Error("request");
+    const size = targetSize(state, request.request, callFunction);
+    const rows = resultBlockRows(request.request).length;
+    expect(size).toEqual({ rows: rows - 1 + 5, columns: 8 });
+    const view = resultView(suggestTarget(state, "H1"), callFunction);
+    expect(view.targetHint).toBe(
+      `The block takes 8 columns × ${size.rows} rows, the table by group taking a row per group: 'Paint lines'!H1:O${size.rows}. Suggested: the first empty area to the right of the data.`,
+    );
+    const table = view.rows.find((r) => r.key === "byGroup")?.table?.shown ?? [];
+    expect(table.map((cells) => cells[0])).toEqual(["Group", "North", "South", "East", "Rows without a usable label (skipped)"]);
+    expect(view.chartAvailable).toBe(false);
+    expect(settleResult(setChart(state, true)).chart).toBe(false);
+    // A place near the sheet's right edge is refused for the whole table, not only the two label and value columns.
+    expect(resultView(setTarget(state, "XFA1"), callFunction).targetProblem).toContain("does not fit");
+  });
+
+  it("copies a sentence with each group, and the table as tab-separated lines", async () => {
+    const state = atStep(setCenter(await severalGroups(), "50"), 3);
+    const request = currentRequest(state);
+    if (!request.ok) throw new Error("request");
+    const rows = resultView(state, callFunction).rows;
+    const copy = reportCopy(request.request, rows);
+    expect(copy.text.split("\n")[0]).toMatch(
+      /^Several groups, Mood's median test, H1: .*: n = 19; p = .*; .* at alpha = 0\.05\. By group: North n = 6, median /,
+    );
+    expect(copy.text).toContain("Group\tCount\tMedian\tLower bound\tUpper bound\tCoverage\tSign-test p\tAdjusted p");
+    expect(copy.html).toContain("<td>North</td>");
+    const two = atStep(await twoGroups(), 3);
+    const twoRequest = currentRequest(two);
+    if (!twoRequest.ok) throw new Error("request");
+    expect(reportCopy(twoRequest.request, resultView(two, callFunction).rows).text.split("\n")[0]).toMatch(
+      /^Two groups, Wilcoxon–Mann–Whitney rank-sum test, H1: .*: n = 9 and 11; medians 50\.4 and 51\.7; p = .*Shift estimate, .* 95% bounds .* to .* \(exact coverage .*; a shift for groups of the same shape\)\.$/,
+    );
+  });
+});
+
+/** A column of the groups sheet's body (rows 2 to rows + 1) as Range.values gives it. */
+function column(c: number, rows: number): unknown[][] {
+  return groupRows()
+    .slice(1, rows + 1)
+    .map((row) => [row[c] ?? ""]);
+}

@@ -9,7 +9,17 @@ import { blockRect, filledCells, firstFreeColumn } from "../../src/taskpane/plac
 import { absoluteReference, openEnded, structuredReference } from "../../src/taskpane/references";
 import { buildRequest, notation, readFraction, readNumber } from "../../src/taskpane/request";
 
-const SETTINGS = { alpha: "0.05", confidence: "0.95", ties: "drop", signMethod: "exact", rankMethod: "auto", zeros: "drop" } as const;
+const SETTINGS = {
+  alpha: "0.05",
+  confidence: "0.95",
+  ties: "drop",
+  signMethod: "exact",
+  rankMethod: "auto",
+  zeros: "drop",
+  twoGroupMethod: "rank-sum",
+  manyGroupMethod: "median",
+  adjust: "holm",
+} as const;
 
 describe("reading typed numbers", () => {
   it("accepts plain numbers and refuses commas, units and empty fields with a reason", () => {
