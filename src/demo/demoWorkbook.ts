@@ -1,6 +1,6 @@
 /**
  * The demo page's workbook as it opens: the sheet "Paint line" with the
- * invented panels (inventedData.ts), the sheet "Paint lines" with invented
+ * invented panels (inventedData.ts), the sheet "Lines and suppliers" with invented
  * panels from several lines and two suppliers, and the sheet "README examples" with the
  * tables and names the README's example formulas use (readmeData.ts).
  *

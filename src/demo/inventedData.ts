@@ -65,7 +65,7 @@ export function extraPanel(index: number): [string, number, number] {
 }
 
 /** The second demo sheet: panels from several paint lines, and two suppliers' paint compared. */
-export const GROUPS_SHEET = "Paint lines";
+export const GROUPS_SHEET = "Lines and suppliers";
 
 /** Panels from three lines (invented): panel, line, thickness; one panel's line was not written down (blank label). */
 const LINE_PANELS: readonly (readonly [string, string | null, number])[] = [

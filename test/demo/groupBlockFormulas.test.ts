@@ -2,7 +2,7 @@
  * The two-group and several-group blocks two ways: their formulas entered in
  * the demo sheet and calculated by its evaluator with the catalogue's
  * functions, against direct evaluation (blockValue with callFunction) on the
- * invented "Paint lines" sheet (src/demo/inventedData.ts). Every row must
+ * invented "Lines and suppliers" sheet (src/demo/inventedData.ts). Every row must
  * agree, and the by-group table spilled in the sheet must equal the matrix
  * BYGROUP answers directly, cell by cell. Hand counts are from that file.
  */

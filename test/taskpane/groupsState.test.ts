@@ -1,7 +1,7 @@
 /**
  * The Data step's state for independent groups: two groups from two ranges,
  * and several groups from values with a group column, on the invented sheet
- * "Paint lines" (src/demo/inventedData.ts). Counts are by hand from that file.
+ * "Lines and suppliers" (src/demo/inventedData.ts). Counts are by hand from that file.
  */
 import { describe, expect, it } from "vitest";
 import { fakeRun } from "../../src/demo/fakeExcel";
@@ -43,9 +43,9 @@ describe("choosing the kind of data", () => {
   it("drops the second range when it changes meaning (a group column is not a second group)", async () => {
     const two = await withRange(await withRange(setDataKind(initialState(), "two-groups"), 0, "E1:E12"), 1, "F1:F12");
     expect(choices(two)).toHaveLength(2);
-    expect(setDataKind(two, "pairs").slots[1].text).toBe("'Paint lines'!F1:F12");
+    expect(setDataKind(two, "pairs").slots[1].text).toBe("'Lines and suppliers'!F1:F12");
     expect(setDataKind(two, "groups").slots[1].range).toBeNull();
-    expect(setDataKind(two, "groups").slots[0].text).toBe("'Paint lines'!E1:E12");
+    expect(setDataKind(two, "groups").slots[0].text).toBe("'Lines and suppliers'!E1:E12");
   });
 
   it("asks for what each kind needs", () => {
@@ -83,7 +83,7 @@ describe("several groups from values and a group column", () => {
     expect(view.slots[1].label).toBe("Group column (the group of each value, beside it)");
     // By hand: North 6, South 6, East 6 panels; Q-210 has no line and is skipped.
     expect(view.slots[1].summary).toBe(
-      "'Paint lines'!B2:B20: 3 groups with numbers counted — “North” (6), “South” (6), “East” (6). 1 row has a blank or error label and is skipped. Name: “Line”.",
+      "'Lines and suppliers'!B2:B20: 3 groups with numbers counted — “North” (6), “South” (6), “East” (6). 1 row has a blank or error label and is skipped. Name: “Line”.",
     );
   });
 
@@ -194,7 +194,7 @@ describe("the Result step for groups", () => {
     expect(size).toEqual({ rows: rows - 1 + 5, columns: 8 });
     const view = resultView(suggestTarget(state, "H1"), callFunction);
     expect(view.targetHint).toBe(
-      `The block takes 8 columns × ${size.rows} rows, the table by group taking a row per group: 'Paint lines'!H1:O${size.rows}. Suggested: the first empty area to the right of the data.`,
+      `The block takes 8 columns × ${size.rows} rows, the table by group taking a row per group: 'Lines and suppliers'!H1:O${size.rows}. Suggested: the first empty area to the right of the data.`,
     );
     const table = view.rows.find((r) => r.key === "byGroup")?.table?.shown ?? [];
     expect(table.map((cells) => cells[0])).toEqual(["Group", "North", "South", "East", "Rows without a usable label (skipped)"]);
