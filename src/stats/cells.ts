@@ -247,10 +247,23 @@ export function boundedNumbersFromCells(cells: readonly (readonly unknown[])[], 
   return { values, refused: null };
 }
 
+/** Slots of the table that finds the one-cell row already made for a value (2^17: 1.5 MB, kept between calls). */
+const ROW_SLOTS = 1 << 17;
+/** Distinct values given a shared row, at most: past this (half the table) further values get rows of their own. */
+const SHARED_ROWS = ROW_SLOTS >> 1;
+const ROW_KEYS = new Float64Array(ROW_SLOTS);
+/** Index + 1 of the row holding the key's value, 0 for an empty slot. */
+const ROW_OF = new Int32Array(ROW_SLOTS);
+const KEY_BITS = new Float64Array(1);
+const KEY_WORDS = new Uint32Array(KEY_BITS.buffer);
+
 /**
  * A matrix of the shape of `cells` holding values[k] in reading order, with `blank` where values[k] is
- * NaN: the answer of a function that returns a range the shape of its input. One-cell rows are built as
- * literals, the cheapest array the engine makes.
+ * NaN: the answer of a function that returns a range the shape of its input. For a one-column range,
+ * rows holding the same value are the same one-cell array (found through a hash table on the value's
+ * bits, multiplicative hashing as in distinctValues.ts): the host copies the answer, and a column of a
+ * million adjusted p-values holds far fewer distinct ones, so most of a million small arrays, and the
+ * collections that promote them, are saved. Callers must not change the rows.
  *
  * @example
  * cellsFromValues([[1, 2], [3, 4]], [0.5, NaN, 1, 0.25], ""); // [[0.5, ""], [1, 0.25]]
@@ -263,13 +276,7 @@ export function cellsFromValues(
   const rows = cells.length;
   const width = rows === 0 ? 0 : cells[0].length;
   const out: (number | string)[][] = new Array(rows);
-  if (width === 1) {
-    for (let r = 0; r < rows; r++) {
-      const v = values[r];
-      out[r] = [v === v ? v : blank];
-    }
-    return out;
-  }
+  if (width === 1) return sharedRows(values, rows, blank, out);
   for (let r = 0, k = 0; r < rows; r++) {
     const row: (number | string)[] = new Array(width);
     for (let c = 0; c < width; c++, k++) {
@@ -277,6 +284,43 @@ export function cellsFromValues(
       row[c] = v === v ? v : blank;
     }
     out[r] = row;
+  }
+  return out;
+}
+
+/** One-cell rows for values[0..rows), equal values sharing a row (see cellsFromValues). */
+function sharedRows(values: ArrayLike<number>, rows: number, blank: number | string, out: (number | string)[][]): (number | string)[][] {
+  const made: (number | string)[][] = [];
+  const blankRow = [blank];
+  ROW_OF.fill(0);
+  let last = NaN;
+  let lastRow = blankRow;
+  for (let r = 0; r < rows; r++) {
+    const v = values[r] + 0; // -0 and +0 show alike
+    if (v !== v) {
+      out[r] = blankRow;
+      continue;
+    }
+    if (v === last) {
+      out[r] = lastRow;
+      continue;
+    }
+    KEY_BITS[0] = v;
+    let slot = Math.imul(KEY_WORDS[0] ^ Math.imul(KEY_WORDS[1], 0x9e3779b1), 0x85ebca6b) >>> 15; // 17 bits
+    while (ROW_OF[slot] !== 0 && ROW_KEYS[slot] !== v) slot = (slot + 1) & (ROW_SLOTS - 1);
+    let row: (number | string)[];
+    if (ROW_OF[slot] !== 0) row = made[ROW_OF[slot] - 1];
+    else {
+      row = [v];
+      if (made.length < SHARED_ROWS) {
+        made.push(row);
+        ROW_KEYS[slot] = v;
+        ROW_OF[slot] = made.length;
+      }
+    }
+    out[r] = row;
+    last = v;
+    lastRow = row;
   }
   return out;
 }

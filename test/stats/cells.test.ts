@@ -153,6 +153,36 @@ describe("boundedNumbersFromCells and cellsFromValues", () => {
       }),
     );
   });
+
+  it("gives a column's equal values one shared row, and still every value at its place past the shared table's size", () => {
+    // Equal values far apart share a row; blanks share one; -0 shows as 0 (exact: the values themselves).
+    const values = [0.25, NaN, 1, 0.25, 1, -0, NaN, 0.5, 1];
+    const out = cellsFromValues(
+      values.map(() => [null]),
+      values,
+      "",
+    );
+    expect(out).toEqual([[0.25], [""], [1], [0.25], [1], [0], [""], [0.5], [1]]);
+    expect(Object.is(out[5][0], 0)).toBe(true);
+    expect(out[3]).toBe(out[0]);
+    expect(out[4]).toBe(out[2]);
+    expect(out[8]).toBe(out[2]);
+    expect(out[6]).toBe(out[1]);
+    expect(out[7]).not.toBe(out[0]);
+    // More distinct values than the table shares (2^16): each still lands at its place, repeats after it too.
+    const many = Array.from({ length: 200_000 }, (_, k) => (k < 100_000 ? k / 7 : (k - 100_000) / 7));
+    const column = cellsFromValues(
+      many.map(() => [null]),
+      many,
+      "",
+    );
+    many.forEach((v, k) => {
+      if (column[k][0] !== v) throw new Error(`row ${k}: ${String(column[k][0])} instead of ${v}`);
+    });
+    expect(column[100_000]).toBe(column[0]);
+    // A second call starts afresh: no row of the first call's values comes back for other values.
+    expect(cellsFromValues([[null]], [0.125], "")).toEqual([[0.125]]);
+  });
 });
 
 describe("pairsFromCells", () => {
