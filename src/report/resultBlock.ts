@@ -825,7 +825,7 @@ function manyGroupRows(request: BlockRequest): BlockRow[] {
     ),
     reviewRow(),
     row("audit", "Audit", { kind: "audit", version: EVENSPLIT_VERSION, method: auditMethod(request) }, "text"),
-    row("byGroupTitle", "By group", text(byGroupWords(request)), "text", "title"),
+    row("byGroupTitle", "By group", text(byGroupWords(request)), "text"),
     { key: "byGroup", label: "By group (table)", value: table, format: "text", style: "plain", spill: BY_GROUP_SPILL },
   ];
 }

@@ -14,8 +14,9 @@
  *
  * Cost: O(characters of the block's formulas).
  */
-import type { BlockTest } from "../report/resultBlock";
-import type { Alternative, SignTestMethod, SignedRankMethod, TieRule, ZeroRule } from "../stats/types";
+import type { BlockTest, ManyGroupMethod, TwoGroupMethod } from "../report/resultBlock";
+import type { AdjustMethod, Alternative, SignTestMethod, SignedRankMethod, TieRule, ZeroRule } from "../stats/types";
+import type { GroupsKind } from "./paneState";
 import type { CellRect } from "./a1";
 import type { BlockMark } from "./writePlan";
 
@@ -76,6 +77,14 @@ function argumentOf(text: string): FormulaArgument {
 export interface BlockReading {
   readonly test: BlockTest;
   readonly paired: boolean;
+  /** Independent groups: two from two ranges, several from values and labels; "none" otherwise. */
+  readonly groups: GroupsKind;
+  /** Groups: the method word of TWOGROUPS or GROUPS; null otherwise. */
+  readonly groupMethod: TwoGroupMethod | ManyGroupMethod | null;
+  /** Several groups: the adjustment of the table by group; null otherwise. */
+  readonly adjust: AdjustMethod | null;
+  /** Several groups: false when the table by group tests against no target median. */
+  readonly withTarget: boolean;
   /** The data references as the formulas give them: the first range, then the second for pairs. */
   readonly references: readonly string[];
   readonly center: number;
@@ -93,6 +102,8 @@ export interface BlockReading {
 const ALTERNATIVES: readonly string[] = ["two-sided", "greater", "less"];
 
 function testOf(title: string): { test: BlockTest; paired: boolean } | null {
+  if (/^two groups,/i.test(title)) return { test: "two-groups", paired: false };
+  if (/^several groups,/i.test(title)) return { test: "groups", paired: false };
   const paired = /,\s*paired$/i.test(title.trim());
   if (/^sign test/i.test(title)) return { test: "sign", paired };
   if (/signed-rank/i.test(title)) return { test: "signed-rank", paired };
@@ -111,6 +122,7 @@ export function readBlock(formulas: readonly (readonly unknown[])[]): BlockReadi
   const kind = testOf(String(formulas[0]?.[1] ?? ""));
   const p = callArguments(labelled(/^p-value$/));
   if (!kind || !p) return null;
+  if (kind.test === "two-groups" || kind.test === "groups") return readGroupBlock(formulas, kind.test, p.args);
   const references = p.args.flatMap((a) => (a.kind === "reference" ? [a.text] : []));
   const numbers = p.args.flatMap((a) => (a.kind === "number" ? [a.value] : []));
   const texts = p.args.flatMap((a) => (a.kind === "text" ? [a.value] : []));
@@ -123,6 +135,10 @@ export function readBlock(formulas: readonly (readonly unknown[])[]): BlockReadi
   const ruleWord = rest.find((t) => ["drop", "split", "conservative", "pratt"].includes(t));
   return {
     ...kind,
+    groups: "none",
+    groupMethod: null,
+    adjust: null,
+    withTarget: false,
     references,
     center: numbers[0],
     quantile: kind.test === "quantile" ? (numbers[1] ?? null) : null,
@@ -134,6 +150,109 @@ export function readBlock(formulas: readonly (readonly unknown[])[]): BlockReadi
     alpha: Number(alpha[1]),
     confidences: bound.args.flatMap((a) => (a.kind === "number" && a.value > 0 && a.value < 1 ? [a.value] : [])),
   };
+}
+
+const TWO_GROUP_METHODS: readonly string[] = ["rank-sum", "median"];
+const MANY_GROUP_METHODS: readonly string[] = ["median", "rank"];
+const ADJUST_METHODS: readonly string[] = ["holm", "bonferroni", "hochberg", "bh", "by"];
+
+function textAt(args: readonly FormulaArgument[], i: number): string | null {
+  const a = args[i];
+  return a?.kind === "text" ? a.value : null;
+}
+
+function numberAt(args: readonly FormulaArgument[], i: number): number | null {
+  const a = args[i];
+  return a?.kind === "number" ? a.value : null;
+}
+
+/** Both ranges of a group call: its first two arguments, each a reference. */
+function twoReferences(args: readonly FormulaArgument[]): string[] | null {
+  const [a, b] = args;
+  return a?.kind === "reference" && a.text !== "" && b?.kind === "reference" && b.text !== "" ? [a.text, b.text] : null;
+}
+
+/**
+ * A group block read back: TWOGROUPS(first, second, shift, alternative, method) and SHIFT's confidence for two
+ * groups; GROUPS(values, labels, method) and BYGROUP(values, labels, [target], alternative, confidence, adjust),
+ * whose formula sits in the label column, for several groups.
+ */
+function readGroupBlock(
+  formulas: readonly (readonly unknown[])[],
+  test: "two-groups" | "groups",
+  pArgs: readonly FormulaArgument[],
+): BlockReading | null {
+  const labelled = (label: RegExp): string => String(formulas.find((row) => label.test(String(row[0] ?? "")))?.[1] ?? "");
+  const alpha = /<=\s*([0-9.Ee+-]+)\s*,/.exec(labelled(/^Decision at alpha/));
+  const references = twoReferences(pArgs);
+  if (!alpha || !references) return null;
+  const common = { test, paired: false, references, quantile: null, ties: null, signMethod: null, rankMethod: null, zeros: null };
+  if (test === "two-groups") {
+    const shift = numberAt(pArgs, 2);
+    const alternative = textAt(pArgs, 3);
+    const method = textAt(pArgs, 4);
+    const bounds = callArguments(labelled(/bounds for the shift/));
+    const confidence = bounds ? numberAt(bounds.args, 2) : null;
+    if (shift === null || !alternative || !ALTERNATIVES.includes(alternative) || !method || !TWO_GROUP_METHODS.includes(method))
+      return null;
+    if (confidence === null) return null;
+    return {
+      ...common,
+      groups: "two",
+      groupMethod: method as TwoGroupMethod,
+      adjust: null,
+      withTarget: false,
+      center: shift,
+      alternative: alternative as Alternative,
+      alpha: Number(alpha[1]),
+      confidences: [confidence],
+    };
+  }
+  const method = textAt(pArgs, 2);
+  const tableFormula = formulas.map((row) => String(row[0] ?? "")).find((cell) => /EVENSPLIT\.BYGROUP\(/i.test(cell));
+  const table = tableFormula ? callArguments(tableFormula) : null;
+  if (!method || !MANY_GROUP_METHODS.includes(method) || !table) return null;
+  const target = numberAt(table.args, 2);
+  const alternative = textAt(table.args, 3);
+  const confidence = numberAt(table.args, 4);
+  const adjust = textAt(table.args, 5);
+  if (!alternative || !ALTERNATIVES.includes(alternative) || confidence === null || !adjust || !ADJUST_METHODS.includes(adjust))
+    return null;
+  return {
+    ...common,
+    groups: "several",
+    groupMethod: method as ManyGroupMethod,
+    adjust: adjust as AdjustMethod,
+    withTarget: target !== null,
+    center: target ?? 0,
+    alternative: alternative as Alternative,
+    alpha: Number(alpha[1]),
+    confidences: [confidence],
+  };
+}
+
+/**
+ * Whether a block written again from a candidate state (`again`, blockWrite's formulas for the preview `rows`)
+ * is the block read from the sheet, cell for cell. The audit line is passed over: it carries the time of
+ * writing, which a second writing cannot repeat. From a spilled table on, only the cells the block itself
+ * writes are compared: the cells its table spills into hold the sheet's answers, not what was written.
+ *
+ * @example
+ * sameBlockFormulas(blockWrite(rows, sheet, mark.rect).formulas, read.formulas, rows); // true for an untouched block
+ */
+export function sameBlockFormulas(
+  again: readonly (readonly string[])[],
+  formulas: readonly (readonly unknown[])[],
+  rows: readonly { readonly key: string; readonly table?: unknown }[],
+): boolean {
+  const audit = rows.findIndex((row) => row.key === "audit");
+  // The rows before a table take one line each, so a preview row's index is its line in the block.
+  const table = rows.findIndex((row) => row.table !== undefined);
+  if (again.length !== formulas.length) return false;
+  return again.every(
+    (line, r) =>
+      r === audit || line.every((cell, c) => (table >= 0 && r >= table && cell === "") || cell === String(formulas[r]?.[c] ?? "")),
+  );
 }
 
 /**

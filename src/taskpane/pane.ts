@@ -13,7 +13,7 @@
  *
  * Cost: O(cells of the data) per render of the Result step's preview.
  */
-import type { CatalogueCall } from "../report/resultBlock";
+import type { CatalogueCall, ManyGroupMethod, TwoGroupMethod } from "../report/resultBlock";
 import { formatAddress, parseAddress } from "./a1";
 import { button, newId } from "./controls";
 import {
@@ -22,7 +22,6 @@ import {
   dataStepProblem,
   dataView,
   setDataKind,
-  setPaired,
   setReference,
   setUseHeader,
   slotCleared,
@@ -59,7 +58,7 @@ import { environmentFrom, writeCheckSheet, type DiagnosticsLike } from "./checkS
 import { REFERENCE_CASES } from "../report/installationCheck";
 import { EVENSPLIT_VERSION } from "../report/version";
 import { analyzeRange, blockInputs, blockRefs, defaultPlace, writeResult, type WriteOutcome } from "./workflow";
-import { blockAt, readBlock, type BlockReading } from "./blockEdit";
+import { blockAt, readBlock, sameBlockFormulas, type BlockReading } from "./blockEdit";
 import { blockPreview, blockWrite } from "./preview";
 import { structuredReference } from "./references";
 import { reportCopy } from "./reportText";
@@ -72,9 +71,6 @@ export interface PaneOptions {
   /** Office.context.diagnostics (Excel's version and platform) for the installation check; absent where the host reports none. */
   readonly diagnostics?: DiagnosticsLike | null;
 }
-
-/** The block's audit line (resultBlock.ts): it holds the time of writing. */
-const AUDIT_KEY = "audit";
 
 function errorMessage(thrown: unknown): string {
   return thrown instanceof Error && thrown.message ? thrown.message : "The workbook did not answer.";
@@ -500,7 +496,8 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
     block: BlockMark,
     formulas: readonly (readonly unknown[])[],
   ): Promise<PaneState | null> {
-    let base = setPaired(initialState(), reading.paired);
+    const kind = reading.groups === "two" ? "two-groups" : reading.groups === "several" ? "groups" : reading.paired ? "pairs" : "one";
+    let base = setDataKind(initialState(), kind);
     for (let i = 0; i < reading.references.length; i++) {
       const address = await referenceAddress(reading.references[i], block.sheet);
       if (!address) return null;
@@ -508,7 +505,14 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
     }
     const open = reading.references.some((r) => /\$?1048576$/.test(r));
     base = setReference(base, open ? "open" : "exact");
-    base = setAlternative(setCenter(setTest(base, reading.test), String(reading.center)), reading.alternative);
+    // Groups take their test from the kind; the one-sample choice of test is left as it was.
+    if (reading.groups === "none") base = setTest(base, reading.test);
+    const center = reading.groups === "several" && !reading.withTarget ? "" : String(reading.center);
+    base = setAlternative(setCenter(base, center), reading.alternative);
+    if (reading.groups === "two" && reading.groupMethod) base = setSetting(base, "twoGroupMethod", reading.groupMethod as TwoGroupMethod);
+    if (reading.groups === "several" && reading.groupMethod)
+      base = setSetting(base, "manyGroupMethod", reading.groupMethod as ManyGroupMethod);
+    if (reading.adjust) base = setSetting(base, "adjust", reading.adjust);
     if (reading.quantile !== null) base = setQuantile(base, String(reading.quantile));
     base = setSetting(base, "alpha", String(reading.alpha));
     if (reading.ties) base = setSetting(base, "ties", reading.ties);
@@ -531,11 +535,7 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
         calculate,
       );
       const again = blockWrite(rows, block.sheet, block.rect).formulas;
-      // The audit line carries the time of writing, which a second writing cannot repeat.
-      const same =
-        again.length === formulas.length &&
-        again.every((row, r) => rows[r].key === AUDIT_KEY || row.every((cell, c) => cell === String(formulas[r][c] ?? "")));
-      if (same) return candidate;
+      if (sameBlockFormulas(again, formulas, rows)) return candidate;
     }
     return null;
   }
