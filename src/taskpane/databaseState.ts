@@ -27,7 +27,7 @@ import type { AnalyzedRange, DataChoice } from "./workflow";
 
 /** An empty database form. */
 export function emptyDatabaseForm(): DatabaseForm {
-  return { table: "", column: "", group: "", row: 0 };
+  return { table: "", column: "", group: "", row: 0, answeredBy: null };
 }
 
 /**
@@ -218,6 +218,24 @@ export function databaseChoices(state: PaneState): DataChoice[] {
 }
 
 /**
+ * The state after the pasted cells were read (again): an answer that differs from the one read before and
+ * holds bounds is taken to come from the second query as it stands now, and that query is kept with it; the
+ * same answer read again (the pane rereads its cells when the focus comes back) keeps what it had.
+ *
+ * @example
+ * databaseAnswerRead(before, slotRead(before, 0, "E1:J2", analysis)).database?.answeredBy; // the second query's text
+ */
+export function databaseAnswerRead(before: PaneState, after: PaneState): PaneState {
+  if (after.database === null) return after;
+  const rows = (state: PaneState): string => JSON.stringify(pastedAnswer(state));
+  if (before.database !== null && rows(before) === rows(after))
+    return { ...after, database: { ...after.database, answeredBy: before.database.answeredBy } };
+  const pasted = pastedAnswer(after);
+  const bounded = pasted !== null && pasted.ok && pasted.rows.some((row) => row.lower !== null || row.upper !== null);
+  return { ...after, database: { ...after.database, answeredBy: bounded ? secondQuery(after) : null } };
+}
+
+/**
  * Why the database data cannot be used yet, in the order the person works: names, median, the first
  * answer, the second answer; null when the block can be written.
  *
@@ -240,6 +258,9 @@ export function databaseProblem(state: PaneState): string | null {
       return `${row.n} values cannot give bounds at this confidence; choose a lower confidence or count more values.`;
     return "Run the second query (it carries the ranks for this n) and paste its answer over the first.";
   }
+  const answeredBy = state.database?.answeredBy ?? null;
+  if (answeredBy !== null && answeredBy !== secondQuery(state))
+    return "The names, the median or the confidence changed after this answer was pasted: run the second query again (it has changed) and paste its answer over this one.";
   return null;
 }
 
@@ -251,7 +272,8 @@ export function databaseProblem(state: PaneState): string | null {
  */
 export function databaseSource(state: PaneState): DatabaseSource | null {
   const question = databaseQuestion(state);
-  const query = secondQuery(state);
+  // The query the pasted answer came from, when the pane saw it arrive; otherwise the one it shows now.
+  const query = state.database?.answeredBy ?? secondQuery(state);
   const row = chosenRow(state);
   if (!question.ok || query === null || row === null) return null;
   const { table, column, group } = question.question;

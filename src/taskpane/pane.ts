@@ -31,7 +31,7 @@ import {
   usesTwoRanges,
 } from "./dataState";
 import { dataPage } from "./dataView";
-import { databaseView, setDatabaseField, setDatabaseRow } from "./databaseState";
+import { databaseAnswerRead, databaseView, setDatabaseField, setDatabaseRow } from "./databaseState";
 import { el, replaceChildren, show } from "./dom";
 import type { Host } from "./host";
 import { atStep, initialState, STEPS, withBusy, type PaneState } from "./paneState";
@@ -229,7 +229,7 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
     try {
       // Read first: the state may change while the workbook answers.
       const analysis = await analyzeRange(host, text);
-      update(slotRead(state, index, text, analysis), { quiet });
+      update(databaseAnswerRead(state, slotRead(state, index, text, analysis)), { quiet });
     } catch (thrown) {
       update(slotFailed(state, index, text, errorMessage(thrown)), { quiet });
     }

@@ -68,6 +68,11 @@ export interface DatabaseForm {
   readonly group: string;
   /** With groups: the pasted row (from 0, header left out) that the block reads. */
   readonly row: number;
+  /**
+   * The second query as it stood when an answer holding bounds was first read from the cells: the query that
+   * answer came from. Null until then.
+   */
+  readonly answeredBy: string | null;
 }
 
 /** Independent groups in the data: none, two from two ranges, or several named by a group column. */

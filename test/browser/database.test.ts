@@ -116,6 +116,12 @@ describe.skipIf(!browserAvailable())("data in a database, on the demo page", () 
     const audit = String(await valueOf("Audit"));
     expect(audit).toContain('table paint "line" panels, column Thickness (µm); query SHA-256 ');
     expect(audit).toMatch(/SHA-256 [0-9a-f]{64}; reads \$E\$2:\$J\$2; written /);
+
+    // A confidence changed after the answer was pasted: the answer no longer fits, and the pane says so.
+    await page.getByRole("button", { name: "3. Settings" }).click();
+    await page.getByLabel("Confidence level of the bounds").fill("0.9");
+    await page.getByRole("button", { name: "Next: the result" }).click();
+    await eventually(() => page.locator(".es-status").innerText()).toContain("changed after this answer was pasted");
     await page.close();
   });
 

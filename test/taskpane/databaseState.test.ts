@@ -10,7 +10,15 @@ import { fakeRun } from "../../src/demo/fakeExcel";
 import { Workbook } from "../../src/demo/workbook";
 import { callFunction, countpvalue, orderranks } from "../../src/functions/functions";
 import { databaseQuery } from "../../src/taskpane/databaseQuery";
-import { databaseChoices, databaseView, readPasted, secondQuery, setDatabaseField, setDatabaseRow } from "../../src/taskpane/databaseState";
+import {
+  databaseAnswerRead,
+  databaseChoices,
+  databaseView,
+  readPasted,
+  secondQuery,
+  setDatabaseField,
+  setDatabaseRow,
+} from "../../src/taskpane/databaseState";
 import { blockFollowsNewRows, choices, dataKind, dataReady, dataStepProblem, setDataKind, slotRead } from "../../src/taskpane/dataState";
 import { createHost } from "../../src/taskpane/host";
 import { atStep, initialState, type PaneState } from "../../src/taskpane/paneState";
@@ -185,5 +193,32 @@ describe("the Result step and the write for a database's answer", () => {
     view.rows.forEach((row, i) => {
       if (row.key !== "audit") expect(shown[i], row.label).toEqual(row.value === "" ? null : row.value);
     });
+  });
+});
+
+describe("an answer older than the question", () => {
+  it("keeps the query an answer came from, and holds the data back once the median or confidence changes after it", async () => {
+    const before = await pasted(named(), [HEADER, [151, 70, 10, 71, "", ""]], "A1:F2");
+    expect(databaseAnswerRead(named(), before).database?.answeredBy).toBeNull();
+    const answered = databaseAnswerRead(before, await pasted(before, [HEADER, [151, 70, 10, 71, 49.25, 50.75]], "A1:F2"));
+    const query = secondQuery(answered);
+    expect(answered.database?.answeredBy).toBe(query);
+    expect(dataReady(answered)).toBe(true);
+
+    const moved = setSetting(answered, "confidence", "0.9");
+    expect(dataReady(moved)).toBe(false);
+    expect(dataStepProblem(moved)).toBe(
+      "The names, the median or the confidence changed after this answer was pasted: run the second query again (it has changed) and paste its answer over this one.",
+    );
+    expect(dataReady(setCenter(answered, "49"))).toBe(false);
+    // The same cells read again (the focus coming back to the pane) do not make the old answer new.
+    const reread = databaseAnswerRead(moved, await pasted(moved, [HEADER, [151, 70, 10, 71, 49.25, 50.75]], "A1:F2"));
+    expect(dataReady(reread)).toBe(false);
+    // A new answer pasted after the change is the new query's.
+    const fresh = databaseAnswerRead(reread, await pasted(reread, [HEADER, [151, 70, 10, 71, 49.5, 50.5]], "A1:F2"));
+    expect(dataReady(fresh)).toBe(true);
+    expect(fresh.database?.answeredBy).toBe(secondQuery(moved));
+    // Back to the confidence the first answer was for: that answer fits again.
+    expect(dataReady(setSetting(answered, "confidence", "0.95"))).toBe(true);
   });
 });
