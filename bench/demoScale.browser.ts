@@ -97,7 +97,7 @@ async function measure(session: Session, rows: number): Promise<Record<Step, num
   });
 
   // DEMO_CHART=1 asks for the chart beside the block too, whose sketch the sheet then redraws on every change.
-  if (process.env.DEMO_CHART === "1") await page.getByLabel("Also add a chart of the data beside the block").check();
+  if (process.env.DEMO_CHART === "1") await page.getByLabel("Also add a chart of the values against H0 and the bounds").check();
   const write = await timed(page, cdp, "write", async () => {
     // "Write the block", or "Make the table and write the block" when the range is to become a table.
     await page.getByRole("button", { name: /write the block/i }).click();

@@ -21,6 +21,8 @@ import type {
   CellFont,
   ClearWhat,
   HostChart,
+  HostChartAxis,
+  HostChartSeries,
   HostContext,
   HostFont,
   HostNamedItem,
@@ -32,8 +34,20 @@ import type {
 } from "../taskpane/host";
 import { isError, type Scalar } from "./formula/values";
 import { formatCell } from "../taskpane/numberFormat";
-import type { ChartModel, DefinedName, TableModel, Workbook } from "./workbook";
+import type { AxisModel, ChartModel, DefinedName, SeriesLink, SeriesModel, TableModel, Workbook } from "./workbook";
 import { areaRefusal, RefusedEntry, sheetNameRefusal } from "./limits";
+import {
+  axisEndRefusal,
+  chartTypeRefusal,
+  colourRefusal,
+  legendPositionRefusal,
+  lineStyleRefusal,
+  lineWeightRefusal,
+  markerSizeRefusal,
+  markerStyleRefusal,
+  MAX_SERIES,
+  seriesNameRefusal,
+} from "./chartRules";
 
 /**
  * An error as the real API reports it: a code and a message.
@@ -586,9 +600,169 @@ function chartName(workbook: Workbook, chart: ChartModel): string {
   return name;
 }
 
+/** Queues a property set that Excel checks when the batch runs: a refusal fails the sync with InvalidArgument. */
+function checkedSet(queue: Queue, refusal: string | null, apply: () => void): void {
+  queue.add(() => {
+    if (refusal) throw new FakeApiError("InvalidArgument", refusal);
+    apply();
+  });
+}
+
+/** A property the demo writes but does not read back. */
+function unread(what: string): never {
+  throw new FakeApiError("PropertyNotLoaded", `The demo sheet does not read ${what} back.`);
+}
+
+/**
+ * The cells a series is set to: a range of this request context, one column or one row (the demo records no
+ * other shape), linked to a table when they are one of its columns.
+ */
+function seriesCells(queue: Queue, sourceData: HostRange, set: (link: SeriesLink) => void): void {
+  const range = ownRange(queue, sourceData);
+  range.load("address");
+  queue.add(() => {
+    const parsed = parseAddress(range.address);
+    if (!parsed || parsed.sheet === undefined) throw new FakeApiError("InvalidArgument", "A series reads a range on a sheet.");
+    const { sheet, ...rect } = parsed;
+    if (rect.left !== rect.right && rect.top !== rect.bottom)
+      throw new FakeApiError("InvalidArgument", "The demo sheet records series of one column or one row only.");
+    set(queue.workbook.seriesLink(queue.workbook.sheetName(sheet), rect));
+  });
+}
+
+/** A series as a new one starts: drawn as Excel's defaults would draw it (automatic markers and colours). */
+function newSeries(name: string, values: SeriesLink | null, chartType: string): SeriesModel {
+  return {
+    name,
+    chartType,
+    values,
+    xValues: null,
+    markerStyle: "Automatic",
+    markerSize: 5,
+    markerColour: null,
+    lineColour: null,
+    lineStyle: "Automatic",
+    lineWeight: 1.5,
+  };
+}
+
+/** Microsoft, "Excel.ChartSeries class" (ExcelApi 1.1 and 1.7): the members the pane sets. */
+class FakeChartSeries implements HostChartSeries {
+  readonly format: HostChartSeries["format"];
+  constructor(
+    private readonly queue: Queue,
+    private readonly model: () => SeriesModel,
+  ) {
+    const set = (refusal: string | null, apply: (series: SeriesModel) => void): void => checkedSet(queue, refusal, () => apply(model()));
+    this.format = {
+      line: {
+        get color(): string {
+          return unread("line colours");
+        },
+        set color(value: string) {
+          set(colourRefusal(value), (s) => (s.lineColour = value));
+        },
+        get lineStyle(): string {
+          return unread("line styles");
+        },
+        set lineStyle(value: string) {
+          set(lineStyleRefusal(value), (s) => (s.lineStyle = value));
+        },
+        get weight(): number {
+          return unread("line weights");
+        },
+        set weight(value: number) {
+          set(lineWeightRefusal(value), (s) => (s.lineWeight = value));
+        },
+      },
+    };
+  }
+  private set(refusal: string | null, apply: (series: SeriesModel) => void): void {
+    checkedSet(this.queue, refusal, () => apply(this.model()));
+  }
+  get name(): string {
+    return unread("series names");
+  }
+  set name(value: string) {
+    this.set(seriesNameRefusal(value), (s) => (s.name = value));
+  }
+  get chartType(): string {
+    return unread("series types");
+  }
+  set chartType(value: string) {
+    this.set(chartTypeRefusal(value), (s) => (s.chartType = value));
+  }
+  get markerStyle(): string {
+    return unread("marker styles");
+  }
+  set markerStyle(value: string) {
+    this.set(markerStyleRefusal(value), (s) => (s.markerStyle = value));
+  }
+  get markerSize(): number {
+    return unread("marker sizes");
+  }
+  set markerSize(value: number) {
+    this.set(markerSizeRefusal(value), (s) => (s.markerSize = value));
+  }
+  get markerBackgroundColor(): string {
+    return unread("marker colours");
+  }
+  set markerBackgroundColor(value: string) {
+    this.set(colourRefusal(value), (s) => (s.markerColour = value));
+  }
+  get markerForegroundColor(): string {
+    return unread("marker colours");
+  }
+  /** The demo draws a marker in one colour: its fill. The outline is checked as Excel checks it, and not drawn. */
+  set markerForegroundColor(value: string) {
+    this.set(colourRefusal(value), () => undefined);
+  }
+  /** Microsoft, "Excel.ChartSeries class", setValues (ExcelApi 1.7): for a scatter chart, the y values. */
+  setValues(sourceData: HostRange): void {
+    seriesCells(this.queue, sourceData, (link) => (this.model().values = link));
+  }
+  /** Microsoft, "Excel.ChartSeries class", setXAxisValues (ExcelApi 1.7). */
+  setXAxisValues(sourceData: HostRange): void {
+    seriesCells(this.queue, sourceData, (link) => (this.model().xValues = link));
+  }
+}
+
+/** Microsoft, "Excel.ChartAxis class": minimum, maximum (a number or "" for automatic) and the title's text. */
+class FakeChartAxis implements HostChartAxis {
+  readonly title: { text: string };
+  constructor(
+    private readonly queue: Queue,
+    private readonly model: () => AxisModel,
+  ) {
+    this.title = {
+      get text(): string {
+        return unread("axis titles");
+      },
+      set text(value: string) {
+        queue.add(() => (model().title = value));
+      },
+    };
+  }
+  get minimum(): number | "" {
+    return unread("axis ends");
+  }
+  set minimum(value: number | "") {
+    checkedSet(this.queue, axisEndRefusal(value), () => (this.model().minimum = value === "" ? null : value));
+  }
+  get maximum(): number | "" {
+    return unread("axis ends");
+  }
+  set maximum(value: number | "") {
+    checkedSet(this.queue, axisEndRefusal(value), () => (this.model().maximum = value === "" ? null : value));
+  }
+}
+
 class FakeChart implements HostChart {
   private readonly loaded = new Loaded();
   readonly title: { text: string };
+  readonly series: HostChart["series"];
+  readonly axes: HostChart["axes"];
+  readonly legend: { position: string };
   /** `model` answers null when there is no such chart (a *OrNullObject proxy). */
   constructor(
     private readonly queue: Queue,
@@ -597,10 +771,45 @@ class FakeChart implements HostChart {
     const existing = (): ChartModel => this.existing();
     this.title = {
       get text(): string {
-        throw new FakeApiError("PropertyNotLoaded", "The demo sheet does not read chart titles back.");
+        return unread("chart titles");
       },
       set text(value: string) {
         queue.add(() => (existing().title = value));
+      },
+    };
+    this.series = {
+      // Microsoft, "Excel.ChartSeriesCollection class", add (ExcelApi 1.7): a new series shows once its values are set.
+      add: (name?: string) => {
+        let made: SeriesModel | null = null;
+        checkedSet(queue, name === undefined ? null : seriesNameRefusal(name), () => {
+          const chart = existing();
+          if (chart.series.length >= MAX_SERIES) throw new FakeApiError("InvalidArgument", "A chart holds at most 255 series.");
+          made = newSeries(name ?? `Series${chart.series.length + 1}`, null, chart.type);
+          chart.series.push(made);
+        });
+        return new FakeChartSeries(queue, () => {
+          if (made === null) throw new FakeApiError("ItemNotFound", "The series was not made.");
+          return made;
+        });
+      },
+      // getItemAt (ExcelApi 1.1): the series at a zero-based position.
+      getItemAt: (index: number) =>
+        new FakeChartSeries(queue, () => {
+          const found = existing().series[index];
+          if (!found) throw new FakeApiError("ItemNotFound", `The chart has no series at position ${index}.`);
+          return found;
+        }),
+    };
+    this.axes = {
+      categoryAxis: new FakeChartAxis(queue, () => existing().axes.category),
+      valueAxis: new FakeChartAxis(queue, () => existing().axes.value),
+    };
+    this.legend = {
+      get position(): string {
+        return unread("legend positions");
+      },
+      set position(value: string) {
+        checkedSet(queue, legendPositionRefusal(value), () => (existing().legend = value));
       },
     };
   }
@@ -630,9 +839,14 @@ class FakeChart implements HostChart {
     });
     return this;
   }
+  /** Microsoft, "Excel.Chart class", setPosition: the cells where the chart starts and ends; each must be an address. */
   setPosition(startCell: string, endCell?: string): void {
     this.queue.add(() => {
       const chart = this.existing();
+      for (const cell of [startCell, endCell ?? startCell]) {
+        const parsed = parseAddress(cell);
+        if (!parsed || areaRefusal(parsed)) throw new FakeApiError("InvalidArgument", `${cell} is not a cell of the sheet.`);
+      }
       chart.from = startCell;
       chart.to = endCell ?? startCell;
     });
@@ -757,16 +971,40 @@ class FakeWorksheet implements HostWorksheet {
         });
         return this.charts;
       },
-      add: (type: "ColumnClustered", sourceData: HostRange) => {
+      /**
+       * Microsoft, "Excel.ChartCollection class", add(type, sourceData, seriesBy): a chart of the source range. The
+       * demo records a scatter chart of one column: one series whose values are the column (its first cell is the
+       * series' name when it is text above numbers, as Excel reads a header; common practice), drawn against
+       * 1, 2, 3, ... as it has no x values.
+       */
+      add: (type: string, sourceData: HostRange) => {
         let chart: ChartModel | null = null;
         // The source range's address is only known once the queue runs; read it from a load queued now.
         const source = ownRange(queue, sourceData);
         source.load("address");
         queue.add(() => {
+          const refusal = chartTypeRefusal(type);
+          if (refusal) throw new FakeApiError("InvalidArgument", refusal);
           const parsed = parseAddress(source.address);
           if (!parsed) throw new FakeApiError("InvalidArgument", "The chart has no source range.");
-          const { sheet = this.sheetName(), ...rect } = parsed;
-          chart = workbook.addChart({ type, sheet: sheetOrThrow(workbook, sheet), source: rect, title: "", from: "", to: "" });
+          const { sheet: sourceSheet = this.sheetName(), ...rect } = parsed;
+          if (rect.left !== rect.right)
+            throw new FakeApiError("InvalidArgument", "The demo sheet makes a scatter chart from one column only.");
+          const from = sheetOrThrow(workbook, sourceSheet);
+          const named = rect.bottom > rect.top && typeof workbook.value(from, rect.top, rect.left) === "string";
+          const values = named ? { ...rect, top: rect.top + 1 } : rect;
+          const name = named ? String(workbook.value(from, rect.top, rect.left)) : "Series1";
+          const axis = (): AxisModel => ({ minimum: null, maximum: null, title: "" });
+          chart = workbook.addChart({
+            type,
+            sheet: sheetOrThrow(workbook, this.sheetName()),
+            series: [newSeries(name, workbook.seriesLink(from, values), type)],
+            axes: { category: axis(), value: axis() },
+            legend: "Right",
+            title: "",
+            from: "",
+            to: "",
+          });
           chartName(workbook, chart);
         });
         return new FakeChart(queue, () => chart);

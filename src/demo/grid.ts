@@ -29,7 +29,7 @@
 import { columnLetters, formatAddress, LAST_COLUMN, LAST_ROW, parseAddress, type CellRect } from "../taskpane/a1";
 import { el, replaceChildren, svg } from "../taskpane/dom";
 import { formatCell } from "../taskpane/numberFormat";
-import { chartColumns } from "./chartColumns";
+import { DRAWING, scatterDrawing } from "./scatterDrawing";
 import { clipboardCells } from "./clipboard";
 import { dataEdge } from "./dataEdge";
 import { isError } from "./formula/values";
@@ -58,44 +58,129 @@ function shownText(workbook: Workbook, sheet: string, row: number, column: numbe
   return { text: formatCell(value, workbook.format(sheet, row, column).numberFormat), numeric: typeof value === "number" };
 }
 
-function chartView(workbook: Workbook, chart: ChartModel): HTMLElement {
-  const source = workbook.chartSource(chart);
-  const values = workbook.values(chart.sheet, source);
-  const header = values[0].every((v) => typeof v === "string");
-  const names = header ? values[0].map(String) : values[0].map((_, i) => `Series ${i + 1}`);
-  const rows = header ? values.slice(1) : values;
-  const drawn = chartColumns(rows);
-  const width = 320;
-  const height = 130;
-  const base = height - 14;
-  const groups = Math.max(1, drawn.columns.length);
-  const step = (width - 20) / groups;
-  const barWidth = Math.max(1, (step * 0.8) / Math.max(1, names.length));
+/** A number for an axis label: short, without trailing zeros. */
+function tickText(value: number): string {
+  return Number(value.toPrecision(6)).toLocaleString("en-US", { maximumFractionDigits: 6 });
+}
+
+/** The recorded scatter chart, drawn by the demo from the cells it reads (scatterDrawing.ts). */
+function chartView(workbook: Workbook, chart: ChartModel, clipId: string): HTMLElement {
+  const drawing = scatterDrawing(chart, (link) => workbook.values(link.sheet, workbook.linkedRect(link)));
+  const { width, height, left, right, top, bottom } = DRAWING;
+  const plotRight = width - right;
+  const plotBottom = height - bottom;
+  const across = (v: number): number => left + ((v - drawing.x.minimum) / (drawing.x.maximum - drawing.x.minimum)) * (plotRight - left);
+  const up = (v: number): number => plotBottom - ((v - drawing.y.minimum) / (drawing.y.maximum - drawing.y.minimum)) * (plotBottom - top);
+  const points = drawing.series.find((s) => s.kind === "points");
   const plot = svg("svg", {
     class: "demo-chart-plot",
-    attrs: { viewBox: `0 0 ${width} ${height}`, role: "img", "aria-label": `Column chart of ${names.join(" and ")}, ${rows.length} rows` },
+    attrs: {
+      viewBox: `0 0 ${width} ${height}`,
+      role: "img",
+      "aria-label": `Scatter chart: ${drawing.series.map((s) => `${s.name} (${s.count} ${s.kind === "points" ? "points" : "line ends"})`).join(", ")}`,
+    },
   });
-  drawn.columns.forEach((column, i) =>
-    column.forEach((v, s) => {
-      if (v === null) return;
-      const h = (v / drawn.highest) * (base - 10);
-      plot.appendChild(
-        svg("rect", {
-          class: `demo-chart-bar demo-series-${s % 2}`,
-          attrs: {
-            x: (10 + i * step + s * barWidth).toFixed(2),
-            y: (base - h).toFixed(2),
-            width: barWidth.toFixed(2),
-            height: h.toFixed(2),
-          },
-        }),
-      );
+  plot.appendChild(svg("rect", { class: "demo-chart-area", attrs: { x: "0", y: "0", width: String(width), height: String(height) } }));
+  plot.appendChild(
+    svg(
+      "clipPath",
+      { id: clipId },
+      svg("rect", { attrs: { x: String(left), y: String(top), width: String(plotRight - left), height: String(plotBottom - top) } }),
+    ),
+  );
+  for (const tick of drawing.y.ticks) {
+    const y = up(tick).toFixed(1);
+    plot.appendChild(svg("line", { class: "demo-chart-grid", attrs: { x1: String(left), x2: String(plotRight), y1: y, y2: y } }));
+    plot.appendChild(
+      svg("text", { class: "demo-chart-tick", attrs: { x: String(left - 4), y, "text-anchor": "end", dy: "0.32em" } }, tickText(tick)),
+    );
+  }
+  for (const tick of drawing.x.ticks) {
+    const x = across(tick).toFixed(1);
+    plot.appendChild(
+      svg("text", { class: "demo-chart-tick", attrs: { x, y: String(plotBottom + 12), "text-anchor": "middle" } }, tickText(tick)),
+    );
+  }
+  plot.appendChild(
+    svg("polyline", {
+      class: "demo-chart-axis",
+      attrs: { points: `${left},${top} ${left},${plotBottom} ${plotRight},${plotBottom}`, fill: "none" },
     }),
   );
   plot.appendChild(
-    svg("line", { class: "demo-chart-axis", attrs: { x1: "10", x2: String(width - 10), y1: String(base), y2: String(base) } }),
+    svg(
+      "text",
+      { class: "demo-chart-title", attrs: { x: String((left + plotRight) / 2), y: String(height - 6), "text-anchor": "middle" } },
+      drawing.x.title,
+    ),
   );
-  const address = formatAddress(source, chart.sheet);
+  plot.appendChild(
+    svg(
+      "text",
+      {
+        class: "demo-chart-title",
+        attrs: {
+          x: "10",
+          y: String((top + plotBottom) / 2),
+          "text-anchor": "middle",
+          transform: `rotate(-90 10 ${(top + plotBottom) / 2})`,
+        },
+      },
+      drawing.y.title,
+    ),
+  );
+  const clipped = svg("g", { attrs: { "clip-path": `url(#${clipId})` } });
+  drawing.series.forEach((s, i) => {
+    const colour = s.colour ?? (i === 0 ? "#3D5A80" : "#555555");
+    if (s.kind === "line") {
+      clipped.appendChild(
+        svg("polyline", {
+          class: "demo-chart-line",
+          attrs: {
+            points: s.positions.map((p) => p.join(",")).join(" "),
+            fill: "none",
+            stroke: colour,
+            "stroke-width": "1.5",
+            ...(s.dashed ? { "stroke-dasharray": "5 3" } : {}),
+          },
+        }),
+      );
+    } else {
+      for (const [x, y] of s.positions)
+        clipped.appendChild(svg("circle", { class: "demo-chart-point", attrs: { cx: String(x), cy: String(y), r: "2.5", fill: colour } }));
+    }
+  });
+  plot.appendChild(clipped);
+  const keys = drawing.series.map((s, i) =>
+    el(
+      "span",
+      { class: "demo-key" },
+      svg(
+        "svg",
+        { class: "demo-key-mark", attrs: { viewBox: "0 0 16 8", "aria-hidden": "true" } },
+        s.kind === "line"
+          ? svg("line", {
+              attrs: {
+                x1: "0",
+                x2: "16",
+                y1: "4",
+                y2: "4",
+                stroke: s.colour ?? "#555555",
+                "stroke-width": "2",
+                ...(s.dashed ? { "stroke-dasharray": "4 2" } : {}),
+              },
+            })
+          : svg("circle", { attrs: { cx: "8", cy: "4", r: "3", fill: s.colour ?? (i === 0 ? "#3D5A80" : "#555555") } }),
+      ),
+      s.name,
+    ),
+  );
+  const outside =
+    points && points.outside > 0
+      ? ` ${points.outside.toLocaleString("en-US")} of its values lie outside the axes and are not drawn (text counts as 0 in a scatter chart).`
+      : "";
+  const merged =
+    points && points.positions.length < points.count - points.outside ? " Points on the same spot of this drawing are drawn once." : "";
   return el(
     "figure",
     { class: "demo-chart" },
@@ -103,14 +188,10 @@ function chartView(workbook: Workbook, chart: ChartModel): HTMLElement {
       "figcaption",
       undefined,
       el("strong", undefined, chart.title || "Chart"),
-      ` — a recorded chart object (${chart.type}) of ${address}, which Excel would float over ${chart.from}:${chart.to}. The demo draws it here; it follows the same cells.${
-        drawn.rowsPerColumn > 1
-          ? ` With ${rows.length.toLocaleString("en-US")} rows, each bar of this sketch is the mean of ${drawn.rowsPerColumn.toLocaleString("en-US")} consecutive rows.`
-          : ""
-      }`,
+      ` — the demo’s drawing of the chart the workbook records (${chart.type}, which Excel would float over ${chart.from}:${chart.to}), read from the same cells, so it follows them.${outside}${merged}`,
     ),
-    plot,
-    el("p", { class: "demo-legend" }, ...names.map((n, s) => el("span", { class: `demo-key demo-series-${s % 2}` }, n))),
+    // The chart's own white area holds the plot and its legend, as Excel draws a new chart, in either theme.
+    el("div", { class: "demo-chart-sheet" }, plot, el("p", { class: "demo-legend" }, ...keys)),
   );
 }
 
@@ -297,7 +378,10 @@ export function mountGrid(container: HTMLElement, workbook: Workbook): void {
     grid.setAttribute("aria-activedescendant", cellId(active.row, active.column));
     nameBox.value = formatAddress(selection);
     if (document.activeElement !== contents) contents.value = String(workbook.entry(sheet, active.row, active.column));
-    replaceChildren(charts, ...workbook.charts.filter((c) => c.sheet === sheet).map((c) => chartView(workbook, c)));
+    replaceChildren(
+      charts,
+      ...workbook.charts.filter((c) => c.sheet === sheet).map((c, i) => chartView(workbook, c, `demo-chart-clip-${i}`)),
+    );
     if (moved) document.getElementById(cellId(active.row, active.column))?.scrollIntoView({ block: "nearest", inline: "nearest" });
   }
 

@@ -49,12 +49,41 @@ export interface TableModel {
   rect: CellRect;
 }
 
+/** Cells a chart series reads. Set `table` when they are a table's column: the series then follows the table's rows as it grows. */
+export interface SeriesLink {
+  readonly sheet: string;
+  readonly rect: CellRect;
+  readonly table?: { readonly name: string; readonly left: number; readonly right: number; readonly header: boolean };
+}
+
+/** A chart series as recorded: what it reads and how it is drawn. */
+export interface SeriesModel {
+  name: string;
+  chartType: string;
+  values: SeriesLink | null;
+  /** Null: the values are drawn against 1, 2, 3, ... */
+  xValues: SeriesLink | null;
+  markerStyle: string;
+  markerSize: number;
+  markerColour: string | null;
+  lineColour: string | null;
+  lineStyle: string;
+  lineWeight: number;
+}
+
+/** An axis's ends (null: Excel chooses) and title. */
+export interface AxisModel {
+  minimum: number | null;
+  maximum: number | null;
+  title: string;
+}
+
 export interface ChartModel {
   readonly type: string;
   readonly sheet: string;
-  readonly source: CellRect;
-  /** Set when the source was a table's columns: the chart then follows the table as it grows. */
-  readonly table?: { readonly name: string; readonly left: number; readonly right: number };
+  readonly series: SeriesModel[];
+  readonly axes: { readonly category: AxisModel; readonly value: AxisModel };
+  legend: string;
   title: string;
   from: string;
   to: string;
@@ -518,27 +547,36 @@ export class Workbook {
     return names;
   }
 
-  addChart(chart: Omit<ChartModel, "table">): ChartModel {
-    const table = this.tables.find(
-      (t) =>
-        t.sheet === chart.sheet &&
-        rectContains(t.rect, chart.source) &&
-        chart.source.top === t.rect.top &&
-        chart.source.bottom === t.rect.bottom,
-    );
-    const model: ChartModel = table
-      ? { ...chart, table: { name: table.name, left: chart.source.left, right: chart.source.right } }
-      : { ...chart };
-    this.charts.push(model);
+  addChart(chart: ChartModel): ChartModel {
+    this.charts.push(chart);
     this.notify();
-    return model;
+    return chart;
   }
 
-  /** The current source of a chart: a table-linked chart covers the table's present rows. */
-  chartSource(chart: ChartModel): CellRect {
-    if (!chart.table) return chart.source;
-    const table = this.tables.find((t) => t.name === chart.table?.name);
-    return table ? { top: table.rect.top, bottom: table.rect.bottom, left: chart.table.left, right: chart.table.right } : chart.source;
+  /**
+   * What a series reading these cells records: linked to a table when they are one of its columns' data rows
+   * (header row included or not), so that it follows the table as it grows, as Excel's charts of tables do.
+   */
+  seriesLink(sheet: string, rect: CellRect): SeriesLink {
+    const table = this.tables.find(
+      (t) =>
+        t.sheet === sheet &&
+        rectContains(t.rect, rect) &&
+        (rect.top === t.rect.top || rect.top === t.rect.top + 1) &&
+        rect.bottom === t.rect.bottom &&
+        rect.bottom > t.rect.top,
+    );
+    return table
+      ? { sheet, rect, table: { name: table.name, left: rect.left, right: rect.right, header: rect.top === table.rect.top } }
+      : { sheet, rect };
+  }
+
+  /** The cells a series reads now: a table-linked series covers the table's present rows. */
+  linkedRect(link: SeriesLink): CellRect {
+    const { table: linked } = link;
+    const table = linked ? this.tables.find((t) => t.name === linked.name) : undefined;
+    if (!linked || !table) return link.rect;
+    return { top: linked.header ? table.rect.top : table.rect.top + 1, bottom: table.rect.bottom, left: linked.left, right: linked.right };
   }
 
   /**

@@ -293,8 +293,13 @@ function text(value: string): BlockValue {
   return { kind: "text", text: value };
 }
 
-/** The side of the bounds that matches the alternative: a one-sided test gets the one-sided bound. */
-function boundSideFor(alternative: Alternative): "two-sided" | "lower" | "upper" {
+/**
+ * The side of the bounds that matches the alternative: a one-sided test gets the one-sided bound.
+ *
+ * @example
+ * boundSideFor("greater"); // "lower": a test for "above" gets a lower bound
+ */
+export function boundSideFor(alternative: Alternative): "two-sided" | "lower" | "upper" {
   return alternative === "greater" ? "lower" : alternative === "less" ? "upper" : "two-sided";
 }
 

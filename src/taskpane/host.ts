@@ -12,7 +12,9 @@
  * Range.clear, Range.getCellProperties/setCellProperties (1.9),
  * Worksheet.getUsedRangeOrNullObject, TableCollection.add/getItemOrNullObject,
  * Table.name/convertToRange, ChartCollection.add/getItemOrNullObject,
- * Chart.name/delete, NamedItemCollection.add/getItemOrNullObject and
+ * Chart.name/delete/setPosition/title/legend/axes (minimum, maximum, title),
+ * ChartSeriesCollection.add and ChartSeries.setValues/setXAxisValues, chartType
+ * and markers (1.7), NamedItemCollection.add/getItemOrNullObject and
  * NamedItem.getRangeOrNullObject/delete (1.4), WorksheetCollection.add/items
  * and Worksheet.activate/delete (1.1), WorksheetCollection.getItemOrNullObject
  * (1.4), RangeFormat.columnWidth (1.2).
@@ -29,7 +31,8 @@
  * write is one `run` of three, and a refused write two more.
  */
 import { formatAddress, parseAddress, rectSize, type CellRect } from "./a1";
-import { BLOCK_NAME_PREFIX, type BlockMark, type PlannedWrite } from "./writePlan";
+import { CHART_COLOURS, type PlannedChart } from "./chartPlan";
+import { BLOCK_NAME_PREFIX, companionNames, type BlockMark, type PlannedWrite } from "./writePlan";
 
 export interface HostFont {
   bold: boolean;
@@ -74,10 +77,39 @@ export interface HostTable {
   convertToRange(): HostRange;
 }
 
+/**
+ * Enumerated properties are typed as text, as Excel reads them back in wider sets than the pane writes; the
+ * pane writes only members of Excel.ChartType ("XYScatter", "XYScatterLinesNoMarkers"), Excel.ChartMarkerStyle
+ * ("Circle"), Excel.ChartLineStyle ("Continuous", "Dash") and Excel.ChartLegendPosition ("Bottom"), and the
+ * demo's stand-in refuses anything else (Microsoft, the enum pages of the Excel JavaScript API).
+ */
+export interface HostChartSeries {
+  name: string;
+  chartType: string;
+  markerStyle: string;
+  markerSize: number;
+  markerBackgroundColor: string;
+  markerForegroundColor: string;
+  readonly format: { readonly line: { color: string; lineStyle: string; weight: number } };
+  setValues(sourceData: HostRange): void;
+  setXAxisValues(sourceData: HostRange): void;
+}
+
+export interface HostChartAxis {
+  /** A number, or "" for Excel's automatic choice (Microsoft, "Excel.ChartAxis class"). */
+  minimum: number | "";
+  maximum: number | "";
+  readonly title: { text: string };
+}
+
 export interface HostChart {
   name: string;
   readonly isNullObject: boolean;
   readonly title: { text: string };
+  readonly series: { add(name?: string): HostChartSeries; getItemAt(index: number): HostChartSeries };
+  /** In a scatter chart the category axis is the horizontal one, the value axis the vertical one. */
+  readonly axes: { readonly categoryAxis: HostChartAxis; readonly valueAxis: HostChartAxis };
+  readonly legend: { position: string };
   setPosition(startCell: string, endCell?: string): void;
   load(propertyNames: string): unknown;
   delete(): void;
@@ -101,7 +133,7 @@ export interface HostWorksheet {
   };
   readonly charts: {
     readonly items: HostChart[];
-    add(type: "ColumnClustered", sourceData: HostRange, seriesBy?: "Auto" | "Columns" | "Rows"): HostChart;
+    add(type: string, sourceData: HostRange, seriesBy?: "Auto" | "Columns" | "Rows"): HostChart;
     getItemOrNullObject(name: string): HostChart;
     load(propertyNames: string): unknown;
   };
@@ -290,6 +322,11 @@ function queueWrite(context: HostContext, plan: PlannedWrite): { tables: HostTab
   for (const earlier of plan.replaces) {
     rangeOf(context, earlier).clear("All");
     book.names.getItemOrNullObject(earlier.name).delete();
+    if (earlier.helper) {
+      rangeOf(context, earlier.helper).clear("All");
+      book.names.getItemOrNullObject(earlier.helper.name).delete();
+    }
+    if (earlier.chart) book.worksheets.getItem(earlier.sheet).charts.getItemOrNullObject(earlier.chart).delete();
   }
   const tables = plan.tables.map((t) => {
     const made = book.worksheets.getItem(t.sheet).tables.add(formatAddress(t.rect, t.sheet), true);
@@ -310,19 +347,52 @@ function queueWrite(context: HostContext, plan: PlannedWrite): { tables: HostTab
   // Cautions are set apart by italics alone: a fixed grey that reads on white reads at about 2:1 on the dark
   // theme's cells, while the automatic font colour follows the theme (test/taskpane/paneDefects.test.ts).
   for (const r of block.cautionRows) range.getRow(r).format.font.italic = true;
-  if (plan.chart) {
-    const { chart } = plan;
-    const sheet = book.worksheets.getItem(chart.sheet);
-    const made = sheet.charts.add("ColumnClustered", sheet.getRange(formatAddress(chart.source)), "Columns");
-    made.name = chart.name;
-    made.title.text = chart.title;
-    made.setPosition(
-      formatAddress({ ...chart.area, bottom: chart.area.top, right: chart.area.left }),
-      formatAddress({ ...chart.area, top: chart.area.bottom, left: chart.area.right }),
-    );
-  }
+  if (plan.chart) queueChart(context, plan.chart);
   book.names.add(plan.blockName, range, "Evensplit result block");
   return { tables, block: range };
+}
+
+/**
+ * Queues the chart: its helper cells and their name, then a scatter chart made from the plotted values (one
+ * series, drawn against the rows), a two-point line series per reference line, the axes, title, legend and place.
+ */
+function queueChart(context: HostContext, chart: PlannedChart): void {
+  const book = context.workbook;
+  const sheet = book.worksheets.getItem(chart.sheet);
+  const helper = sheet.getRange(formatAddress(chart.helper.rect));
+  helper.formulas = chart.helper.formulas;
+  helper.getColumn(0).format.font.italic = true;
+  const source = book.worksheets.getItem(chart.points.sheet).getRange(formatAddress(chart.points.rect));
+  const made = sheet.charts.add("XYScatter", source, "Columns");
+  made.name = chart.name;
+  made.title.text = chart.title;
+  const points = made.series.getItemAt(0);
+  points.name = chart.points.name;
+  points.markerStyle = "Circle";
+  points.markerSize = 5;
+  points.markerBackgroundColor = CHART_COLOURS.points;
+  points.markerForegroundColor = CHART_COLOURS.points;
+  const ends = sheet.getRange(formatAddress(chart.lineEnds));
+  for (const line of chart.lines) {
+    const series = made.series.add(line.name);
+    series.chartType = "XYScatterLinesNoMarkers";
+    series.setXAxisValues(ends);
+    series.setValues(sheet.getRange(formatAddress(line.values)));
+    series.format.line.color = line.colour;
+    series.format.line.lineStyle = line.style;
+    series.format.line.weight = 1.5;
+  }
+  made.axes.valueAxis.minimum = chart.valueAxis.minimum;
+  made.axes.valueAxis.maximum = chart.valueAxis.maximum;
+  made.axes.valueAxis.title.text = chart.valueAxis.title;
+  made.axes.categoryAxis.minimum = 0;
+  made.axes.categoryAxis.title.text = chart.rowAxisTitle;
+  made.legend.position = "Bottom";
+  made.setPosition(
+    formatAddress({ ...chart.area, bottom: chart.area.top, right: chart.area.left }),
+    formatAddress({ ...chart.area, top: chart.area.bottom, left: chart.area.right }),
+  );
+  book.names.add(chart.helper.name, helper, "Evensplit chart helper cells");
 }
 
 /** A table whose columns Excel named otherwise than the plan expected would leave the block's references pointing at nothing. */
@@ -353,9 +423,13 @@ async function undoWrite(
       made = found.tables.map((table) => !table.isNullObject);
       for (const table of found.tables) if (!table.isNullObject) table.convertToRange();
       if (found.chart && !found.chart.isNullObject) found.chart.delete();
+      if (found.helper && !found.helper.isNullObject) found.helper.delete();
       if (!found.mark.isNullObject) found.mark.delete();
       plan.replaces.forEach((earlier, i) => {
         if (found.earlier[i].isNullObject) book.names.add(earlier.name, rangeOf(context, earlier), "Evensplit result block");
+        const helper = found.earlierHelpers[i];
+        if (earlier.helper && helper?.isNullObject)
+          book.names.add(earlier.helper.name, rangeOf(context, earlier.helper), "Evensplit chart helper cells");
       });
       for (const part of snapshot) {
         const range = rangeOf(context, part);
@@ -389,17 +463,31 @@ async function undoWrite(
 function madeObjects(
   context: HostContext,
   plan: PlannedWrite,
-): { tables: HostTable[]; chart: HostChart | null; mark: HostNamedItem; earlier: HostNamedItem[] } {
+): {
+  tables: HostTable[];
+  chart: HostChart | null;
+  helper: HostNamedItem | null;
+  mark: HostNamedItem;
+  earlier: HostNamedItem[];
+  earlierHelpers: (HostNamedItem | null)[];
+  earlierCharts: (HostChart | null)[];
+} {
   const book = context.workbook;
   const tables = plan.tables.map((t) => book.worksheets.getItem(t.sheet).tables.getItemOrNullObject(t.name));
   for (const table of tables) table.load("name");
   const chart = plan.chart ? book.worksheets.getItem(plan.chart.sheet).charts.getItemOrNullObject(plan.chart.name) : null;
   chart?.load("name");
+  const helper = plan.chart ? book.names.getItemOrNullObject(plan.chart.helper.name) : null;
+  helper?.load("name");
   const mark = book.names.getItemOrNullObject(plan.blockName);
   mark.load("name");
   const earlier = plan.replaces.map((b) => book.names.getItemOrNullObject(b.name));
   for (const name of earlier) name.load("name");
-  return { tables, chart, mark, earlier };
+  const earlierHelpers = plan.replaces.map((b) => (b.helper ? book.names.getItemOrNullObject(b.helper.name) : null));
+  for (const name of earlierHelpers) name?.load("name");
+  const earlierCharts = plan.replaces.map((b) => (b.chart ? book.worksheets.getItem(b.sheet).charts.getItemOrNullObject(b.chart) : null));
+  for (const made of earlierCharts) made?.load("name");
+  return { tables, chart, helper, mark, earlier, earlierHelpers, earlierCharts };
 }
 
 function sameCell(a: unknown, b: unknown): boolean {
@@ -435,10 +523,15 @@ function objectsLeft(plan: PlannedWrite, found: ReturnType<typeof madeObjects>):
     if (!found.tables[i].isNullObject) left.push(`table ${t.name} over ${formatAddress(t.rect, t.sheet)}`);
   });
   if (plan.chart && found.chart && !found.chart.isNullObject) left.push(`the chart ${plan.chart.name}`);
+  if (plan.chart && found.helper && !found.helper.isNullObject) left.push(`the defined name ${plan.chart.helper.name}`);
   if (!found.mark.isNullObject) left.push(`the defined name ${plan.blockName}`);
   plan.replaces.forEach((earlier, i) => {
     if (found.earlier[i].isNullObject)
       left.push(`no defined name ${earlier.name} any more for the earlier block at ${formatAddress(earlier.rect, earlier.sheet)}`);
+    if (earlier.helper && found.earlierHelpers[i]?.isNullObject)
+      left.push(`no defined name ${earlier.helper.name} any more for the earlier chart's helper cells`);
+    // A deleted chart cannot be put back from what was read; writing that block again redraws it.
+    if (earlier.chart && found.earlierCharts[i]?.isNullObject) left.push(`no chart ${earlier.chart} any more beside the earlier block`);
   });
   return left;
 }
@@ -531,14 +624,32 @@ export function createHost(run: RunBatch): Host {
         const names = context.workbook.names;
         names.load("items/name");
         await context.sync();
+        const byName = new Map(names.items.map((n) => [n.name.toLowerCase(), n]));
         const ours = names.items.filter((n) => n.name.toLowerCase().startsWith(BLOCK_NAME_PREFIX.toLowerCase()));
-        const ranges = ours.map((n) => {
+        const found = ours.map((n) => {
           const range = n.getRangeOrNullObject();
           range.load("address");
-          return range;
+          const helperName = byName.get(companionNames(n.name).helper.toLowerCase());
+          const helper = helperName?.getRangeOrNullObject() ?? null;
+          helper?.load("address");
+          return { name: n.name, range, helperName: helperName?.name, helper };
         });
         await context.sync();
-        return ours.flatMap((n, i) => (ranges[i].isNullObject ? [] : [{ name: n.name, ...parseSheetAddress(ranges[i].address, "") }]));
+        const marks = found.flatMap(({ name, range, helperName, helper }): BlockMark[] => {
+          if (range.isNullObject) return [];
+          const where = parseSheetAddress(range.address, "");
+          const cells =
+            helper && !helper.isNullObject && helperName ? { helper: { name: helperName, ...parseSheetAddress(helper.address, "") } } : {};
+          return [{ name, ...where, ...cells }];
+        });
+        // One more sync for the charts of all the blocks, each looked up on its block's sheet by the name it was given.
+        const charts = marks.map((mark) => {
+          const chart = context.workbook.worksheets.getItem(mark.sheet).charts.getItemOrNullObject(companionNames(mark.name).chart);
+          chart.load("name");
+          return chart;
+        });
+        await context.sync();
+        return marks.map((mark, i) => (charts[i].isNullObject ? mark : { ...mark, chart: charts[i].name }));
       }),
 
     takenNames: (sheetNames) =>

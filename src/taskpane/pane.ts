@@ -375,7 +375,9 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
       say(outcome.message);
       return;
     }
-    const chart = outcome.chartAt ? ` A chart was added at ${outcome.chartAt}.` : "";
+    const chart = outcome.chartAt
+      ? ` A chart was added at ${outcome.chartAt}; the cells its lines read are ${outcome.helperCells ?? ""}, beside the block.`
+      : "";
     const made = outcome.created.length > 0 ? ` The data became table ${outcome.created.map((t) => t.name).join(" and ")}.` : "";
     const cleared =
       outcome.replaced.length > 0

@@ -10,17 +10,28 @@
  * Cost: the preview costs the catalogue calls on the data (one pass each);
  * the updates O(1).
  */
-import { resultBlockRows, type BlockRequest, type CatalogueCall } from "../report/resultBlock";
+import { boundSideFor, resultBlockRows, type BlockRequest, type CatalogueCall } from "../report/resultBlock";
 import { numbersFromCells, pairsFromCells } from "../stats/cells";
 import { pairedDifferences } from "../stats/differences";
 import { formatAddress, type CellRect } from "./a1";
-import { choices, dataReady, referenceSentence } from "./dataState";
+import { choices, dataKind, dataReady, referenceSentence } from "./dataState";
 import type { Confirmation, PaneState } from "./paneState";
 import { nullBars, type NullBar } from "./plot";
 import { numberLineLayout, type NumberLineInput } from "./plotView";
 import { blockPreview, blockSize, type PreviewRow } from "./preview";
 import { currentRequest } from "./questionState";
-import { blockInputs, blockRefs, bodyOf, chartSource, placeFromText, referenceOptions, tablesToCreate, type DataChoice } from "./workflow";
+import { chartProblem } from "./chartPlan";
+import {
+  blockInputs,
+  blockRefs,
+  bodyOf,
+  chartColumnsOf,
+  chartTableReference,
+  placeFromText,
+  referenceOptions,
+  tablesToCreate,
+  type DataChoice,
+} from "./workflow";
 import { onSheet, wordingRequest } from "./writePlan";
 
 export const PAST_EDGE =
@@ -88,16 +99,18 @@ export function setConfirm(state: PaneState, confirm: Confirmation | null): Pane
 }
 
 /**
- * The state with a chart only where one can be made (paired columns side by side; never for a database's answer).
+ * The state with a chart only where one can be made: one set of values or pairs, each range one column, never a database's answer.
  *
  * @example
- * settleResult({ ...state, chart: true }).chart; // false when the two columns are apart
+ * settleResult({ ...state, chart: true }).chart; // false when the values fill two columns
  */
 export function settleResult(state: PaneState): PaneState {
   // A database's values are not in the sheet: a chart of the pasted counts would mean nothing.
   if (state.chart && state.database !== null) return { ...state, chart: false };
   const c = choices(state);
-  if (!state.chart || c.length === 0 || (state.groups !== "several" && chartSource(c, []) !== null)) return state;
+  if (!state.chart || c.length === 0) return state;
+  const kind = dataKind(state);
+  if ((kind === "one" || kind === "pairs") && chartProblem(chartColumnsOf(c)) === null) return state;
   return { ...state, chart: false };
 }
 
@@ -123,6 +136,23 @@ export function targetSize(state: PaneState, request: BlockRequest, calculate: C
   const rows = resultBlockRows(request);
   if (!rows.some((row) => row.spill) || choices(state).length === 0) return { rows: rows.length, columns: 2 };
   return blockSize(statePreview(state, request, calculate));
+}
+
+/**
+ * What the chart will show, in a sentence for the hint under its checkbox.
+ *
+ * @example
+ * chartWords(false, "two-sided", true); // "A scatter chart of the values row by row, with H0's value and the bounds as lines; ..."
+ */
+export function chartWords(paired: boolean, side: "two-sided" | "lower" | "upper", followsNewRows: boolean): string {
+  const bounds = side === "two-sided" ? "the lower and upper bounds" : `the ${side} bound`;
+  const what = paired ? "the differences (second − first), pair by pair," : "the values row by row,";
+  const follows = paired
+    ? " The differences are worked out in helper cells for the pairs there are now; write again after adding rows."
+    : followsNewRows
+      ? " New rows of the table show up as new points."
+      : "";
+  return `A scatter chart of ${what} with H0’s value and ${bounds} as lines that move with the block. It goes right of the block, beside a few labelled helper cells, where it covers no data. Its value axis is set around the values when written; a value far outside it needs the block written again.${follows}`;
 }
 
 /**
@@ -262,7 +292,7 @@ export function resultView(state: PaneState, calculate: CatalogueCall): ResultVi
   const used = numberOrNull(value("used"));
   const observed = request.test === "quantile" ? numberOrNull(value("below")) : numberOrNull(value("statistic"));
   const bars = countTest && state.showNull && used !== null && observed !== null ? nullBars(used, request.quantile ?? 0.5, observed) : [];
-  const source = chartSource(c, []);
+  const chartBlocked = chartProblem(chartColumnsOf(c));
   return {
     ...fixed,
     rows,
@@ -278,19 +308,23 @@ export function resultView(state: PaneState, calculate: CatalogueCall): ResultVi
     tooManyBars: state.showNull && countTest && bars.length === 0,
     ...placeOf(state, request, rows.length, calculate),
     recap: referenceSentence(state),
-    chartAvailable: source !== null,
+    chartAvailable: chartBlocked === null,
     makesTable: state.reference === "table" && !referenceOptions(c).allTableColumns && tablesToCreate(c).length > 0,
     chartHint:
-      source === null
-        ? "Not available: the two columns are not side by side."
-        : `A clustered column chart of ${formatAddress(source.rect)}, linked to the same cells, placed to the right of the block.`,
+      chartBlocked !== null
+        ? `Not available: ${chartBlocked[0].toLowerCase()}${chartBlocked.slice(1)}`
+        : chartWords(
+            state.paired,
+            boundSideFor(request.alternative),
+            chartTableReference(c, state.reference, []) !== null || state.reference === "table",
+          ),
   };
 }
 
 /**
  * The Result step for groups: the preview (the table by group included) and the place; no number line, since
- * the groups' values are not one set to draw against one hypothesised value. A chart is offered for two
- * groups side by side, never for a group column.
+ * the groups' values are not one set to draw against one hypothesised value, and no chart: independent groups
+ * have no row-by-row difference to plot.
  */
 function groupResultView(
   state: PaneState,
@@ -308,7 +342,6 @@ function groupResultView(
     : `${shape}; type the cell for its top-left corner, such as H1.`;
   const targetProblem =
     state.target.trim() === "" ? null : !target ? "That is not a cell address; type one such as H1." : fits ? null : PAST_EDGE;
-  const source = state.groups === "two" ? chartSource(c, []) : null;
   return {
     ...EMPTY,
     ...fixed,
@@ -316,13 +349,8 @@ function groupResultView(
     targetHint,
     targetProblem,
     recap: referenceSentence(state),
-    chartAvailable: source !== null,
+    chartAvailable: false,
     makesTable: state.reference === "table" && !referenceOptions(c).allTableColumns && tablesToCreate(c).length > 0,
-    chartHint:
-      source !== null
-        ? `A clustered column chart of ${formatAddress(source.rect)}, linked to the same cells, placed to the right of the block.`
-        : state.groups === "two"
-          ? "Not available: the two columns are not side by side."
-          : "Not available for values with a group column.",
+    chartHint: "Not available: the chart is drawn for one set of values or pairs, not for groups.",
   };
 }

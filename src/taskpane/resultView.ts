@@ -122,7 +122,7 @@ export function resultPage(heading: HTMLElement, events: ResultEvents): ResultPa
     "div",
     { class: "es-check" },
     chartCheck,
-    el("label", { attrs: { for: chartId } }, "Also add a chart of the data beside the block"),
+    el("label", { attrs: { for: chartId } }, "Also add a chart of the values against H0 and the bounds"),
   );
   const writeButton = button("Write the block", "primary", () => events.write(false));
   const confirmTitle = el("h3", { attrs: { tabindex: "-1" } }, "Some of these cells are not empty");

@@ -13,14 +13,16 @@
  * Cost: a few `run` batches per step; O(cells of the data) in the pane.
  */
 import type { BlockInputs, BlockRequest, CatalogueCall } from "../report/resultBlock";
-import { formatAddress, LAST_ROW, parseAddress, rectsOverlap, type CellRect } from "./a1";
+import { formatAddress, LAST_COLUMN, LAST_ROW, parseAddress, rectsOverlap, type CellRect } from "./a1";
 import { headerName, tablePlace, tallyCells, type CellTally, type TablePlace } from "./dataInfo";
 import type { CellsRead, Host, SheetRect, TableInfo } from "./host";
 import { blockRect, cellContents, filledCells, firstFreeColumn, type FilledCell } from "./placement";
 import { blockPreview, blockSize, blockWrite, type BlockRefs, type PreviewRow } from "./preview";
 import { absoluteReference, openEnded, structuredReference } from "./references";
+import { CHART_ROWS, CHART_SPAN, chartColumn, chartProblem, planChart, type ChartColumn } from "./chartPlan";
 import {
-  BLOCK_NAME_PREFIX,
+  companionNames,
+  freeBlockName,
   freeName,
   onSheet,
   tableHeaderProblem,
@@ -302,29 +304,50 @@ export function placeFromText(text: string, defaultSheet: string, height: number
 }
 
 /**
- * The chart's source: the data columns with their header row; null when paired columns are not side by side.
+ * The columns the chart plots: the data rows of each range (one, or two for pairs).
  *
  * @example
- * chartSource([{ range: b, useHeader: true }, { range: c, useHeader: true }], []); // { sheet: "Paint line", rect: B1:C25 }
+ * chartColumnsOf([{ range, useHeader: true }]); // [{ sheet: "Paint line", rect: B2:B25, values: [...], name: "Thickness (µm)" }]
  */
-export function chartSource(choices: readonly DataChoice[], created: readonly TableInfo[]): { sheet: string; rect: CellRect } | null {
-  const rects = choices.map((c) => {
-    const { range } = c;
-    if (range.place.kind === "column") {
-      const { table, body } = range.place.match;
-      return { sheet: range.sheet, rect: { ...body, top: table.rect.top } };
-    }
-    const made = createdColumn(range, created);
-    if (made) return { sheet: range.sheet, rect: { ...range.rect, bottom: made.table.rect.bottom } };
-    return { sheet: range.sheet, rect: range.rect };
+export function chartColumnsOf(choices: readonly DataChoice[]): ChartColumn[] {
+  return choices.map((c) => {
+    const body = bodyOf(c);
+    return {
+      sheet: body.sheet,
+      rect: body.rect,
+      values: body.values,
+      ...(body.name === undefined ? {} : { name: wordingName(body.name) }),
+    };
   });
-  if (rects.length === 1) return rects[0];
-  const [a, b] = rects;
-  if (a.sheet !== b.sheet || !adjacent(a.rect, b.rect)) return null;
-  return {
-    sheet: a.sheet,
-    rect: { top: a.rect.top, bottom: a.rect.bottom, left: Math.min(a.rect.left, b.rect.left), right: Math.max(a.rect.right, b.rect.right) },
-  };
+}
+
+/**
+ * The structured reference of a one-sample chart's column when the block refers to a table column, so the
+ * chart counts the table's rows as they grow; null otherwise (fixed cells, an open-ended range, or pairs).
+ *
+ * @example
+ * chartTableReference([{ range, useHeader: true }], "table", [table1]); // "Table1[Thickness]"
+ */
+export function chartTableReference(
+  choices: readonly DataChoice[],
+  reference: ReferenceChoice,
+  created: readonly TableInfo[],
+): string | null {
+  if (choices.length !== 1) return null;
+  const { range } = choices[0];
+  if (range.place.kind === "column") return structuredReference(range.place.match.table.name, range.place.match.column);
+  const made = reference === "table" ? createdColumn(range, created) : null;
+  return made ? structuredReference(made.table.name, made.column) : null;
+}
+
+/** Earlier blocks a block at `target` replaces: those it overlaps on the same sheet. */
+function replacedBy(earlier: readonly BlockMark[], target: SheetRect): BlockMark[] {
+  return earlier.filter((b) => sameSheet(b.sheet, target.sheet) && rectsOverlap(b.rect, target.rect));
+}
+
+/** Everything a write clears before writing: the replaced blocks and their charts' helper cells. */
+function clearedBy(replaces: readonly BlockMark[]): SheetRect[] {
+  return replaces.flatMap((b) => [{ sheet: b.sheet, rect: b.rect }, ...(b.helper ? [{ sheet: b.helper.sheet, rect: b.helper.rect }] : [])]);
 }
 
 /** What the person was shown and agreed to replace: the cells of the place (and of the earlier block it replaces) as they were listed. */
@@ -361,6 +384,8 @@ export type WriteOutcome =
       readonly created: readonly TableInfo[];
       readonly rows: readonly PreviewRow[];
       readonly chartAt: string | null;
+      /** The chart's helper cells, which its lines read. */
+      readonly helperCells: string | null;
       /** Earlier blocks this one replaced, whose regions were cleared. */
       readonly replaced: readonly BlockMark[];
     };
@@ -400,6 +425,7 @@ export function planWrite(
   plan: WritePlan,
   taken: readonly string[],
   earlier: readonly BlockMark[],
+  chartLeft = plan.target.rect.right + 2,
 ): { ok: true; write: PlannedWrite } | { ok: false; message: string } {
   const { target } = plan;
   const names = [...taken];
@@ -419,28 +445,44 @@ export function planWrite(
   // The block takes the size its rows give (a table by group takes a row per group) from the target's top-left cell.
   const size = blockSize(rows);
   const block = blockWrite(rows, target.sheet, blockRect({ row: target.rect.top, column: target.rect.left }, size.rows, size.columns));
-  const blockName = freeName(BLOCK_NAME_PREFIX, names);
+  const blockName = freeBlockName(names);
   names.push(blockName);
-  const source = plan.chart ? chartSource(plan.choices, tables) : null;
   let chart: PlannedChart | null = null;
-  if (source) {
-    const titles = plan.choices
-      .map((c) => bodyOf(c).name)
-      .filter((n): n is string => n !== undefined)
-      .map((n) => wordingName(n));
-    const area = { top: target.rect.top, left: target.rect.right + 2, bottom: target.rect.top + 14, right: target.rect.right + 8 };
-    chart = {
-      sheet: source.sheet,
-      source: source.rect,
-      title: titles.length > 0 ? titles.join(" and ") : "Data",
-      area,
-      name: freeName("Evensplit chart ", names),
-    };
+  if (plan.chart) {
+    const columns = chartColumnsOf(plan.choices);
+    const problem = chartProblem(columns);
+    if (problem) return { ok: false, message: `${problem} Leave the chart out.` };
+    const companions = companionNames(blockName);
+    chart = planChart({
+      request: wordingRequest(plan.request),
+      columns,
+      tableReference: chartTableReference(plan.choices, plan.reference, tables),
+      block: { sheet: target.sheet, rect: block.rect },
+      rows,
+      left: chartLeft,
+      chartName: companions.chart,
+      helperName: companions.helper,
+    });
   }
-  const replaces = earlier.filter((b) => sameSheet(b.sheet, target.sheet) && rectsOverlap(b.rect, target.rect));
+  const replaces = replacedBy(earlier, target);
   const write: PlannedWrite = { tables, refs, rows, block, chart, blockName, replaces };
   const problem = writeProblem(write);
   return problem ? { ok: false, message: problem } : { ok: true, write };
+}
+
+/**
+ * Where the chart's helper cells start: the first columns right of the block where they and the chart fit on
+ * cells that are empty or about to be cleared, level with the block (chartPlan.ts).
+ */
+async function chartLeftOf(host: Host, plan: WritePlan, target: SheetRect, cleared: readonly SheetRect[]): Promise<number> {
+  const start = target.rect.right + 2;
+  const used = await host.usedRect(target.sheet);
+  const pairs = plan.choices.length === 2 ? bodyOf(plan.choices[0]).rect : null;
+  const height = Math.max(CHART_ROWS, pairs ? pairs.bottom - pairs.top + 4 : 0);
+  const right = Math.min(LAST_COLUMN, Math.max(start + CHART_SPAN, (used?.right ?? start) + 1));
+  const bottom = Math.min(LAST_ROW, target.rect.top + height - 1);
+  const strip = await host.read(formatAddress({ top: target.rect.top, bottom, left: start - 1, right }, target.sheet));
+  return strip ? chartColumn(strip, start, cleared) : start;
 }
 
 function consentFor(region: readonly SheetRect[], reads: readonly CellsRead[]): Consent {
@@ -514,21 +556,22 @@ export async function writeResult(host: Host, plan: WritePlan): Promise<WriteOut
   const place = await host.read(formatAddress(target.rect, target.sheet));
   if (!place) return { kind: "refused", message: "The place for the block could not be read: check the sheet name." };
   const sheets = [...new Set([place.sheet, ...plan.choices.map((c) => c.range.sheet)])];
-  const planned = planWrite(
-    { ...plan, target: { sheet: place.sheet, rect: place.rect } },
-    await host.takenNames(sheets),
-    await host.blocks(),
-  );
+  const at = { sheet: place.sheet, rect: place.rect };
+  const earlier = await host.blocks();
+  const cleared = clearedBy(replacedBy(earlier, at));
+  const chartLeft = plan.chart ? await chartLeftOf(host, plan, at, cleared) : undefined;
+  const planned = planWrite({ ...plan, target: at }, await host.takenNames(sheets), earlier, chartLeft);
   if (!planned.ok) return { kind: "refused", message: planned.message };
   const { write } = planned;
   // The place read and listed must be exactly the block's: otherwise cells outside the listing would be written.
   if (formatAddress(write.block.rect) !== formatAddress(place.rect)) {
     return { kind: "refused", message: "The block's size changed since the place was chosen (the data changed): press Write again." };
   }
-  const region: SheetRect[] = [{ sheet: place.sheet, rect: place.rect }, ...write.replaces.map((b) => ({ sheet: b.sheet, rect: b.rect }))];
+  const helper = write.chart ? [{ sheet: write.chart.sheet, rect: write.chart.helper.rect }] : [];
+  const region: SheetRect[] = [at, ...helper, ...cleared];
   const reads: CellsRead[] = [place];
-  for (const earlier of write.replaces) {
-    const read = await host.read(formatAddress(earlier.rect, earlier.sheet));
+  for (const part of region.slice(1)) {
+    const read = await host.read(formatAddress(part.rect, part.sheet));
     if (read) reads.push(read);
   }
   const listing = consentFor(region, reads);
@@ -546,6 +589,7 @@ export async function writeResult(host: Host, plan: WritePlan): Promise<WriteOut
     created: write.tables,
     rows: write.rows,
     chartAt,
+    helperCells: write.chart ? formatAddress(write.chart.helper.rect) : null,
     replaced: write.replaces,
   };
 }

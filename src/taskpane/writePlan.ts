@@ -21,6 +21,7 @@
 import type { BlockRequest } from "../report/resultBlock";
 import { LAST_COLUMN, LAST_ROW, type CellRect } from "./a1";
 import type { BlockWrite, SheetRect, TableInfo } from "./host";
+import type { PlannedChart } from "./chartPlan";
 import type { BlockRefs, PreviewRow } from "./preview";
 
 /** Microsoft, "Excel specifications and limits": length of formula contents. */
@@ -159,20 +160,48 @@ export function tableHeaderProblem(headers: readonly string[]): string | null {
 /** A table the write makes from the data: where, the name it is given, its columns as the header row names them. */
 export type PlannedTable = TableInfo;
 
-/** A native chart of the data the write adds, linked to its range, with the name it is given. */
-export interface PlannedChart {
-  readonly sheet: string;
-  /** The source range, header row included so the series are named. */
-  readonly source: CellRect;
-  readonly title: string;
-  /** The cells the chart covers. */
-  readonly area: CellRect;
-  readonly name: string;
-}
+/** The chart a write adds, with its helper cells (chartPlan.ts). */
+export type { PlannedChart } from "./chartPlan";
 
-/** A block the pane wrote earlier: its defined name and where it is. */
+/** A block the pane wrote earlier: its defined name and where it is, and its chart and helper cells when it has them. */
 export interface BlockMark extends SheetRect {
   readonly name: string;
+  /** The name of the block's chart, on the block's sheet. */
+  readonly chart?: string;
+  /** The chart's helper cells and the defined name that marks them. */
+  readonly helper?: SheetRect & { readonly name: string };
+}
+
+/** Defined names that mark a chart's helper cells start with this; the number is the block's. */
+export const HELPER_NAME_PREFIX = "Evensplit_chartcells_";
+/** A block's chart is named this and the block's number. */
+export const CHART_NAME_PREFIX = "Evensplit chart ";
+
+/**
+ * The names of a block's chart and helper cells, from the block's own name: one number ties the three together,
+ * so a later write that replaces the block finds its chart and helper cells too.
+ *
+ * @example
+ * companionNames("Evensplit_block_3"); // { chart: "Evensplit chart 3", helper: "Evensplit_chartcells_3" }
+ */
+export function companionNames(blockName: string): { chart: string; helper: string } {
+  const number = blockName.slice(BLOCK_NAME_PREFIX.length);
+  return { chart: `${CHART_NAME_PREFIX}${number}`, helper: `${HELPER_NAME_PREFIX}${number}` };
+}
+
+/**
+ * The first block name whose chart and helper names are free too (compared without regard to case).
+ *
+ * @example
+ * freeBlockName(["Evensplit_block_1", "Evensplit chart 2"]); // "Evensplit_block_3"
+ */
+export function freeBlockName(taken: readonly string[]): string {
+  const used = new Set(taken.map((t) => t.toLowerCase()));
+  for (let n = 1; ; n++) {
+    const name = `${BLOCK_NAME_PREFIX}${n}`;
+    const { chart, helper } = companionNames(name);
+    if (![name, chart, helper].some((x) => used.has(x.toLowerCase()))) return name;
+  }
 }
 
 /** Everything one write does, decided and checked before the workbook changes. */
@@ -201,13 +230,19 @@ export function writeProblem(plan: PlannedWrite): string | null {
   if (!onSheet(block.rect)) {
     return "The block does not fit on the sheet there (1,048,576 rows, columns A to XFD): pick a top-left cell further up or to the left.";
   }
-  if (chart && !onSheet(chart.area)) {
+  if (chart && (!onSheet(chart.area) || !onSheet(chart.helper.rect))) {
     return "The chart beside the block would run past the edge of the sheet: pick a place further to the left or up, or leave the chart out.";
   }
   for (let r = 0; r < block.formulas.length; r++) {
     for (let c = 0; c < block.formulas[r].length; c++) {
       const problem = cellContentProblem(block.formulas[r][c]);
       if (problem) return `Excel would refuse row ${r + 1} of the block (${plan.rows[r]?.label ?? ""}): the cell ${problem}.`;
+    }
+  }
+  for (const row of chart?.helper.formulas ?? []) {
+    for (const content of row) {
+      const problem = cellContentProblem(content);
+      if (problem) return `Excel would refuse a helper cell of the chart: the cell ${problem}. Leave the chart out.`;
     }
   }
   return null;

@@ -107,13 +107,15 @@ describe.skipIf(!run)("the pane on the demo page", () => {
     expect(await page.getByLabel("Top-left cell of the block").inputValue()).toBe("E1");
     await snap(page, "04-one-sample-result");
 
-    await page.getByLabel("Also add a chart of the data beside the block").check();
+    await page.getByLabel("Also add a chart of the values against H0 and the bounds").check();
     await page.getByRole("button", { name: "Write the block" }).click();
     await eventually(() => statusText(page)).toContain("The block was written to 'Paint line'!E1:F24");
-    expect(await statusText(page)).toContain("The data became table Table1. A chart was added at H1.");
+    expect(await statusText(page)).toContain(
+      "The data became table Table1. A chart was added at L1; the cells its lines read are H1:J3, beside the block.",
+    );
     expect(await cellText(page, 0, 4)).toBe("Evensplit result");
     const chart = page.locator(".demo-chart figcaption");
-    expect(await chart.innerText()).toContain("of 'Paint line'!B1:B25");
+    expect(await chart.innerText()).toContain("the demo’s drawing of the chart the workbook records (XYScatter");
     const pLine = await rowOfLabel(page, 4, "p-value");
     expect(await cellText(page, pLine, 5)).toBe(expected);
     const formula = await page.evaluate(
@@ -128,8 +130,7 @@ describe.skipIf(!run)("the pane on the demo page", () => {
     const nLine = await rowOfLabel(page, 4, "Numbers in range (n total)");
     await eventually(() => cellText(page, nLine, 5)).toBe("23");
     await eventually(() => cellText(page, pLine, 5)).toBe(shownPValue(upperTail(17, 22)));
-    // The recorded chart was made on the table's column, so it follows the new row too.
-    expect(await chart.innerText()).toContain("of 'Paint line'!B1:B26");
+    // The chart follows the new row too: test/browser/chart.test.ts.
     await snap(page, "06-one-sample-row-added", true);
     await page.close();
   });

@@ -134,7 +134,7 @@ describe("proxies belong to their own Excel.run (office-js CommonUtility.validat
     const run = fakeRun(w);
     const kept = await run(async (context) => context.workbook.worksheets.getItem(S).getRange("A1:A3"));
     const reuse = run(async (context) => {
-      context.workbook.worksheets.getItem(S).charts.add("ColumnClustered", kept);
+      context.workbook.worksheets.getItem(S).charts.add("XYScatter", kept);
       await context.sync();
     });
     await expect(reuse).rejects.toMatchObject({ code: "InvalidRequestContext" });

@@ -1,7 +1,7 @@
 /**
  * The demo sheet's formula reader and evaluator. Expected values follow
  * Excel's documented formula behaviour (Microsoft, "Calculation operators and
- * precedence in Excel", and the INDEX, ROWS, COLUMNS, COUNT, COUNTA, IF
+ * precedence in Excel", and the INDEX, ROWS, COLUMNS, COUNT, COUNTA, IF, NA
  * function pages), as recalled — marked "from memory" where a detail is not
  * in those pages.
  */
@@ -187,6 +187,12 @@ describe("evaluate: built-in functions", () => {
     expect(calc('IF(A1<=0.05,"reject","keep")')).toBe("keep");
     expect(calc('IF(A1>=1,"yes","no")')).toBe("yes");
     expect((calc('IF(1/0,"a","b")') as { code: string }).code).toBe("#DIV/0!");
+  });
+
+  it('NA() is the #N/A error value, and takes no arguments (Microsoft, "NA function")', () => {
+    expect((calc("NA()") as { code: string }).code).toBe("#N/A");
+    expect((calc("IF(COUNT(A1,A3)=2,A3-A1,NA())") as { code: string }).code).toBe("#N/A");
+    expect(calc("IF(COUNT(A1,A2)=2,A2-A1,NA())")).toBe(1);
   });
 
   it('refuses more than 255 arguments or calls nested deeper than 64 (Microsoft, "Excel specifications and limits")', () => {

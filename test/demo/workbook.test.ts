@@ -113,19 +113,17 @@ describe("tables", () => {
     expect(w.tables[0].rect.bottom).toBe(3);
   });
 
-  it("keeps a chart made on a table's columns linked to the table as it grows", () => {
+  it("keeps a chart series set to a table's column linked to the table as it grows", () => {
     const w = sheetWith([["Value"], [1], [2]]);
     w.addTable(S, { top: 0, left: 0, bottom: 2, right: 0 });
-    const chart = w.addChart({
-      type: "ColumnClustered",
-      sheet: S,
-      source: { top: 0, left: 0, bottom: 2, right: 0 },
-      title: "",
-      from: "C1",
-      to: "H10",
-    });
+    const body = w.seriesLink(S, { top: 1, left: 0, bottom: 2, right: 0 });
+    const withHeader = w.seriesLink(S, { top: 0, left: 0, bottom: 2, right: 0 });
+    const part = w.seriesLink(S, { top: 1, left: 0, bottom: 1, right: 0 });
     w.writeEntries(S, 3, 0, [[3]], true);
-    expect(w.chartSource(chart)).toEqual({ top: 0, left: 0, bottom: 3, right: 0 });
+    expect(w.linkedRect(body)).toEqual({ top: 1, left: 0, bottom: 3, right: 0 });
+    expect(w.linkedRect(withHeader)).toEqual({ top: 0, left: 0, bottom: 3, right: 0 });
+    // Cells that are only part of the column stay as they were.
+    expect(w.linkedRect(part)).toEqual({ top: 1, left: 0, bottom: 1, right: 0 });
   });
 });
 

@@ -7,6 +7,7 @@
  */
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
+import { CHART_COLOURS } from "../../src/taskpane/chartPlan";
 import { contrastRatio, relativeLuminance, themeFor } from "../../src/taskpane/theme";
 
 function palette(css: string, selector: string): Record<string, string> {
@@ -42,8 +43,6 @@ const GRAPHIC_PAIRS: [string, string][] = [
   ["--es-focus", "--es-surface"],
   ["--es-accent", "--es-bg"],
   ["--es-dot", "--es-bg"],
-  ["--demo-series-0", "--es-bg"],
-  ["--demo-series-1", "--es-bg"],
 ];
 
 describe("WCAG 2.1 arithmetic", () => {
@@ -77,3 +76,17 @@ for (const theme of ["light", "dark"] as const) {
     });
   });
 }
+
+describe("the chart's colours, on the white chart area Excel gives a new chart (and the demo's drawing keeps in both themes)", () => {
+  it.each(Object.entries(CHART_COLOURS))("%s (%s) reaches 3:1 as a plot mark, and differs from the others", (_, colour) => {
+    expect(contrastRatio(colour, "#ffffff")).toBeGreaterThanOrEqual(3);
+    expect(Object.values(CHART_COLOURS).filter((c) => c === colour)).toHaveLength(1);
+  });
+
+  it("draws the drawing's labels at 4.5:1 and its axis at 3:1", () => {
+    const rule = (selector: string, property: string): string =>
+      new RegExp(`${selector.replace(/[.]/g, "\\.")}[^{]*\\{[^}]*${property}:\\s*(#[0-9a-fA-F]{6})`).exec(demo)?.[1] ?? "";
+    expect(contrastRatio(rule(".demo-chart-tick", "fill"), rule(".demo-chart-area", "fill"))).toBeGreaterThanOrEqual(4.5);
+    expect(contrastRatio(rule(".demo-chart-axis", "stroke"), rule(".demo-chart-area", "fill"))).toBeGreaterThanOrEqual(3);
+  });
+});

@@ -125,7 +125,7 @@ describe("host over office-addin-mock", () => {
     ]);
   });
 
-  it("finds the pane's earlier blocks by their defined names, skipping other names and names of no range", async () => {
+  it("finds the pane's earlier blocks by their defined names, with their charts and helper cells, skipping other names and names of no range", async () => {
     // Items of a loaded collection are plain objects here (see itemsCollection), so their ranges are too.
     const named = (name: string, address: string, isNullObject = false): Record<string, unknown> => {
       const range = { address, isNullObject, load: () => undefined };
@@ -133,12 +133,25 @@ describe("host over office-addin-mock", () => {
     };
     const names = [
       named("Evensplit_block_1", "'Paint line'!$E$1:$F$20"),
+      named("Evensplit_chartcells_1", "'Paint line'!$H$1:$J$4"),
       named("Prices", "'Paint line'!$A$1"),
       named("Evensplit_block_2", "", true),
+      named("Evensplit_block_3", "'Paint line'!$E$30:$F$50"),
     ];
-    const host = createHost(mockRun(workbookMock({ name: "Paint line" }, undefined, names)));
+    // Only block 1 has a chart: the sheet finds "Evensplit chart 1" and no other.
+    const charts = {
+      getItemOrNullObject: (name: string) => ({ name, isNullObject: name !== "Evensplit chart 1", load: () => undefined }),
+    };
+    const host = createHost(mockRun(workbookMock({ name: "Paint line", charts }, undefined, names)));
     expect(await host.blocks()).toEqual([
-      { name: "Evensplit_block_1", sheet: "Paint line", rect: { top: 0, left: 4, bottom: 19, right: 5 } },
+      {
+        name: "Evensplit_block_1",
+        sheet: "Paint line",
+        rect: { top: 0, left: 4, bottom: 19, right: 5 },
+        chart: "Evensplit chart 1",
+        helper: { name: "Evensplit_chartcells_1", sheet: "Paint line", rect: { top: 0, left: 7, bottom: 3, right: 9 } },
+      },
+      { name: "Evensplit_block_3", sheet: "Paint line", rect: { top: 29, left: 4, bottom: 49, right: 5 } },
     ]);
   });
 
@@ -205,13 +218,37 @@ const PLAN: PlannedWrite = {
   },
   chart: {
     sheet: "Paint line",
-    source: { top: 0, left: 1, bottom: 24, right: 1 },
-    title: "Thickness (µm)",
-    area: { top: 0, left: 7, bottom: 14, right: 13 },
     name: "Evensplit chart 1",
+    title: "Thickness (µm) row by row, against H0 and the 95% bounds",
+    area: { top: 0, left: 11, bottom: 14, right: 17 },
+    points: { sheet: "Paint line", rect: { top: 1, left: 1, bottom: 24, right: 1 }, name: "Thickness (µm)" },
+    lineEnds: { top: 0, left: 8, bottom: 0, right: 9 },
+    lines: [
+      { name: "H0: median = 50", values: { top: 1, left: 8, bottom: 1, right: 9 }, style: "Continuous", colour: "#B5452E" },
+      { name: "95% lower bound", values: { top: 2, left: 8, bottom: 2, right: 9 }, style: "Dash", colour: "#2D7A4F" },
+    ],
+    valueAxis: { minimum: 46, maximum: 55, title: "Thickness (µm)" },
+    rowAxisTitle: "Row of the data, in sheet order",
+    helper: {
+      rect: { top: 0, left: 7, bottom: 2, right: 9 },
+      formulas: [
+        ["Chart lines run over rows", "0", "=ROWS(Table1[[Thickness (µm)]])+1"],
+        ["Chart line: H0: median = 50", "50", "50"],
+        ["Chart line: 95% lower bound", "=$F$2", "=$F$2"],
+      ],
+      name: "Evensplit_chartcells_1",
+    },
   },
   blockName: "Evensplit_block_1",
-  replaces: [{ name: "Evensplit_block_0", sheet: "Paint line", rect: { top: 0, left: 4, bottom: 2, right: 5 } }],
+  replaces: [
+    {
+      name: "Evensplit_block_0",
+      sheet: "Paint line",
+      rect: { top: 0, left: 4, bottom: 2, right: 5 },
+      chart: "Evensplit chart 0",
+      helper: { name: "Evensplit_chartcells_0", sheet: "Paint line", rect: { top: 0, left: 7, bottom: 3, right: 9 } },
+    },
+  ],
 };
 
 const REGION = [
@@ -231,7 +268,7 @@ function regionAnswers(path: string): unknown {
 }
 
 describe("one write, one batch", () => {
-  it("reads the region, then queues every change in order (earlier block cleared, table, cells, formats, chart, name) and syncs once", async () => {
+  it("reads the region, then queues every change in order (earlier block, its chart and helper cells cleared, table, cells, formats, chart, names) and syncs once", async () => {
     const log: string[] = [];
     const report = await createHost(recordingRun(log, regionAnswers)).applyWrite(PLAN, REGION, () => true);
     expect(report).toEqual({ kind: "written" });
@@ -242,15 +279,33 @@ describe("one write, one batch", () => {
     const order = [
       /getRange\("E1:F3"\)\.clear\("All"\)$/,
       /names\.getItemOrNullObject\("Evensplit_block_0"\)\.delete\(\)$/,
+      /getRange\("H1:J4"\)\.clear\("All"\)$/,
+      /names\.getItemOrNullObject\("Evensplit_chartcells_0"\)\.delete\(\)$/,
+      /charts\.getItemOrNullObject\("Evensplit chart 0"\)\.delete\(\)$/,
       /tables\.add\("'Paint line'!B1:B25",true\)$/,
       /tables\.add\(.*\)\.name = "Table1"$/,
       /getRange\("E1:F2"\)\.formulas = \[\["Evensplit result"/,
       /getRange\("E1:F2"\)\.numberFormat = /,
       /getColumn\(0\)\.format\.font\.bold = true$/,
       /getRow\(1\)\.format\.font\.italic = true$/,
-      /charts\.add\("ColumnClustered",<object>,"Columns"\)$/,
+      /getRange\("H1:J3"\)\.formulas = \[\["Chart lines run over rows","0","=ROWS\(Table1\[\[Thickness \(µm\)\]\]\)\+1"\]/,
+      /getRange\("B2:B25"\)$/,
+      /charts\.add\("XYScatter",<object>,"Columns"\)$/,
       /\.name = "Evensplit chart 1"$/,
-      /setPosition\("H1","N15"\)$/,
+      /series\.getItemAt\(0\)\.name = "Thickness \(µm\)"$/,
+      /series\.getItemAt\(0\)\.markerStyle = "Circle"$/,
+      /series\.add\("H0: median = 50"\)$/,
+      /\.chartType = "XYScatterLinesNoMarkers"$/,
+      /\.setXAxisValues\(<object>\)$/,
+      /\.setValues\(<object>\)$/,
+      /series\.add\("95% lower bound"\)$/,
+      /\.format\.line\.lineStyle = "Dash"$/,
+      /axes\.valueAxis\.minimum = 46$/,
+      /axes\.valueAxis\.maximum = 55$/,
+      /axes\.categoryAxis\.minimum = 0$/,
+      /legend\.position = "Bottom"$/,
+      /setPosition\("L1","R15"\)$/,
+      /names\.add\("Evensplit_chartcells_1",<object>,"Evensplit chart helper cells"\)$/,
       /names\.add\("Evensplit_block_1",<object>,"Evensplit result block"\)$/,
     ];
     let from = 0;

@@ -24,7 +24,15 @@ import {
 import { createHost, type Host } from "../../src/taskpane/host";
 import { atStep, initialState, type PaneState } from "../../src/taskpane/paneState";
 import { currentRequest, questionStepProblem, questionView, setAlternative, setCenter, setTest } from "../../src/taskpane/questionState";
-import { resultView, setChart, setTarget, settleResult, suggestTarget, targetFromSelection } from "../../src/taskpane/resultState";
+import {
+  chartWords,
+  resultView,
+  setChart,
+  setTarget,
+  settleResult,
+  suggestTarget,
+  targetFromSelection,
+} from "../../src/taskpane/resultState";
 import { setSetting, settingsStepProblem, settingsView } from "../../src/taskpane/settingsState";
 import { analyzeRange } from "../../src/taskpane/workflow";
 import { binomialCoefficient as choose } from "../exact";
@@ -120,10 +128,21 @@ describe("the Result step's state", () => {
     expect(resultView(setTarget(state, "XFD1"), callFunction).targetProblem).toContain("does not fit");
   });
 
-  it("drops the chart when paired columns are not side by side", async () => {
+  it("drops the chart when the values fill more than one column, and keeps it for pairs wherever their columns are", async () => {
+    const wide = await withRange(initialState(), 0, "B1:C25");
+    expect(settleResult(setChart(wide, true)).chart).toBe(false);
+    expect(resultView(atStep(setCenter(setChart(wide, true), "50"), 3), callFunction).chartHint).toMatch(
+      /^Not available: the chart plots one column/,
+    );
     const apart = await withRange(await withRange(setPaired(initialState(), true), 0, "B1:B25"), 1, "D1:D25");
-    expect(settleResult(setChart(apart, true)).chart).toBe(false);
-    const beside = await withRange(await withRange(setPaired(initialState(), true), 0, "B1:B25"), 1, "C1:C25");
-    expect(settleResult(setChart(beside, true)).chart).toBe(true);
+    expect(settleResult(setChart(apart, true)).chart).toBe(true);
+  });
+
+  it("describes the chart: the bounds that exist, whether new rows show, and that pairs are worked out for the rows there are", () => {
+    expect(chartWords(false, "two-sided", true)).toContain("with H0’s value and the lower and upper bounds as lines");
+    expect(chartWords(false, "lower", true)).toContain("the lower bound as lines");
+    expect(chartWords(false, "two-sided", true)).toContain("New rows of the table show up as new points.");
+    expect(chartWords(false, "two-sided", false)).not.toContain("New rows");
+    expect(chartWords(true, "upper", true)).toContain("worked out in helper cells for the pairs there are now");
   });
 });

@@ -29,6 +29,14 @@ const EXCEL_CLASS: Record<string, string> = {
   "HostTable.columns": "TableColumnCollection",
   HostChart: "Chart",
   "HostChart.title": "ChartTitle",
+  "HostChart.series": "ChartSeriesCollection",
+  "HostChart.axes": "ChartAxes",
+  "HostChart.legend": "ChartLegend",
+  HostChartSeries: "ChartSeries",
+  "HostChartSeries.format": "ChartSeriesFormat",
+  "HostChartSeries.format.line": "ChartLineFormat",
+  HostChartAxis: "ChartAxis",
+  "HostChartAxis.title": "ChartAxisTitle",
   HostNamedItem: "NamedItem",
   HostWorksheet: "Worksheet",
   "HostWorksheet.tables": "TableCollection",
@@ -143,5 +151,11 @@ describe("the Excel API requirement set", () => {
     expect(sets.get("Worksheet.activate")).toBe("1.1");
     expect(sets.get("Worksheet.delete")).toBe("1.1");
     expect(sets.get("RangeFormat.columnWidth")).toBe("1.2");
+    // The chart's series: Microsoft's Excel.ChartSeriesCollection and Excel.ChartSeries references.
+    expect(sets.get("ChartSeriesCollection.add")).toBe("1.7");
+    expect(sets.get("ChartSeries.setValues")).toBe("1.7");
+    expect(sets.get("ChartSeries.setXAxisValues")).toBe("1.7");
+    expect(sets.get("ChartSeries.markerStyle")).toBe("1.7");
+    expect(sets.get("ChartAxis.minimum")).toBe("1.1");
   });
 });

@@ -17,7 +17,6 @@ import { createHost, type Host, type RunBatch } from "../../src/taskpane/host";
 import {
   analyzeRange,
   bodyOf,
-  chartSource,
   dataProblem,
   defaultPlace,
   placeFromText,
@@ -215,13 +214,18 @@ describe("writing the block", () => {
     if (outcome.kind !== "written") throw new Error(outcome.kind);
     expect(outcome.created.map((t) => t.name)).toEqual(["Table1"]);
     expect(outcome.refs.data).toBe("Table1[[Thickness (µm)]]");
-    expect(outcome.chartAt).toBe("H1");
+    // The helper cells take H1:J3 (after an empty column G), the chart floats over L1:R15.
+    expect(outcome.chartAt).toBe("L1");
     expect(workbook.charts).toHaveLength(1);
     const n = outcome.rows.findIndex((r) => r.key === "numbers");
     expect(workbook.value(DEMO_SHEET, n, 5)).toBe(22);
+    expect(workbook.value(DEMO_SHEET, 0, 9)).toBe(25);
     workbook.writeEntries(DEMO_SHEET, 25, 1, [[53]], true);
     expect(workbook.value(DEMO_SHEET, n, 5)).toBe(23);
-    expect(workbook.chartSource(workbook.charts[0])).toEqual({ top: 0, left: 1, bottom: 25, right: 1 });
+    // The points follow the table's new row, and the lines now run to row 26.
+    const [points] = workbook.charts[0].series;
+    expect(points.values && workbook.linkedRect(points.values)).toEqual({ top: 1, left: 1, bottom: 25, right: 1 });
+    expect(workbook.value(DEMO_SHEET, 0, 9)).toBe(26);
   });
 
   it("reads to the end of the sheet with an open-ended reference", async () => {
@@ -235,7 +239,7 @@ describe("writing the block", () => {
     expect(workbook.value(DEMO_SHEET, n, 5)).toBe(23);
   });
 
-  it("writes a paired block referring to both columns, with a chart of both", async () => {
+  it("writes a paired block referring to both columns, with a chart of the differences", async () => {
     const { workbook, host } = demo();
     const first = await analyzed(host, "B1:B25");
     const second = await analyzed(host, "C1:C25");
@@ -243,7 +247,6 @@ describe("writing the block", () => {
       { range: first, useHeader: true },
       { range: second, useHeader: true },
     ];
-    expect(chartSource(choices, [])).toEqual({ sheet: DEMO_SHEET, rect: { top: 0, left: 1, bottom: 24, right: 2 } });
     const request: BlockRequest = { test: "sign", paired: true, center: 0, alternative: "two-sided", alpha: 0.05, confidence: 0.95 };
     const outcome = await writeResult(host, plan(choices, { request, chart: true }));
     if (outcome.kind !== "written") throw new Error(outcome.kind);
@@ -253,7 +256,16 @@ describe("writing the block", () => {
     const p = outcome.rows.findIndex((r) => r.key === "pvalue");
     // By hand: 18 negative differences, 3 positive, 1 zero: two-sided 2 * P(X <= 3), X ~ Bin(21, 1/2) = 2 * 1562 / 2^21.
     expect(workbook.value(DEMO_SHEET, p, 5)).toBeCloseTo((2 * 1562) / 2097152, 14);
-    expect(workbook.charts[0].source).toEqual({ top: 0, left: 1, bottom: 24, right: 2 });
+    // Helper rows: line ends, H0, lower and upper bound (two-sided), then one difference per pair in column I.
+    const [points, ...lines] = workbook.charts[0].series;
+    expect(points.values).toEqual({ sheet: DEMO_SHEET, rect: { top: 4, left: 8, bottom: 27, right: 8 } });
+    expect(lines.map((l) => l.name)).toEqual(["H0: median = 0", "95% lower bound", "95% upper bound"]);
+    for (let r = 0; r < 24; r++) {
+      const [b, c] = [workbook.value(DEMO_SHEET, r + 1, 1), workbook.value(DEMO_SHEET, r + 1, 2)];
+      const difference = workbook.value(DEMO_SHEET, r + 4, 8);
+      if (typeof b === "number" && typeof c === "number") expect(difference).toBeCloseTo(c - b, 12);
+      else expect(difference).toMatchObject({ code: "#N/A" });
+    }
   });
 });
 

@@ -49,7 +49,7 @@ const RANK: BlockRequest = {
   dataName: "Thickness (µm)",
 };
 
-type Step = "clear" | "table" | "formulas" | "formats" | "fonts" | "chart" | "name";
+type Step = "clear" | "table" | "formulas" | "formats" | "fonts" | "chart" | "lines" | "name";
 
 function touches(step: Step, path: string, kind: "set" | "call"): boolean {
   switch (step) {
@@ -65,6 +65,8 @@ function touches(step: Step, path: string, kind: "set" | "call"): boolean {
       return kind === "set" && /\.font\.(bold|italic|color)$/.test(path);
     case "chart":
       return kind === "call" && path.endsWith(".charts.add");
+    case "lines":
+      return kind === "call" && path.endsWith(".series.add");
     case "name":
       return kind === "call" && path.endsWith("names.add");
   }
@@ -159,7 +161,7 @@ async function sheetState(workbook: Workbook): Promise<unknown> {
   return {
     cells,
     tables: workbook.tables.map((t) => ({ name: t.name, rect: t.rect })),
-    charts: workbook.charts.map((c) => c.source),
+    charts: workbook.charts.map((c) => ({ title: c.title, from: c.from, series: c.series.map((s) => [s.name, s.values, s.xValues]) })),
     names: (await host.takenNames([DEMO_SHEET])).sort(),
     blocks: await host.blocks(),
   };
@@ -191,13 +193,54 @@ describe("replacing an earlier block", () => {
       }
     }
     expect(await createHost(fakeRun(workbook)).blocks()).toEqual([
-      { name: "Evensplit_block_2", sheet: DEMO_SHEET, rect: { top: 0, left: 4, bottom: shorter - 1, right: 5 } },
+      {
+        name: "Evensplit_block_2",
+        sheet: DEMO_SHEET,
+        rect: { top: 0, left: 4, bottom: shorter - 1, right: 5 },
+        chart: "Evensplit chart 2",
+        helper: { name: "Evensplit_chartcells_2", sheet: DEMO_SHEET, rect: { top: 0, left: 7, bottom: 2, right: 9 } },
+      },
     ]);
+  });
+
+  it("replaces the earlier block's chart and helper cells too, in the same place, leaving none of them behind", async () => {
+    const workbook = demoWorkbook();
+    const choice = await thickness(workbook);
+    const first = await writeAgreeing(fakeRun(workbook), planAt(choice, { ...RANK, alternative: "two-sided" }, { chart: true }));
+    if (first.kind !== "written") throw new Error(first.kind);
+    // Two-sided: line ends, H0 and both bounds take H1:J4.
+    expect(workbook.entry(DEMO_SHEET, 3, 7)).toBe("Chart line: 95% upper bound");
+    const second = await writeAgreeing(fakeRun(workbook), planAt(choice, SIGN, { chart: true }));
+    if (second.kind !== "written") throw new Error(JSON.stringify(second));
+    // One-sided ("greater"): only the lower bound exists, so the helper cells are H1:J3 and row 4 is empty again.
+    expect(second.chartAt).toBe("L1");
+    for (const c of [7, 8, 9]) expect(workbook.entry(DEMO_SHEET, 3, c)).toBe("");
+    expect(workbook.charts).toHaveLength(1);
+    expect(workbook.charts[0].series.map((s) => s.name)).toEqual(["Thickness (µm)", "H0: median = 50", "95% lower bound"]);
+    const marks = await createHost(fakeRun(workbook)).blocks();
+    expect(marks.map((b) => [b.name, b.chart, b.helper?.name])).toEqual([
+      ["Evensplit_block_2", "Evensplit chart 2", "Evensplit_chartcells_2"],
+    ]);
+  });
+
+  it("says so when a refused write had already removed the earlier block's chart, which cannot be put back", async () => {
+    const workbook = demoWorkbook();
+    const choice = await thickness(workbook);
+    const first = await writeAgreeing(fakeRun(workbook), planAt(choice, RANK, { chart: true }));
+    if (first.kind !== "written") throw new Error(first.kind);
+    const { run } = refusingRun(workbook, "formulas");
+    const outcome = await writeAgreeing(run, planAt(choice, SIGN, { chart: true }));
+    if (outcome.kind !== "undone") throw new Error(outcome.kind);
+    expect(outcome.clean).toBe(false);
+    expect(outcome.message).toContain("no chart Evensplit chart 1 any more beside the earlier block");
+    // Every cell, the block's name and its helper cells' name are back.
+    const marks = await createHost(fakeRun(workbook)).blocks();
+    expect(marks.map((b) => [b.name, b.helper?.name])).toEqual([["Evensplit_block_1", "Evensplit_chartcells_1"]]);
   });
 });
 
 describe("a refusal at any step leaves the sheet exactly as before, and says so", () => {
-  const steps: Step[] = ["clear", "table", "formulas", "formats", "fonts", "chart", "name"];
+  const steps: Step[] = ["clear", "table", "formulas", "formats", "fonts", "chart", "lines", "name"];
   for (const step of steps) {
     it(`refused at the ${step} step: everything undone`, async () => {
       const { workbook, choice } = await sheetWithEarlierBlock();
@@ -217,7 +260,7 @@ describe("a refusal at any step leaves the sheet exactly as before, and says so"
       expect(await sheetState(workbook)).toEqual(before);
       // And the next attempt, with the host willing, writes the whole block: no table left behind to trip over.
       const retry = await writeAgreeing(fakeRun(workbook), planAt(choice, SIGN, { reference: "table", chart: true }));
-      expect(retry).toMatchObject({ kind: "written", created: [{ name: "Table1" }], chartAt: "H1" });
+      expect(retry).toMatchObject({ kind: "written", created: [{ name: "Table1" }], chartAt: "L1" });
       expect(workbook.tables.map((t) => t.name)).toEqual(["Table1"]);
       expect(workbook.charts).toHaveLength(1);
     });

@@ -16,7 +16,16 @@ import type { BlockRequest } from "../../src/report/resultBlock";
 import { LAST_COLUMN, LAST_ROW } from "../../src/taskpane/a1";
 import { createHost } from "../../src/taskpane/host";
 import { analyzeRange, placeFromText, planWrite, type DataChoice, type WritePlan } from "../../src/taskpane/workflow";
-import { cellContentProblem, formulaTexts, freeName, onSheet, tableHeaderProblem, wordingName } from "../../src/taskpane/writePlan";
+import {
+  cellContentProblem,
+  companionNames,
+  formulaTexts,
+  freeBlockName,
+  freeName,
+  onSheet,
+  tableHeaderProblem,
+  wordingName,
+} from "../../src/taskpane/writePlan";
 import { catalogueFunctions } from "../demo/catalogue";
 
 let functions: Map<string, CustomFunction>;
@@ -142,9 +151,25 @@ describe("planning a whole write", () => {
       ok: false,
       message: expect.stringMatching(/chart beside the block would run past the edge/),
     });
+    // A chart already named "Evensplit chart 1" takes number 1 away from the block, its chart and its helper cells together.
     const planned = planWrite(writePlan(choice, { chart: true }), ["Evensplit chart 1"], []);
     if (!planned.ok) throw new Error(planned.message);
-    expect(planned.write.chart).toMatchObject({ name: "Evensplit chart 2", area: { top: 0, left: 7, bottom: 14, right: 13 } });
+    expect(planned.write.blockName).toBe("Evensplit_block_2");
+    // Without a place found on the sheet, the helper cells start two columns right of the block (E1): H, the chart at L.
+    expect(planned.write.chart).toMatchObject({
+      name: "Evensplit chart 2",
+      area: { top: 0, left: 11, bottom: 14, right: 17 },
+      helper: { name: "Evensplit_chartcells_2", rect: { top: 0, left: 7 } },
+    });
+    const further = planWrite(writePlan(choice, { chart: true }), [], [], 20);
+    if (!further.ok) throw new Error(further.message);
+    expect(further.write.chart).toMatchObject({ area: { left: 24 }, helper: { rect: { left: 20 } } });
+  });
+
+  it("ties a block's chart and helper cells to it by one number", () => {
+    expect(companionNames("Evensplit_block_3")).toEqual({ chart: "Evensplit chart 3", helper: "Evensplit_chartcells_3" });
+    expect(freeBlockName([])).toBe("Evensplit_block_1");
+    expect(freeBlockName(["evensplit_block_1", "Evensplit_chartcells_2"])).toBe("Evensplit_block_3");
   });
 
   it("shortens a 300-character header in the wording, keeps it whole in the table reference, and every cell fits Excel's limits", async () => {

@@ -1,8 +1,8 @@
 /**
  * Evaluates an expression tree for one cell of the demo sheet: references,
- * array constants, the few built-in functions the result block and the
- * installation check use (INDEX, ROWS, COLUMNS, COUNT, COUNTA, IF, ABS,
- * IFERROR, COUNTIF, MEDIAN), arithmetic, comparison, concatenation, and the
+ * array constants, the few built-in functions the result block, its chart's
+ * helper cells and the installation check use (INDEX, ROWS, COLUMNS, COUNT,
+ * COUNTA, IF, ABS, IFERROR, COUNTIF, MEDIAN, NA), arithmetic, comparison, concatenation, and the
  * EVENSPLIT.* functions taken from the real cell-function bundle.
  *
  * Method: a direct tree walk. Values follow the spreadsheet's coercions
@@ -295,6 +295,11 @@ function builtIn(name: string, args: Value[], context: EvaluationContext): Value
       if (condition) return args[1];
       return args.length === 3 ? args[2] : false;
     }
+    case "NA":
+      // Microsoft, "NA function": no arguments, and the answer is the #N/A error value.
+      return args.length === 0
+        ? errorValue("#N/A", "NA() marks a value as not available.")
+        : errorValue("#VALUE!", "NA takes no arguments.");
     default:
       return errorValue("#NAME?", `The demo sheet does not know the function ${name}.`);
   }
