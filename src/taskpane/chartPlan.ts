@@ -99,6 +99,18 @@ export function chartProblem(columns: readonly ChartColumn[]): string | null {
 }
 
 /**
+ * Why the chart does not fit the question, or null: it is drawn for one sample or pairs, not for groups.
+ *
+ * @example
+ * chartQuestionProblem({ ...request, test: "two-groups" }); // "The chart is drawn for one set of values or pairs, not for groups."
+ */
+export function chartQuestionProblem(request: BlockRequest): string | null {
+  return request.test === "two-groups" || request.test === "groups"
+    ? "The chart is drawn for one set of values or pairs, not for groups."
+    : null;
+}
+
+/**
  * A round step near a tenth of a spread: 1, 2 or 5 times a power of ten.
  *
  * @example

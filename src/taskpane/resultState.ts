@@ -20,7 +20,7 @@ import { nullBars, type NullBar } from "./plot";
 import { numberLineLayout, type NumberLineInput } from "./plotView";
 import { blockPreview, blockSize, type PreviewRow } from "./preview";
 import { currentRequest } from "./questionState";
-import { chartProblem } from "./chartPlan";
+import { chartProblem, chartQuestionProblem } from "./chartPlan";
 import {
   blockInputs,
   blockRefs,
@@ -292,7 +292,7 @@ export function resultView(state: PaneState, calculate: CatalogueCall): ResultVi
   const used = numberOrNull(value("used"));
   const observed = request.test === "quantile" ? numberOrNull(value("below")) : numberOrNull(value("statistic"));
   const bars = countTest && state.showNull && used !== null && observed !== null ? nullBars(used, request.quantile ?? 0.5, observed) : [];
-  const chartBlocked = chartProblem(chartColumnsOf(c));
+  const chartBlocked = chartQuestionProblem(request) ?? chartProblem(chartColumnsOf(c));
   return {
     ...fixed,
     rows,

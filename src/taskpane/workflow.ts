@@ -19,7 +19,7 @@ import type { CellsRead, Host, SheetRect, TableInfo } from "./host";
 import { blockRect, cellContents, filledCells, firstFreeColumn, type FilledCell } from "./placement";
 import { blockPreview, blockSize, blockWrite, type BlockRefs, type PreviewRow } from "./preview";
 import { absoluteReference, openEnded, structuredReference } from "./references";
-import { CHART_ROWS, CHART_SPAN, chartColumn, chartProblem, planChart, type ChartColumn } from "./chartPlan";
+import { CHART_ROWS, CHART_SPAN, chartColumn, chartProblem, chartQuestionProblem, planChart, type ChartColumn } from "./chartPlan";
 import {
   companionNames,
   freeBlockName,
@@ -450,7 +450,7 @@ export function planWrite(
   let chart: PlannedChart | null = null;
   if (plan.chart) {
     const columns = chartColumnsOf(plan.choices);
-    const problem = chartProblem(columns);
+    const problem = chartQuestionProblem(plan.request) ?? chartProblem(columns);
     if (problem) return { ok: false, message: `${problem} Leave the chart out.` };
     const companions = companionNames(blockName);
     chart = planChart({

@@ -14,6 +14,7 @@ import {
   CHART_ROWS,
   chartColumn,
   chartProblem,
+  chartQuestionProblem,
   HELPER_COLUMNS,
   planChart,
   withoutRegions,
@@ -191,6 +192,12 @@ describe("the chart's plan", () => {
     expect(chart.helper.formulas[0][2]).toBe("=ROWS(Readings!$B$2:$B$6)+1");
     expect(chart.points.sheet).toBe("Readings");
     expect(chart.sheet).toBe(SHEET);
+  });
+
+  it("is drawn for one set of values or pairs, not for groups", () => {
+    expect(chartQuestionProblem(input({}).request)).toBeNull();
+    expect(chartQuestionProblem({ ...input({}).request, test: "two-groups" })).toMatch(/not for groups/);
+    expect(chartQuestionProblem({ ...input({}).request, test: "groups" })).toMatch(/not for groups/);
   });
 
   it("refuses a range of more than one column", () => {

@@ -15,6 +15,7 @@ import {
   dataReady,
   dataStepProblem,
   dataView,
+  setDataKind,
   setPaired,
   setReference,
   setUseHeader,
@@ -136,6 +137,9 @@ describe("the Result step's state", () => {
     );
     const apart = await withRange(await withRange(setPaired(initialState(), true), 0, "B1:B25"), 1, "D1:D25");
     expect(settleResult(setChart(apart, true)).chart).toBe(true);
+    // Two independent groups are no pairs: their difference row by row means nothing, so there is no chart.
+    const groups = await withRange(await withRange(setDataKind(initialState(), "two-groups"), 0, "B1:B25"), 1, "D1:D25");
+    expect(settleResult(setChart(groups, true)).chart).toBe(false);
   });
 
   it("describes the chart: the bounds that exist, whether new rows show, and that pairs are worked out for the rows there are", () => {
