@@ -187,6 +187,22 @@ describe("signedRankLowerTail (two half-sets, lower halves only)", () => {
     }
   });
 
+  it("leaves out only a negligible far tail: agrees with the plain recursion from the middle to beyond four standard deviations below it", () => {
+    // The left-out tail (Hoeffding, at most 1e-25 of the distribution) is in play only for q at most four
+    // standard deviations below the mean; these q straddle that edge. Reference: signedRankNullCdf, R-checked above.
+    for (const scores of [
+      Array.from({ length: 1000 }, (_, i) => i + 1),
+      Array.from({ length: 801 }, (_, i) => 2 * (i >> 1) + 3),
+      Array.from({ length: 600 }, (_, i) => 40 + 2 * Math.floor(i / 3) + 1), // Pratt zeros below, ties in threes
+    ]) {
+      const total = scores.reduce((x, y) => x + y, 0);
+      const sd = Math.sqrt(scores.reduce((x, y) => x + y * y, 0) / 4);
+      const qs = [0.5, 1, 2, 3, 3.9, 4.1, 5].map((z) => Math.floor(total / 2 - z * sd));
+      const cdf = signedRankNullCdf(scores, Math.max(...qs));
+      for (const q of qs) expect(relative(signedRankLowerTail(scores, q), cdf[q])).toBeLessThan(1e-13);
+    }
+  });
+
   it("keeps full accuracy deep in the tail past the rescaling (exact arithmetic)", () => {
     const scores = Array.from({ length: 1000 }, (_, i) => i + 1);
     expect(signedRankLowerTail(scores, 0)).toBe(2 ** -1000);
