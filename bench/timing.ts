@@ -57,3 +57,40 @@ export function fastestAlternating(
   }
   return { baseMs, ms };
 }
+
+/**
+ * CPU time in milliseconds per call (user + system, process.cpuUsage), median of `rounds` batches of calls
+ * lasting at least 20 ms each. CPU time, unlike wall time, does not count the time other processes hold the
+ * core, which on a shared machine otherwise inflates long calls more than the short baseline.
+ */
+export function cpuPerCall(fn: () => unknown, rounds: number): number {
+  const t0 = process.cpuUsage();
+  fn();
+  const once = Math.max(1e-3, (process.cpuUsage(t0).user + process.cpuUsage(t0).system) / 1000);
+  const calls = Math.max(1, Math.ceil(20 / once));
+  const times: number[] = [];
+  for (let r = 0; r < rounds; r++) {
+    const start = process.cpuUsage();
+    for (let k = 0; k < calls; k++) fn();
+    const used = process.cpuUsage(start);
+    times.push((used.user + used.system) / 1000 / calls);
+  }
+  times.sort((a, b) => a - b);
+  return times[Math.floor(times.length / 2)];
+}
+
+/** Times a candidate and a baseline in alternating rounds (CPU time, `cpuPerCall`) and reports the medians. */
+export function compareCpu(name: string, baseline: () => unknown, candidate: () => unknown, limit?: number): void {
+  for (let i = 0; i < 5; i++) {
+    baseline();
+    candidate();
+  }
+  const base: number[] = [];
+  const timed: number[] = [];
+  for (let round = 0; round < 5; round++) {
+    base.push(cpuPerCall(baseline, 5));
+    timed.push(cpuPerCall(candidate, 5));
+  }
+  const median = (xs: number[]) => xs.sort((x, y) => x - y)[Math.floor(xs.length / 2)];
+  report(name, median(timed), median(base), limit);
+}

@@ -5,8 +5,8 @@
  * - WATCHPVALUE on 100,000 rows: at most 20x (two-sided and one-sided);
  * - WATCHBOUNDS on 100,000 rows: at most 20x (median and the 0.9 quantile);
  * - PAIREDWATCHPVALUE and PAIREDWATCHBOUNDS on 100,000 pairs: at most 2x the fixed-sample PAIRED and
- *   PAIREDBOUNDS on the same pairs, whose shared reading of the pairs and rounding of the differences
- *   (cells.ts, differences.ts) costs several times the bare loop over both ranges on its own.
+ *   PAIREDBOUNDS on the same pairs, which share their reading of the pairs and rounding of the differences
+ *   (cells.ts, differences.ts); paired.bench.ts times all four against the bare loop over both ranges.
  * Data: invented coating thicknesses (µm) around a target of 50 from a fixed-seed generator (no real data);
  * a second column drifts upwards, so the one-sided p-value keeps setting new highs of its evidence.
  *
@@ -29,7 +29,7 @@ import { confidenceSequence } from "../src/stats/confidenceSequence";
 import { signTest } from "../src/stats/signTest";
 import { sprt, sprtCharacteristic, sprtLimits } from "../src/stats/sprt";
 import { xorshift32 } from "../src/stats/xorshift";
-import { report } from "./timing";
+import { compareCpu } from "./timing";
 
 /** A one-column range of coating thicknesses around 50 µm, rounded to 0.01 as typed; `drift` µm added per 100,000 rows. */
 function column(rows: number, seed: number, drift: number): number[][] {
@@ -50,48 +50,11 @@ function bareLoop(cells: readonly (readonly unknown[])[]): number {
   return sum;
 }
 
-/**
- * CPU time in milliseconds per call (user + system, process.cpuUsage), median of `rounds` batches of calls
- * lasting at least 20 ms each. CPU time, unlike wall time, does not count the time other processes hold the
- * core, which on a shared machine otherwise inflates long calls more than the short baseline.
- */
-function cpuPerCall(fn: () => unknown, rounds: number): number {
-  const t0 = process.cpuUsage();
-  fn();
-  const once = Math.max(1e-3, (process.cpuUsage(t0).user + process.cpuUsage(t0).system) / 1000);
-  const calls = Math.max(1, Math.ceil(20 / once));
-  const times: number[] = [];
-  for (let r = 0; r < rounds; r++) {
-    const start = process.cpuUsage();
-    for (let k = 0; k < calls; k++) fn();
-    const used = process.cpuUsage(start);
-    times.push((used.user + used.system) / 1000 / calls);
-  }
-  times.sort((a, b) => a - b);
-  return times[Math.floor(times.length / 2)];
-}
-
 /** Times the function and the bare loop in alternating rounds (CPU time) and reports the medians. */
 function compare(name: string, cells: number[][], candidate: () => unknown, limit: number): void {
   let sink = 0;
-  compareWith(name, () => (sink += bareLoop(cells)), candidate, limit);
+  compareCpu(name, () => (sink += bareLoop(cells)), candidate, limit);
   if (Number.isNaN(sink)) throw new Error("the bare loop read a NaN");
-}
-
-/** Times the function and a baseline in alternating rounds (CPU time) and reports the medians. */
-function compareWith(name: string, baseline: () => unknown, candidate: () => unknown, limit: number): void {
-  for (let i = 0; i < 5; i++) {
-    baseline();
-    candidate();
-  }
-  const base: number[] = [];
-  const timed: number[] = [];
-  for (let round = 0; round < 5; round++) {
-    base.push(cpuPerCall(baseline, 5));
-    timed.push(cpuPerCall(candidate, 5));
-  }
-  const median = (xs: number[]) => xs.sort((x, y) => x - y)[Math.floor(xs.length / 2)];
-  report(name, median(timed), median(base), limit);
 }
 
 export function speed(): void {
@@ -113,13 +76,13 @@ export function speed(): void {
   console.log(
     `         PAIREDWATCHPVALUE ${String(pairedwatchpvalue(steady, after))}, PAIREDWATCHBOUNDS ${JSON.stringify(pairedwatchbounds(steady, after))}`,
   );
-  compareWith(
+  compareCpu(
     "PAIREDWATCHPVALUE over PAIRED, 100,000 pairs",
     () => paired(steady, after),
     () => pairedwatchpvalue(steady, after),
     2,
   );
-  compareWith(
+  compareCpu(
     "PAIREDWATCHBOUNDS over PAIREDBOUNDS, 100,000 pairs",
     () => pairedbounds(steady, after, 0.95),
     () => pairedwatchbounds(steady, after, 0.95),

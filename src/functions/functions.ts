@@ -19,9 +19,15 @@
 import { blockValue, reportCell, resultBlockRows, type BlockInputs, type BlockRequest } from "../report/resultBlock";
 import { adjustPValues } from "../stats/adjust";
 import { anytimeSignTest } from "../stats/anytimeSign";
-import { pairsInArrivalOrder, withNumbersInArrivalOrder } from "../stats/arrivalOrder";
-import { boundedNumbersFromCells, cellsFromValues, numbersFromCells, pairsFromCells, signCountsFromCells } from "../stats/cells";
-import { differencesFrom, pairedDifferences } from "../stats/differences";
+import { pairedDifferencesInArrivalOrder, withNumbersInArrivalOrder } from "../stats/arrivalOrder";
+import {
+  boundedNumbersFromCells,
+  cellsFromValues,
+  numbersFromCells,
+  pairedDifferencesFromCells,
+  signCountsFromCells,
+} from "../stats/cells";
+import { differencesFrom } from "../stats/differences";
 import { confidenceSequence, type ConfidenceSequenceResult } from "../stats/confidenceSequence";
 import { hodgesLehmann, hodgesLehmannEstimate } from "../stats/hodgesLehmann";
 import { signTestPower, signTestSampleSize } from "../stats/power";
@@ -70,8 +76,7 @@ function numbersOf(data: unknown): Float64Array {
 /** The paired differences second − first − shift, and how many pairs were left out. */
 function differencesOf(first: unknown, second: unknown, shift: number): { differences: Float64Array; pairsSkipped: number } {
   const ranges = pairedCellsArgument(first, second);
-  const pairs = pairsFromCells(ranges.first, ranges.second);
-  return { differences: pairedDifferences(pairs.first, pairs.second, shift), pairsSkipped: pairs.pairsSkipped };
+  return pairedDifferencesFromCells(ranges.first, ranges.second, shift);
 }
 
 /** How many values the sign test uses under a tie rule: below + above, plus the ties it keeps. */
@@ -835,8 +840,7 @@ function sprtRow(r: SprtResult): unknown[][] {
  */
 function arrivingDifferencesOf(first: unknown, second: unknown, shift: number): Float64Array {
   const ranges = pairedCellsArgument(first, second);
-  const pairs = pairsInArrivalOrder(ranges.first, ranges.second);
-  return pairedDifferences(pairs.first, pairs.second, shift);
+  return pairedDifferencesInArrivalOrder(ranges.first, ranges.second, shift).differences;
 }
 
 /**

@@ -13,16 +13,16 @@
  * long column costs more to touch for the first time (the system maps its
  * memory page by page) than the whole pass over the cells.
  *
- * Pairs (`pairsInArrivalOrder`) are read in the same order, position by
- * position, by the one paired coercion of the catalogue (cells.ts,
- * `pairsFromCells`), so which positions count as pairs, and what is skipped,
- * is what PAIREDCOUNTS and PAIRED see; only the order differs, and only for
- * ranges of more than one column.
+ * Pairs (`pairedDifferencesInArrivalOrder`) are read in the same order,
+ * position by position, by the one paired reading of the catalogue (cells.ts,
+ * `pairedDifferencesFromCells`), so which positions count as pairs, what is
+ * skipped and how differences are rounded is what PAIREDCOUNTS and PAIRED
+ * see; only the order differs, and only for ranges of more than one column.
  *
  * Cost: O(cells) time; O(cells) memory, kept and reused (pairs: O(pairs), plus
  * a copy of the cells for ranges of more than one column).
  */
-import { pairsFromCells, type CellPairs } from "./cells";
+import { pairedDifferencesFromCells, type CellDifferences } from "./cells";
 
 /** The buffer lent by the last call, grown as needed; null while it is lent out. */
 let BUFFER: Float64Array | null = new Float64Array(4096);
@@ -68,19 +68,22 @@ function columnsAsRows(cells: readonly (readonly unknown[])[]): unknown[][] {
 }
 
 /**
- * The pairs of two ranges of the same shape in the order the rows arrived: down the first column, then down
- * the next, as `withNumbersInArrivalOrder` reads one range. A pair is kept, skipped or counted as empty by the
- * rules of `pairsFromCells` (both cells finite numbers; both blank is no pair at all), which does the reading.
- * Throws a RangeError when the shapes differ.
+ * The differences second − first − shift of the pairs of two ranges of the same shape, in the order the rows
+ * arrived: down the first column, then down the next, as `withNumbersInArrivalOrder` reads one range. A pair
+ * is kept, skipped or counted as empty, and its difference rounded, by `pairedDifferencesFromCells`, which
+ * does the reading. Throws a RangeError when the shapes differ.
  *
  * @example
- * const p = pairsInArrivalOrder([[1, 4], [2, null]], [[1.5, 4.5], ["x", null]]);
- * // p.first: [1, 4]; p.second: [1.5, 4.5]; p.pairsSkipped: 1 (the "x"); p.emptyPairs: 1
+ * pairedDifferencesInArrivalOrder([[1, 4], [2, null]], [[1.5, 4.5], ["x", null]], 0).differences; // [0.5, 0.5]
  */
-export function pairsInArrivalOrder(first: readonly (readonly unknown[])[], second: readonly (readonly unknown[])[]): CellPairs {
+export function pairedDifferencesInArrivalOrder(
+  first: readonly (readonly unknown[])[],
+  second: readonly (readonly unknown[])[],
+  shift: number,
+): CellDifferences {
   const width = first.length === 0 ? 0 : first[0].length;
-  // One column: reading row by row already is arrival order, and costs no copy.
-  if (width <= 1) return pairsFromCells(first, second);
-  if (second.length !== first.length) throw new RangeError(`pairsInArrivalOrder: ${first.length} rows against ${second.length}`);
-  return pairsFromCells(columnsAsRows(first), columnsAsRows(second));
+  if (width <= 1) return pairedDifferencesFromCells(first, second, shift);
+  if (second.length !== first.length)
+    throw new RangeError(`pairedDifferencesInArrivalOrder: ${first.length} rows against ${second.length}`);
+  return pairedDifferencesFromCells(columnsAsRows(first), columnsAsRows(second), shift);
 }

@@ -14,11 +14,14 @@
  * A test that needs only the counts below, at and above a centre (the sign
  * test, COUNTS) takes them in the same pass (`signCountsFromCells`) and keeps
  * no numbers at all; the comparison is the shared tie rule of differences.ts.
+ * The paired tests read two ranges in one pass into buffers kept between calls
+ * and round the differences from there (`pairedDifferencesFromCells`), so the
+ * only new array is the differences themselves.
  *
  * Cost: O(cells) time; O(numbers) extra memory (at most twice the numbers kept),
  * none for the counts.
  */
-import { compareAsShown, tieWindow } from "./differences";
+import { compareAsShown, pairedDifferences, tieWindow } from "./differences";
 import type { SignCounts } from "./signCounts";
 
 /** Cells that were not numbers, by kind. `other` holds error values, objects and non-finite numbers. */
@@ -325,6 +328,89 @@ function sharedRows(values: ArrayLike<number>, rows: number, blank: number | str
   return out;
 }
 
+/** The differences second − first − shift of the pairs of two ranges, and what the pairing set aside. */
+export interface CellDifferences {
+  /** One per pair kept, in reading order, rounded as `pairedDifferences` rounds them; owned by the caller. */
+  differences: Float64Array;
+  /** Cell pairs visited. */
+  pairs: number;
+  /** As in `CellPairs`. */
+  pairsSkipped: number;
+  /** Positions where both cells are blank. */
+  emptyPairs: number;
+  skippedFirst: SkippedCells;
+  skippedSecond: SkippedCells;
+}
+
+/** What one pass over two ranges found; the numbers themselves are in SCRATCH_FIRST and SCRATCH_SECOND. */
+interface PairTally {
+  count: number;
+  visited: number;
+  emptyPairs: number;
+  skippedFirst: SkippedCells;
+  skippedSecond: SkippedCells;
+}
+
+/**
+ * Where `readPairs` puts the numbers of the kept pairs: kept between calls and grown when a range needs more.
+ * A fresh array the size of a long range costs more to touch for the first time (the system maps its memory
+ * page by page) than the pass over the cells, and growing one by doubling touches twice as much again; the
+ * callers copy out, or derive, what they return before the next call, and nothing they call reads ranges.
+ */
+let SCRATCH_FIRST: Float64Array = new Float64Array(INITIAL_CAPACITY);
+let SCRATCH_SECOND: Float64Array = new Float64Array(INITIAL_CAPACITY);
+
+/**
+ * The one paired reading of two ranges of the same shape, cell by cell in reading order: a pair is kept when
+ * both cells are finite numbers (the first test, which nearly every pair of a table passes, is four type and
+ * finiteness checks), a position blank on both sides is no pair, and the rest is tallied by kind.
+ * Throws a RangeError when the shapes differ.
+ */
+function readPairs(first: readonly (readonly unknown[])[], second: readonly (readonly unknown[])[], caller: string): PairTally {
+  const rows = first.length;
+  if (second.length !== rows) throw new RangeError(`${caller}: ${rows} rows against ${second.length}`);
+  let a = SCRATCH_FIRST;
+  let b = SCRATCH_SECOND;
+  let capacity = a.length; // a local copy: re-reading a.length after a reassignment slows the loop
+  let count = 0;
+  let visited = 0;
+  let emptyPairs = 0;
+  const skippedFirst: SkippedCells = { blank: 0, text: 0, boolean: 0, other: 0 };
+  const skippedSecond: SkippedCells = { blank: 0, text: 0, boolean: 0, other: 0 };
+  for (let r = 0; r < rows; r++) {
+    const rowA = first[r];
+    const rowB = second[r];
+    const width = rowA.length;
+    if (rowB.length !== width) throw new RangeError(`${caller}: row ${r} has ${width} cells against ${rowB.length}`);
+    visited += width;
+    for (let c = 0; c < width; c++) {
+      const x = rowA[c];
+      const y = rowB[c];
+      // x - x is NaN exactly for NaN and ±Infinity
+      if (typeof x === "number" && typeof y === "number" && x - x === 0 && y - y === 0) {
+        if (count === capacity) {
+          a = SCRATCH_FIRST = grow(a); // doubling: the buffers end at most twice the most pairs a range held
+          b = SCRATCH_SECOND = grow(b);
+          capacity = a.length;
+        }
+        a[count] = x;
+        b[count] = y;
+        count++;
+        continue;
+      }
+      const kindX = cellKind(x);
+      const kindY = cellKind(y);
+      if (kindX === BLANK && kindY === BLANK) {
+        emptyPairs++;
+      } else {
+        if (kindX !== NUMBER) tally(skippedFirst, kindX);
+        if (kindY !== NUMBER) tally(skippedSecond, kindY);
+      }
+    }
+  }
+  return { count, visited, emptyPairs, skippedFirst, skippedSecond };
+}
+
 /**
  * Pairs up two ranges of the same shape cell by cell, keeping the pairs where both cells are finite numbers.
  * Throws a RangeError when the shapes differ (the cell-function layer checks this first and says so to the user).
@@ -335,50 +421,41 @@ function sharedRows(values: ArrayLike<number>, rows: number, blank: number | str
  * // p.skippedFirst.text: 1; p.skippedSecond.blank: 1
  */
 export function pairsFromCells(first: readonly (readonly unknown[])[], second: readonly (readonly unknown[])[]): CellPairs {
-  const rows = first.length;
-  if (second.length !== rows) throw new RangeError(`pairsFromCells: ${rows} rows against ${second.length}`);
-  let a: Float64Array = new Float64Array(INITIAL_CAPACITY);
-  let b: Float64Array = new Float64Array(INITIAL_CAPACITY);
-  let count = 0;
-  let visited = 0;
-  let emptyPairs = 0;
-  const skippedFirst: SkippedCells = { blank: 0, text: 0, boolean: 0, other: 0 };
-  const skippedSecond: SkippedCells = { blank: 0, text: 0, boolean: 0, other: 0 };
-  for (let r = 0; r < rows; r++) {
-    const rowA = first[r];
-    const rowB = second[r];
-    const width = rowA.length;
-    if (rowB.length !== width) throw new RangeError(`pairsFromCells: row ${r} has ${width} cells against ${rowB.length}`);
-    visited += width;
-    for (let c = 0; c < width; c++) {
-      const x = rowA[c];
-      const y = rowB[c];
-      const kindX = cellKind(x);
-      const kindY = cellKind(y);
-      if (kindX === NUMBER && kindY === NUMBER) {
-        if (count === a.length) {
-          a = grow(a);
-          b = grow(b);
-        }
-        a[count] = x as number;
-        b[count] = y as number;
-        count++;
-      } else if (kindX === BLANK && kindY === BLANK) {
-        emptyPairs++;
-      } else {
-        if (kindX !== NUMBER) tally(skippedFirst, kindX);
-        if (kindY !== NUMBER) tally(skippedSecond, kindY);
-      }
-    }
-  }
+  const t = readPairs(first, second, "pairsFromCells");
   return {
-    first: a.subarray(0, count),
-    second: b.subarray(0, count),
-    pairs: visited,
-    pairsSkipped: visited - count - emptyPairs,
-    emptyPairs,
-    skippedFirst,
-    skippedSecond,
+    first: SCRATCH_FIRST.slice(0, t.count),
+    second: SCRATCH_SECOND.slice(0, t.count),
+    pairs: t.visited,
+    pairsSkipped: t.visited - t.count - t.emptyPairs,
+    emptyPairs: t.emptyPairs,
+    skippedFirst: t.skippedFirst,
+    skippedSecond: t.skippedSecond,
+  };
+}
+
+/**
+ * The differences second − first − shift of the pairs `pairsFromCells` keeps, rounded by `pairedDifferences`
+ * (the shared tie rule), with the same counts of what was set aside: the same as
+ * `pairedDifferences(p.first, p.second, shift)` for p = `pairsFromCells(first, second)`, in one reading
+ * that keeps no copy of the pairs. Throws a RangeError when the shapes differ.
+ *
+ * @example
+ * const d = pairedDifferencesFromCells([[1.1], [5], ["x"]], [[2.3], [4], [7]], 1.2);
+ * // d.differences: Float64Array [0, -2.2]; d.pairs: 3; d.pairsSkipped: 1; d.skippedFirst.text: 1
+ */
+export function pairedDifferencesFromCells(
+  first: readonly (readonly unknown[])[],
+  second: readonly (readonly unknown[])[],
+  shift: number,
+): CellDifferences {
+  const t = readPairs(first, second, "pairedDifferencesFromCells");
+  return {
+    differences: pairedDifferences(SCRATCH_FIRST.subarray(0, t.count), SCRATCH_SECOND.subarray(0, t.count), shift),
+    pairs: t.visited,
+    pairsSkipped: t.visited - t.count - t.emptyPairs,
+    emptyPairs: t.emptyPairs,
+    skippedFirst: t.skippedFirst,
+    skippedSecond: t.skippedSecond,
   };
 }
 
@@ -393,8 +470,9 @@ for (let i = 0; i < 20; i++) {
     Array.from({ length: 40 }, () => [0, -1, 1, 1e-20, null, undefined, "", "a", true, {}, NaN]),
     0,
   );
-  pairsFromCells(
-    Array.from({ length: 40 }, () => [0, null, "a", true, {}]),
-    Array.from({ length: 40 }, () => [0, 1, 2, 3, 4]),
+  pairedDifferencesFromCells(
+    Array.from({ length: 40 }, () => [0, null, "a", true, {}, 1, null, 2.5]),
+    Array.from({ length: 40 }, () => [0, 1, 2, 3, 4, NaN, null, -1.25]),
+    0,
   );
 }

@@ -28,7 +28,9 @@
  * Excel", Microsoft Learn troubleshooting article, from memory), so two numbers
  * that agree in those digits read the same on the sheet and are a tie here.
  *
- * Cost: O(1) per difference, O(n) for an array; no allocation beyond the result.
+ * Cost: O(1) per difference, O(n) for an array; no allocation beyond the result. `pairedDifferences` finds
+ * the decimal exponent once per decade rather than per pair and rounds without data-dependent branches
+ * (see ROUNDER), handing the rare pair it cannot settle that way to the general rounding.
  * A comparison costs two raw comparisons outside a narrow window around the
  * centre (`tieWindow`), and one rounding inside it.
  */
@@ -158,8 +160,45 @@ export function spreadsheetDifference(minuend: number, subtrahend: number): numb
 }
 
 /**
+ * second - first - shift for one pair, rounded to 15 significant digits at the scale max(|first|, |second|,
+ * |shift|) by `roundToScale`: the definition `pairedDifferences` follows pair by pair (with a faster step
+ * where it gives the same double), and the reference its tests compare it with; +0 for a tie (never -0).
+ *
+ * @example
+ * pairedDifference(1.1, 2.3, 1.2); // 0 (raw: 2.3 - 1.1 - 1.2 = -2.220446049250313e-16)
+ */
+export function pairedDifference(first: number, second: number, shift: number): number {
+  const step = second - first;
+  const hi = step - shift;
+  const lo = sumError(second, -first, step) + sumError(step, -shift, hi);
+  return roundToScale(hi, lo, Math.max(Math.abs(first), Math.abs(second), Math.abs(shift)));
+}
+
+/**
+ * 1.5 × 2^52, for the rounding step of `pairedDifferences`: it is `roundToScale`'s common branch (k = 14 - e
+ * in 0..22, |hi × p| < 2^48) with exact rewrites that spare the loop data-dependent branches (the sign of a
+ * difference, and which way it rounds, is a coin toss in real data; V8's Math.round branches on the latter):
+ * - the nearest integer to x as (x + ROUNDER) - ROUNDER: for |x| < 2^51 every sum lies in [2^52, 2^53), where
+ *   the doubles are the integers, so the addition rounds x to the nearest one (ties to even; IEEE 754-2019,
+ *   section 4.3.1) and the subtraction is exact; a half-way x (m - x = ±1/2, and m - x is exact for
+ *   |x| < 2^48) then moves away from zero, x ± 1/2, also exact, as `roundHalfAway` rounds;
+ * - no test for a zero m, which `roundToScale` turns into +0: (x + ROUNDER) - ROUNDER is a difference of two
+ *   equal doubles then, which is +0 in round-to-nearest (IEEE 754-2019, section 6.3), never -0;
+ * - no test for hi = 0, where `roundToScale` returns 0 at once: then |lo| is at most half an ulp of a number
+ *   below 2 × 10^(e + 1), so |lo × p| < 2 × 10^15 × 2^-53 < 0.23, which rounds to 0 here too.
+ * The decimal exponent comes from the decade bounds POW10[e] <= scale < POW10[e + 1], the comparisons
+ * `decimalExponent` makes. test/stats/differences.test.ts checks the loop against `roundToScale` pair by pair.
+ */
+const ROUNDER = 6755399441055744;
+
+/**
  * second[i] - first[i] - shift for each pair, rounded as in `spreadsheetDifference` at the scale
  * max(|first[i]|, |second[i]|, |shift|). Throws a RangeError when the lengths differ.
+ *
+ * Cost: the decimal exponent of the scale is looked up once per decade, not per pair: values of a column
+ * mostly share one, so the loop keeps the bounds of the last decade, 10^e <= scale < 10^(e + 1) (the
+ * correctly rounded powers of `POW10`, the same comparisons `decimalExponent` makes), and finds the exponent
+ * again only when a scale falls outside. Pairs the short rounding cannot settle go to `roundToScale`.
  *
  * @example
  * pairedDifferences([1.1, 5], [2.3, 4], 1.2); // Float64Array [0, -2.2]
@@ -169,13 +208,33 @@ export function pairedDifferences(first: ArrayLike<number>, second: ArrayLike<nu
   if (second.length !== n) throw new RangeError(`pairedDifferences: ${n} values against ${second.length}`);
   const out = new Float64Array(n);
   const shiftSize = Math.abs(shift);
+  // The decade last seen, decadeLow <= scale < decadeHigh, and its p = 10^(14 - e) (NaN when 10^(14 - e) is
+  // not exact, which sends every difference of that decade to roundToScale); empty until a scale sets it.
+  let decadeLow = Infinity;
+  let decadeHigh = -Infinity;
+  let p = NaN;
   for (let i = 0; i < n; i++) {
     const a = first[i];
     const b = second[i];
     const step = b - a;
     const hi = step - shift;
     const lo = sumError(b, -a, step) + sumError(step, -shift, hi);
-    out[i] = roundToScale(hi, lo, Math.max(Math.abs(a), Math.abs(b), shiftSize));
+    const scale = Math.max(Math.max(Math.abs(a), Math.abs(b)), shiftSize);
+    if (!(scale >= decadeLow && scale < decadeHigh) && scale > 0 && scale < Infinity) {
+      const e = decimalExponent(scale);
+      decadeLow = POW10[e + POW10_OFFSET];
+      decadeHigh = POW10[e + 1 + POW10_OFFSET];
+      p = 14 - e >= 0 && 14 - e <= EXACT_POW10 ? POW10[14 - e + POW10_OFFSET] : NaN;
+    }
+    const scaled = hi * p;
+    if (scaled < FAST_SCALED && scaled > -FAST_SCALED && scale >= decadeLow && scale < decadeHigh) {
+      // roundToScale's common branch, rewritten exactly without its data-dependent branches (see ROUNDER).
+      const x = scaled + lo * p;
+      let m = x + ROUNDER - ROUNDER;
+      const off = m - x;
+      if (off === 0.5 || off === -0.5) m = x < 0 ? x - 0.5 : x + 0.5; // half-way: rare, so the branch is predicted
+      out[i] = m / p; // m and p exact: the quotient is correctly rounded
+    } else out[i] = roundToScale(hi, lo, scale);
   }
   return out;
 }

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { pairsInArrivalOrder, withNumbersInArrivalOrder } from "../../src/stats/arrivalOrder";
-import { pairsFromCells } from "../../src/stats/cells";
+import { pairedDifferencesInArrivalOrder, withNumbersInArrivalOrder } from "../../src/stats/arrivalOrder";
+import { pairedDifferencesFromCells } from "../../src/stats/cells";
 
 const listed = (cells: unknown[][]) => withNumbersInArrivalOrder(cells, (values) => Array.from(values));
 
@@ -32,7 +32,7 @@ describe("withNumbersInArrivalOrder: down the rows, then across the columns", ()
   });
 });
 
-describe("pairsInArrivalOrder: pairs in the order of withNumbersInArrivalOrder, by the rules of pairsFromCells", () => {
+describe("pairedDifferencesInArrivalOrder: pairs in the order of withNumbersInArrivalOrder, by the rules of pairedDifferencesFromCells", () => {
   it("reads two blocks column by column, keeping a pair only when both cells are finite numbers", () => {
     const first = [
       [1, 4, "x"],
@@ -46,35 +46,37 @@ describe("pairsInArrivalOrder: pairs in the order of withNumbersInArrivalOrder, 
       [13, 15, null],
       [NaN, 16, 18],
     ];
-    const p = pairsInArrivalOrder(first, second);
-    expect(Array.from(p.first)).toEqual([1, 2, 4, 5, 7, 8]);
-    expect(Array.from(p.second)).toEqual([11, 12, 14, 15, 17.5, 18]);
-    // Counts do not depend on the order: they are pairsFromCells' own.
-    const byRows = pairsFromCells(first, second);
-    expect({ ...p, first: null, second: null }).toEqual({ ...byRows, first: null, second: null });
+    const p = pairedDifferencesInArrivalOrder(first, second, 0.5);
+    // Kept pairs (1, 11), (2, 12), (4, 14), (5, 15), (7, 17.5), (8, 18), less the shift 0.5.
+    expect(Array.from(p.differences)).toEqual([9.5, 9.5, 9.5, 9.5, 10, 9.5]);
+    // Counts do not depend on the order: they are pairedDifferencesFromCells' own.
+    const byRows = pairedDifferencesFromCells(first, second, 0.5);
+    expect({ ...p, differences: null }).toEqual({ ...byRows, differences: null });
     expect([p.pairs, p.pairsSkipped, p.emptyPairs]).toEqual([12, 4, 2]);
   });
 
-  it("a single column is read as pairsFromCells reads it; different shapes throw", () => {
+  it("a single column is read as pairedDifferencesFromCells reads it; different shapes throw", () => {
     const a = [[3], [1], [null], ["t"], [2]];
     const b = [[4], [null], [null], [5], [2]];
-    expect(pairsInArrivalOrder(a, b)).toEqual(pairsFromCells(a, b));
+    expect(pairedDifferencesInArrivalOrder(a, b, 0)).toEqual(pairedDifferencesFromCells(a, b, 0));
     expect(() =>
-      pairsInArrivalOrder(
+      pairedDifferencesInArrivalOrder(
         [[1, 2]],
         [
           [1, 2],
           [3, 4],
         ],
+        0,
       ),
     ).toThrow(RangeError);
     expect(() =>
-      pairsInArrivalOrder(
+      pairedDifferencesInArrivalOrder(
         [
           [1, 2],
           [3, 4],
         ],
         [[1], [3]],
+        0,
       ),
     ).toThrow(RangeError);
   });

@@ -4,11 +4,14 @@ import {
   boundedNumbersFromCells,
   cellsFromValues,
   numbersFromCells,
+  pairedDifferencesFromCells,
   pairsFromCells,
   signCountsFromCells,
+  type CellDifferences,
+  type CellPairs,
   type SkippedCells,
 } from "../../src/stats/cells";
-import { compareAsShown } from "../../src/stats/differences";
+import { compareAsShown, pairedDifferences } from "../../src/stats/differences";
 
 /**
  * Reference: the definition applied cell by cell to the flattened matrix (blank = null, undefined or "";
@@ -240,5 +243,38 @@ describe("pairsFromCells", () => {
   it("throws a RangeError when the shapes differ", () => {
     expect(() => pairsFromCells([[1], [2]], [[1]])).toThrow(RangeError);
     expect(() => pairsFromCells([[1, 2]], [[1]])).toThrow(RangeError);
+  });
+});
+
+describe("pairedDifferencesFromCells", () => {
+  it("is pairedDifferences on the pairs of pairsFromCells, with the same counts, on random ranges of one shape", () => {
+    const numberish = fc.oneof(
+      anyCell,
+      fc.integer({ min: -500, max: 500 }).map((k) => k / 100),
+    );
+    fc.assert(
+      fc.property(
+        fc.tuple(fc.integer({ min: 0, max: 700 }), fc.integer({ min: 1, max: 3 })).chain(([rows, w]) => {
+          const range = fc.array(fc.array(numberish, { minLength: w, maxLength: w }), { minLength: rows, maxLength: rows });
+          return fc.tuple(range, range, fc.constantFrom(0, 1.2, -0.35));
+        }),
+        ([a, b, shift]) => {
+          const d = pairedDifferencesFromCells(a, b, shift);
+          const p = pairsFromCells(a, b);
+          expect(Array.from(d.differences)).toEqual(Array.from(pairedDifferences(p.first, p.second, shift)));
+          const counts = (x: CellDifferences | CellPairs) => [x.pairs, x.pairsSkipped, x.emptyPairs, x.skippedFirst, x.skippedSecond];
+          expect(counts(d)).toEqual(counts(p));
+        },
+      ),
+      { numRuns: 200 },
+    );
+  });
+
+  it("rounds as the sheet shows the numbers, and throws a RangeError when the shapes differ (worked by hand)", () => {
+    const d = pairedDifferencesFromCells([[1.1], [5], ["x"]], [[2.3], [4], [7]], 1.2);
+    expect(Array.from(d.differences)).toEqual([0, -2.2]); // 2.3 - 1.1 - 1.2 is a tie; 4 - 5 - 1.2 = -2.2
+    expect([d.pairs, d.pairsSkipped, d.emptyPairs]).toEqual([3, 1, 0]);
+    expect(d.skippedFirst.text).toBe(1);
+    expect(() => pairedDifferencesFromCells([[1], [2]], [[1]], 0)).toThrow(RangeError);
   });
 });
