@@ -537,7 +537,8 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
         calculate,
       );
       const again = blockWrite(rows, block.sheet, block.rect).formulas;
-      if (sameBlockFormulas(again, formulas, rows)) return candidate;
+      // A block written with its chart loads with the chart asked for, so writing it again keeps the chart.
+      if (sameBlockFormulas(again, formulas, rows)) return setChart(candidate, block.chart !== undefined);
     }
     return null;
   }

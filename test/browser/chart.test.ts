@@ -21,6 +21,7 @@ import {
   openDemo,
   paneToResult,
   rowOfLabel,
+  selectCells,
   snap,
   startSession,
   typeIntoCell,
@@ -126,6 +127,17 @@ describe.skipIf(!run)("the chart beside the block", () => {
       expect(await cellValue(page, 2, 8)).toBe(await cellValue(page, lower, 5));
       await page.locator(".demo-chart").scrollIntoViewIfNeeded();
       await snap(page, `21-chart-row-added-${theme}`);
+
+      // Loading the block back for editing keeps the chart asked for; writing it again replaces block, chart and helper cells in place.
+      await selectCells(page, "F3");
+      await page.getByRole("button", { name: "Start over" }).click();
+      await page.getByRole("button", { name: "Edit the block at the selection" }).click();
+      await eventually(() => page.getByLabel("Also add a chart of the values against H0 and the bounds").isChecked()).toBe(true);
+      await page.getByRole("button", { name: /write the block/i }).click();
+      // The block's own cells are filled: the pane lists them and asks before replacing them.
+      await page.getByRole("button", { name: "Replace them" }).click();
+      await eventually(() => page.locator(".es-status").innerText()).toContain("A chart was added at L1");
+      expect((await chartState(page)).count).toBe(1);
       await page.close();
     });
   }
