@@ -142,16 +142,19 @@ export function targetSize(state: PaneState, request: BlockRequest, calculate: C
  * What the chart will show, in a sentence for the hint under its checkbox.
  *
  * @example
- * chartWords(false, "two-sided", true); // "A scatter chart of the values row by row, with H0's value and the bounds as lines; ..."
+ * chartWords(false, "two-sided", "table"); // "A scatter chart of the values row by row, with H0's value and the bounds as lines; ..."
  */
-export function chartWords(paired: boolean, side: "two-sided" | "lower" | "upper", followsNewRows: boolean): string {
+export function chartWords(paired: boolean, side: "two-sided" | "lower" | "upper", rows: "table" | "open" | "exact"): string {
   const bounds = side === "two-sided" ? "the lower and upper bounds" : `the ${side} bound`;
   const what = paired ? "the differences (second − first), pair by pair," : "the values row by row,";
+  // Only a table's column grows the chart's series: an open-ended range would plot a million empty rows.
   const follows = paired
     ? " The differences are worked out in helper cells for the pairs there are now; write again after adding rows."
-    : followsNewRows
+    : rows === "table"
       ? " New rows of the table show up as new points."
-      : "";
+      : rows === "open"
+        ? " The block reads new rows, but the chart plots the rows there are now; write again after adding rows."
+        : "";
   return `A scatter chart of ${what} with H0’s value and ${bounds} as lines that move with the block. It goes right of the block, beside a few labelled helper cells, where it covers no data. Its value axis is set around the values when written; a value far outside it needs the block written again.${follows}`;
 }
 
@@ -316,7 +319,7 @@ export function resultView(state: PaneState, calculate: CatalogueCall): ResultVi
         : chartWords(
             state.paired,
             boundSideFor(request.alternative),
-            chartTableReference(c, state.reference, []) !== null || state.reference === "table",
+            chartTableReference(c, state.reference, []) !== null || state.reference === "table" ? "table" : state.reference,
           ),
   };
 }

@@ -143,10 +143,11 @@ describe("the Result step's state", () => {
   });
 
   it("describes the chart: the bounds that exist, whether new rows show, and that pairs are worked out for the rows there are", () => {
-    expect(chartWords(false, "two-sided", true)).toContain("with H0’s value and the lower and upper bounds as lines");
-    expect(chartWords(false, "lower", true)).toContain("the lower bound as lines");
-    expect(chartWords(false, "two-sided", true)).toContain("New rows of the table show up as new points.");
-    expect(chartWords(false, "two-sided", false)).not.toContain("New rows");
-    expect(chartWords(true, "upper", true)).toContain("worked out in helper cells for the pairs there are now");
+    expect(chartWords(false, "two-sided", "table")).toContain("with H0’s value and the lower and upper bounds as lines");
+    expect(chartWords(false, "lower", "table")).toContain("the lower bound as lines");
+    expect(chartWords(false, "two-sided", "table")).toContain("New rows of the table show up as new points.");
+    expect(chartWords(false, "two-sided", "exact")).not.toContain("new rows");
+    expect(chartWords(false, "two-sided", "open")).toContain("the chart plots the rows there are now");
+    expect(chartWords(true, "upper", "table")).toContain("worked out in helper cells for the pairs there are now");
   });
 });
