@@ -14,7 +14,7 @@
  * (build first: EVENSPLIT_DIST=/tmp/dist-NAME npx webpack --mode production).
  */
 import type { CDPSession, Page } from "playwright-core";
-import { openDemo, selectCells, startSession, type Session } from "../test/browser/browser";
+import { openDemo, selectCells, startSession, type Session } from "../test/browser/session";
 
 const STEPS = ["fill", "analyse", "write", "edit"] as const;
 type Step = (typeof STEPS)[number];
