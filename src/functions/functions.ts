@@ -64,6 +64,7 @@ import {
   TWO_GROUP_METHOD,
   ZEROS,
   chooseWord,
+  type Vocabulary,
 } from "./vocabulary";
 
 // ---------------------------------------------------------------------------
@@ -964,6 +965,8 @@ const CATALOGUE: Readonly<Record<string, CatalogueFunction>> = {
   SHIFT: shift as CatalogueFunction,
   GROUPS: groups as CatalogueFunction,
   BYGROUP: bygroup as CatalogueFunction,
+  LABELEDTWOGROUPS: labeledtwogroups as CatalogueFunction,
+  LABELEDSHIFT: labeledshift as CatalogueFunction,
 };
 
 /** Every catalogue id, as registered under the EVENSPLIT namespace. */
@@ -1039,18 +1042,40 @@ export function twogroups(
 ): number | CellError {
   return scalar(() => {
     const x = groupNumbers("first", first);
-    const moved = shiftOf(shift);
-    const chosenAlternative = chooseWord(ALTERNATIVE, alternative);
-    const chosenMethod = chooseWord(TWO_GROUP_METHOD, method);
-    const rule = chooseWord(AT_MEDIAN, at_median);
-    const y = groupNumbers("second", second);
-    if (chosenMethod === "rank-sum") {
-      const result = rankSumTest(x, y, { shift: moved, alternative: chosenAlternative });
-      return result.available ? result.pValue : unavailableError(result);
-    }
-    const result = moodMedianTest([x, moved === 0 ? y : differencesFrom(y, moved)], { ties: rule, alternative: chosenAlternative });
-    return result.available ? result.pValue : unavailableError(result);
+    const options = twoGroupOptions(shift, alternative, method, at_median);
+    return twoGroupPValue(x, groupNumbers("second", second), options);
   });
+}
+
+/** The canonical words of a vocabulary. */
+type WordOf<V> = V extends Vocabulary<infer T> ? T : never;
+
+/** TWOGROUPS' options, checked. */
+interface TwoGroupOptions {
+  moved: number;
+  alternative: WordOf<typeof ALTERNATIVE>;
+  method: WordOf<typeof TWO_GROUP_METHOD>;
+  rule: WordOf<typeof AT_MEDIAN>;
+}
+
+function twoGroupOptions(shift: unknown, alternative: unknown, method: unknown, at_median: unknown): TwoGroupOptions {
+  return {
+    moved: shiftOf(shift),
+    alternative: chooseWord(ALTERNATIVE, alternative),
+    method: chooseWord(TWO_GROUP_METHOD, method),
+    rule: chooseWord(AT_MEDIAN, at_median),
+  };
+}
+
+/** The p-value TWOGROUPS gives for two groups' numbers (LABELEDTWOGROUPS gives the same). */
+function twoGroupPValue(x: Float64Array, y: Float64Array, options: TwoGroupOptions): number | CellError {
+  if (options.method === "rank-sum") {
+    const result = rankSumTest(x, y, { shift: options.moved, alternative: options.alternative });
+    return result.available ? result.pValue : unavailableError(result);
+  }
+  const moved = options.moved;
+  const result = moodMedianTest([x, moved === 0 ? y : differencesFrom(y, moved)], { ties: options.rule, alternative: options.alternative });
+  return result.available ? result.pValue : unavailableError(result);
 }
 
 /**
@@ -1068,14 +1093,18 @@ export function shift(first: unknown[][], second: unknown[][], confidence?: unkn
   return oneRow(4, () => {
     const x = groupNumbers("first", first);
     const y = groupNumbers("second", second);
-    const level = fractionArgument("confidence", confidence, 0.95);
-    const result = shiftBounds(x, y, { confidence: level });
-    if (result.available) return [result.estimate, result.lower ?? "", result.upper ?? "", result.achievedConfidence];
-    const estimate = shiftEstimate(x, y);
-    if (typeof estimate !== "number") return unavailableError(estimate);
-    const missing = unavailableError(result);
-    return [estimate, missing, missing, missing];
+    return shiftRow(x, y, fractionArgument("confidence", confidence, 0.95));
   });
+}
+
+/** The row SHIFT gives for two groups' numbers (LABELEDSHIFT gives the same). */
+function shiftRow(x: Float64Array, y: Float64Array, level: number): RowCell[] | CellError {
+  const result = shiftBounds(x, y, { confidence: level });
+  if (result.available) return [result.estimate, result.lower ?? "", result.upper ?? "", result.achievedConfidence];
+  const estimate = shiftEstimate(x, y);
+  if (typeof estimate !== "number") return unavailableError(estimate);
+  const missing = unavailableError(result);
+  return [estimate, missing, missing, missing];
 }
 
 /**
@@ -1161,6 +1190,130 @@ export function bygroup(
   } catch (thrown) {
     return [BY_GROUP_HEADER.map(() => errorFor(thrown))];
   }
+}
+
+/** A group label given as an argument: one cell's value or a typed label, never blank. */
+function labelArgument(name: string, raw: unknown): string | number | boolean {
+  const cell = Array.isArray(raw) && raw.length === 1 && Array.isArray(raw[0]) && raw[0].length === 1 ? (raw[0] as unknown[])[0] : raw;
+  if (typeof cell === "string" && cell !== "") return cell;
+  if (typeof cell === "number" || typeof cell === "boolean") return cell;
+  throw new BadArgument(`Argument ${name} must be a group label as the labels column shows it, such as "Line A" or a cell holding one.`);
+}
+
+/** Whether a label of the column is the label asked for, by groupCells' rule: text ignoring case, numbers and logical values as they are. */
+function sameLabel(found: string | number | boolean, wanted: string | number | boolean): boolean {
+  if (typeof found === "string" && typeof wanted === "string") return found.toLowerCase() === wanted.toLowerCase();
+  return found === wanted;
+}
+
+/** A label as a message quotes it. */
+function shownLabel(label: string | number | boolean): string {
+  if (typeof label === "string") return `"${label}"`;
+  if (typeof label === "boolean") return label ? "TRUE" : "FALSE";
+  return String(label);
+}
+
+/** The labels found, for a message: the first few, and how many more. */
+function labelsFound(grouped: GroupedCells): string {
+  const shown = grouped.groups.slice(0, 6).map((g) => shownLabel(g.label));
+  const more = grouped.groups.length - shown.length;
+  if (shown.length === 0) return "no labels";
+  return shown.join(", ") + (more > 0 ? ` and ${more} more` : "");
+}
+
+/** The numbers of the group with one label; #N/A naming the label when no value carries it. */
+function labeledGroup(grouped: GroupedCells, name: string, wanted: string | number | boolean): Float64Array | CellError {
+  const group = grouped.groups.find((g) => sameLabel(g.label, wanted));
+  if (group === undefined) {
+    const textTwin = typeof wanted === "number" && grouped.groups.some((g) => g.label === String(wanted));
+    const hint = textTwin ? ` The column holds ${shownLabel(String(wanted))} as text: give ${name} as text too.` : "";
+    return cellError("#N/A", `Label ${shownLabel(wanted)} (${name}) was not found in labels; found ${labelsFound(grouped)}.${hint}`);
+  }
+  if (group.values.length === 0) return cellError("#N/A", `Label ${shownLabel(wanted)} (${name}) has no numbers beside it in values.`);
+  return group.values;
+}
+
+/** The two groups named by their labels, in the order asked: first, second. */
+function labeledPair(
+  values: unknown,
+  labels: unknown,
+  first_label: unknown,
+  second_label: unknown,
+): { x: Float64Array; y: Float64Array } | CellError {
+  const firstLabel = labelArgument("first_label", first_label);
+  const secondLabel = labelArgument("second_label", second_label);
+  if (sameLabel(firstLabel, secondLabel)) {
+    throw new BadArgument(
+      `Arguments first_label and second_label name the same group (${shownLabel(firstLabel)}): give two different labels.`,
+    );
+  }
+  const grouped = groupsOf(values, labels);
+  const x = labeledGroup(grouped, "first_label", firstLabel);
+  if (!(x instanceof Float64Array)) return x;
+  const y = labeledGroup(grouped, "second_label", secondLabel);
+  if (!(y instanceof Float64Array)) return y;
+  return { x, y };
+}
+
+/**
+ * P-value comparing two groups picked by their labels from a column of values and a column of group labels; the same p-value as TWOGROUPS on the two groups' values. The rank-sum method compares whole distributions; it speaks of a shift of medians only when the groups have the same shape.
+ * @customfunction LABELEDTWOGROUPS
+ * @param values Range with the measurements, such as B2:B200.
+ * @param labels Range with each value's group label beside it, same shape, such as A2:A200. Rows with a blank label are skipped; text labels match ignoring case.
+ * @param first_label Label of the first group as the labels column shows it, such as Line A (in quotes when typed), or a cell holding it.
+ * @param second_label Label of the second group, such as Line B (in quotes when typed), or a cell holding it.
+ * @param [shift] The shift second − first under test; default 0.
+ * @param [alternative] "two-sided" (default), "greater" (second tends to exceed first + shift) or "less".
+ * @param [method] "rank-sum" (default: Wilcoxon–Mann–Whitney, exact for small groups) or "median" (Mood's test, Fisher exact on above / not above the pooled median).
+ * @param [at_median] Median method only, values equal to the pooled median: "join-lower" (default: counted as not above), "join-upper" (counted as above) or "leave-out".
+ * @returns The p-value.
+ * @helpurl https://localhost:3000/help/labeledtwogroups.html
+ * @example =EVENSPLIT.LABELEDTWOGROUPS(Panels[Thickness], Panels[Line], "Line A", "Line B") compares the panels of two paint lines kept in one table (Line: an invented column naming each panel's line).
+ * @see H. B. Mann and D. R. Whitney (1947), "On a test of whether one of two random variables is stochastically larger than the other", Annals of Mathematical Statistics 18, 50-60.
+ * @see A. M. Mood (1950), "Introduction to the Theory of Statistics", McGraw-Hill (the median test).
+ */
+export function labeledtwogroups(
+  values: unknown[][],
+  labels: unknown[][],
+  first_label: unknown,
+  second_label: unknown,
+  shift?: unknown,
+  alternative?: unknown,
+  method?: unknown,
+  at_median?: unknown,
+): number | CellError {
+  return scalar(() => {
+    const options = twoGroupOptions(shift, alternative, method, at_median);
+    const pair = labeledPair(values, labels, first_label, second_label);
+    return "x" in pair ? twoGroupPValue(pair.x, pair.y, options) : pair;
+  });
+}
+
+/**
+ * Hodges–Lehmann shift between two groups picked by their labels from a column of values and a column of group labels (the median of all differences second − first) with distribution-free bounds; the same row as SHIFT on the two groups' values. Returns one row: estimate, lower, upper, coverage.
+ * @customfunction LABELEDSHIFT
+ * @param values Range with the measurements, such as B2:B200.
+ * @param labels Range with each value's group label beside it, same shape, such as A2:A200. Rows with a blank label are skipped; text labels match ignoring case.
+ * @param first_label Label of the first group as the labels column shows it, such as Line A (in quotes when typed), or a cell holding it.
+ * @param second_label Label of the second group, such as Line B (in quotes when typed), or a cell holding it.
+ * @param [confidence] Confidence of the bounds, such as 0.95 (default).
+ * @returns One row: estimate, lower, upper, coverage.
+ * @helpurl https://localhost:3000/help/labeledshift.html
+ * @example =EVENSPLIT.LABELEDSHIFT(Panels[Thickness], Panels[Line], "Line A", "Line B", 0.95) estimates how much thicker line B paints than line A, with bounds, from one table of panels.
+ * @see J. L. Hodges and E. L. Lehmann (1963), "Estimates of location based on rank tests", Annals of Mathematical Statistics 34, 598-611.
+ */
+export function labeledshift(
+  values: unknown[][],
+  labels: unknown[][],
+  first_label: unknown,
+  second_label: unknown,
+  confidence?: unknown,
+): unknown[][] {
+  return oneRow(4, () => {
+    const level = fractionArgument("confidence", confidence, 0.95);
+    const pair = labeledPair(values, labels, first_label, second_label);
+    return "x" in pair ? shiftRow(pair.x, pair.y, level) : pair;
+  });
 }
 
 // ---------------------------------------------------------------------------

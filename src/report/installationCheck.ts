@@ -224,6 +224,15 @@ export const REFERENCE_CASES: readonly ReferenceCase[] = [
     source: "Exact arithmetic (Holm's step-down rule): sorted 0.01, 0.03, 0.04 become 3 × 0.01, max(0.03, 2 × 0.03), max(0.06, 0.04)",
     tolerance: 1e-15,
   },
+  {
+    id: "labeled-two-groups-3-4",
+    what: "Rank-sum test of the groups labelled A (1, 2, 3) and b (4, 5, 6, 7) picked from one column, a third label left out, one-sided",
+    fn: "LABELEDTWOGROUPS",
+    args: [column(1, 100, 2, 3, 4, 5, 6, 7), [["A"], ["C"], ["a"], ["A"], ["B"], ["b"], ["B"], ["B"]], "A", "b", 0, "greater"],
+    expected: 1 / 35,
+    source: "Exact arithmetic: every value labelled b exceeds every value labelled A, 1 of the C(7, 3) = 35 equally likely rank patterns",
+    tolerance: 1e-15,
+  },
 ];
 
 function errorCode(value: unknown): string | null {

@@ -222,6 +222,8 @@ describe("REPORT and calling by id", () => {
       "COUNTS",
       "GROUPS",
       "HODGESLEHMANN",
+      "LABELEDSHIFT",
+      "LABELEDTWOGROUPS",
       "ORDERRANKS",
       "PAIRED",
       "PAIREDBOUNDS",

@@ -168,6 +168,8 @@ describe("manifest.xml", () => {
         "SHIFT",
         "GROUPS",
         "BYGROUP",
+        "LABELEDTWOGROUPS",
+        "LABELEDSHIFT",
         "COUNTPVALUE",
         "ORDERRANKS",
       ]),
