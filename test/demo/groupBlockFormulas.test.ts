@@ -4,7 +4,8 @@
  * functions, against direct evaluation (blockValue with callFunction) on the
  * invented "Lines and suppliers" sheet (src/demo/inventedData.ts). Every row must
  * agree, and the by-group table spilled in the sheet must equal the matrix
- * BYGROUP answers directly, cell by cell. Hand counts are from that file.
+ * BYGROUP answers directly, cell by cell. Hand counts are from that file. LABELEDTWOGROUPS and
+ * LABELEDSHIFT, typed in the sheet, must give what they give called directly.
  */
 import { beforeAll, describe, expect, it } from "vitest";
 import type { CustomFunction } from "../../src/demo/formula/evaluate";
@@ -141,5 +142,34 @@ describe("several groups: the block's formulas agree with direct evaluation, the
       '=EVENSPLIT.BYGROUP(D,L,,"two-sided",0.95,"holm")',
     );
     expect([workbook.value(GROUPS_SHEET, top + 1, 13), workbook.value(GROUPS_SHEET, top + 1, 14)]).toEqual(["", ""]);
+  });
+});
+
+describe("two groups picked by label: LABELEDTWOGROUPS and LABELEDSHIFT typed in the sheet", () => {
+  const VALUES = "$C$2:$C$20";
+  const LABELS = "$B$2:$B$20";
+
+  it("the sheet's answers equal direct evaluation, for both methods and every alternative", () => {
+    for (const method of ["rank-sum", "median"]) {
+      for (const alternative of ["two-sided", "greater", "less"]) {
+        const workbook = sheet();
+        const args = `${VALUES},${LABELS},"North","south",0.5,"${alternative}","${method}"`;
+        workbook.writeEntries(GROUPS_SHEET, 0, 7, [[`=EVENSPLIT.LABELEDTWOGROUPS(${args})`]]);
+        const direct = callFunction("LABELEDTWOGROUPS", [column(2), column(1), "North", "south", 0.5, alternative, method]);
+        expect(typeof direct).toBe("number");
+        expect(workbook.value(GROUPS_SHEET, 0, 7), `${method} ${alternative}`).toBe(direct);
+      }
+    }
+  });
+
+  it("LABELEDSHIFT spills its row, equal to direct evaluation; a label not in the column is #N/A", () => {
+    const workbook = sheet();
+    workbook.writeEntries(GROUPS_SHEET, 0, 7, [[`=EVENSPLIT.LABELEDSHIFT(${VALUES},${LABELS},"North","East",0.9)`]]);
+    const [direct] = callFunction("LABELEDSHIFT", [column(2), column(1), "North", "East", 0.9]) as unknown[][];
+    direct.forEach((cell, c) => expectSame(workbook.value(GROUPS_SHEET, 0, 7 + c), cell, `column ${c + 1}`));
+    expect(direct[0]).toBeTypeOf("number");
+    workbook.writeEntries(GROUPS_SHEET, 2, 7, [[`=EVENSPLIT.LABELEDTWOGROUPS(${VALUES},${LABELS},"North","West")`]]);
+    const missing = workbook.value(GROUPS_SHEET, 2, 7);
+    expect(isError(missing) && missing.code).toBe("#N/A");
   });
 });
