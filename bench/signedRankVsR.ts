@@ -8,8 +8,10 @@
  * set: system.time counts in milliseconds, so calls are repeated in batches of at least 0.2 s and the
  * fastest of three batches, divided by the calls, is R's time per call. Ours is timed right after it in this
  * process, on the data this process made (arrays made in another realm read slower, so none are passed in),
- * the fastest of several calls. Fastest, not median, on both sides: on a shared machine other work only
- * ever adds time (bench/timing.ts). The p-values are compared as well.
+ * the same way: batches of at least 0.2 s, the fastest of three, divided by the calls. Every call works from
+ * the data (nothing is remembered between calls but scratch memory), as a recalculation would. Fastest, not
+ * median, on both sides: on a shared machine other work only ever adds time (bench/timing.ts). The p-values
+ * are compared as well.
  *
  * Then, ours alone, the exact test with ties and Pratt's zeros at the same sizes (differences rounded to
  * whole numbers, so many share a rank and some are zero): R's wilcox.test has no exact method with ties or
@@ -21,21 +23,20 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { signedRankTest } from "../src/stats/signedRank";
 import { xorshift32 as uniforms } from "../src/stats/xorshift";
-/** Fastest wall time in milliseconds of `repeats` calls of `fn`, after one warm-up call. */
-function fastest(fn: () => unknown, repeats: number): number {
-  fn();
-  let best = Infinity;
-  for (let i = 0; i < repeats; i++) {
+/** Time per call in milliseconds as R's side measures it: batches of at least 0.2 s, fastest of three. */
+function perCall(fn: () => unknown): number {
+  const batch = (reps: number): number => {
     const start = performance.now();
-    fn();
-    best = Math.min(best, performance.now() - start);
-  }
-  return best;
+    for (let i = 0; i < reps; i++) fn();
+    return performance.now() - start;
+  };
+  let reps = 1;
+  while (batch(reps) < 200) reps *= 4;
+  return Math.min(batch(reps), batch(reps), batch(reps)) / reps;
 }
 
 const SIZES = [200, 300, 400, 500, 600, 700, 800, 900, 1000];
 const SETS = 3;
-const REPEATS = 7;
 
 /** Differences with distinct absolute values (ranks without ties) and random signs. */
 function dataSet(n: number, seed: number): number[] {
@@ -86,10 +87,10 @@ cat(sprintf("%.17g %.6f\\n", p, min(times) * 1000))`;
     const [pR, msR] = r.stdout.trim().split(" ").map(Number);
     const data = Float64Array.from(c.x);
     let p = NaN;
-    const ms = fastest(() => {
+    const ms = perCall(() => {
       const result = signedRankTest(data, { method: "exact" });
       if (result.available) p = result.pValue;
-    }, REPEATS);
+    });
     untiedR.set(c.n, Math.max(untiedR.get(c.n) ?? 0, msR));
     console.log(
       `${String(c.n).padEnd(5)} ${c.label.padEnd(11)} ${msR.toFixed(2).padStart(16)} ${ms.toFixed(2).padStart(14)} ${(ms / msR).toFixed(2).padStart(7)}   ${pR.toPrecision(15).padEnd(21)} ${(Math.abs(p - pR) / pR).toExponential(1)}`,
@@ -100,10 +101,10 @@ cat(sprintf("%.17g %.6f\\n", p, min(times) * 1000))`;
   for (const n of SIZES) {
     const data = Float64Array.from(tiedWithZeros(n, 7000 + n));
     let ranked = 0;
-    const ms = fastest(() => {
+    const ms = perCall(() => {
       const result = signedRankTest(data, { method: "exact", zeros: "pratt" });
       if (result.available && result.method === "exact") ranked = result.n;
-    }, REPEATS);
+    });
     const msR = untiedR.get(n) ?? NaN;
     console.log(
       `${String(n).padEnd(5)} ${String(ranked).padStart(6)} ${msR.toFixed(2).padStart(12)} ${ms.toFixed(2).padStart(14)} ${(ms / msR).toFixed(2).padStart(7)}`,

@@ -167,6 +167,24 @@ interface LowerHalf {
 }
 
 /**
+ * A Float64Array kept between calls and grown when a call needs more: at n = 200-300 allocating and zeroing
+ * fresh tables took a noticeable share of a call (bench/signedRankVsR.ts). Nothing is kept but the memory:
+ * every call writes the entries it reads.
+ */
+class KeptTable {
+  private array = new Float64Array(0);
+  atLeast(length: number): Float64Array {
+    if (this.array.length < length) this.array = new Float64Array(Math.max(length, 2 * this.array.length));
+    return this.array;
+  }
+}
+
+/** The two sets' half-tables and B's running total (signedRankLowerTail), reused by every call. */
+const FIRST_TABLE = new KeptTable();
+const SECOND_TABLE = new KeptTable();
+const CUMULATIVE_TABLE = new KeptTable();
+
+/**
  * The subset-sum recursion, keeping at every step only the lower half of the symmetric distribution so far:
  * the values above the old half that the step needs are read in mirror first. With `negligible` > 0, the
  * far lower tail is left out as the sums grow: after k scores, sums below mean − t_k, with
@@ -177,11 +195,13 @@ interface LowerHalf {
  * distribution. The table then only spans the last 2 t_k below the middle: about half of the work at 1,000
  * scores.
  */
-function lowerHalf(scores: Int32Array, cap: number, negligible: number): LowerHalf {
+function lowerHalf(scores: Int32Array, cap: number, negligible: number, table: KeptTable): LowerHalf {
   let total = 0;
   for (let k = 0; k < scores.length; k++) total += scores[k];
   const finalLimit = Math.min(cap, Math.floor(total / 2));
-  const counts = new Float64Array(finalLimit + 1);
+  // Every entry the recursion reads it has written first (an entry above the old half is set in mirror before
+  // the step adds into it, and nothing below the floor is read), so a kept table needs no clearing.
+  const counts = table.atLeast(finalLimit + 1);
   counts[0] = 1;
   const spread = negligible > 0 ? Math.log(scores.length / negligible) / 2 : 0;
   let reach = 0; // total of the scores so far
@@ -216,13 +236,6 @@ function lowerHalf(scores: Int32Array, cap: number, negligible: number): LowerHa
   return { counts, limit, total, exponent, floor };
 }
 
-/** The count of sum w in a LowerHalf (zero outside 0..total and in the left-out tails). */
-function countAt(half: LowerHalf, w: number): number {
-  if (w < 0 || w > half.total) return 0;
-  const at = w <= half.limit ? w : half.total - w;
-  return at < half.floor ? 0 : half.counts[at];
-}
-
 /**
  * How much of the distribution lowerHalf may leave out for P(W <= q): 1e-25 when the normal approximation
  * puts q no further than four standard deviations below the mean (then P(W <= q) is above about 1e-5, so
@@ -255,6 +268,11 @@ export function signedRankLowerTail(scores: ArrayLike<number>, q: number): numbe
       throw new RangeError(`signedRankLowerTail: scores must be positive integers, got ${s}`);
     return s;
   }).sort();
+  return lowerTailOfAscending(sorted, q);
+}
+
+/** signedRankLowerTail on scores already checked and in ascending order. */
+function lowerTailOfAscending(sorted: Int32Array, q: number): number {
   if (q < 0) return 0;
   const first = new Int32Array((sorted.length + 1) >> 1);
   const second = new Int32Array(sorted.length >> 1);
@@ -263,22 +281,30 @@ export function signedRankLowerTail(scores: ArrayLike<number>, q: number): numbe
     else second[k >> 1] = sorted[k];
   }
   const negligible = negligibleFor(sorted, q);
-  const a = lowerHalf(first, q, negligible);
+  const a = lowerHalf(first, q, negligible, FIRST_TABLE);
   // B in units of its scores' common divisor: untied ranks deal the even scores to B, which halves its table.
   let unit = 0;
   for (let k = 0; k < second.length; k++) unit = greatestCommonDivisor(second[k], unit);
+  unit = Math.max(1, unit);
   if (unit > 1) for (let k = 0; k < second.length; k++) second[k] /= unit;
-  const b = lowerHalf(second, Math.floor(q / Math.max(1, unit)), negligible);
-  // P(B <= y units) for y = 0..min(q / unit, total of B), in B's scale.
-  const top = Math.min(Math.floor(q / Math.max(1, unit)), b.total);
-  const cumulative = new Float64Array(top + 1);
+  const b = lowerHalf(second, Math.floor(q / unit), negligible, SECOND_TABLE);
+  // P(B <= y units) for y = 0..min(q / unit, total of B), in B's scale (zero in the left-out tails).
+  const top = Math.min(Math.floor(q / unit), b.total);
+  const cumulative = CUMULATIVE_TABLE.atLeast(top + 1);
+  const bCounts = b.counts;
   let running = 0;
-  for (let y = 0; y <= top; y++) cumulative[y] = running += countAt(b, y);
+  for (let y = 0; y <= top; y++) {
+    const at = y <= b.limit ? y : b.total - y;
+    cumulative[y] = running += at < b.floor ? 0 : bCounts[at];
+  }
   let sum = 0;
-  const last = Math.min(q, a.total);
-  // A's counts are zero below its floor and above total - floor (the left-out tails).
-  for (let x = a.floor; x <= Math.min(last, a.total - a.floor); x++)
-    sum += countAt(a, x) * cumulative[Math.min(Math.floor((q - x) / Math.max(1, unit)), top)];
+  // A's counts are zero below its floor and above total - floor (the left-out tails); above the limit in mirror.
+  const aCounts = a.counts;
+  const end = Math.min(q, a.total, a.total - a.floor);
+  const direct = Math.min(end, a.limit);
+  let x = a.floor;
+  for (; x <= direct; x++) sum += aCounts[x] * cumulative[Math.min(Math.floor((q - x) / unit), top)];
+  for (; x <= end; x++) sum += aCounts[a.total - x] * cumulative[Math.min(Math.floor((q - x) / unit), top)];
   return timesPowerOfTwo(sum, a.exponent + b.exponent - sorted.length);
 }
 
@@ -356,12 +382,13 @@ function exactPValue(ranked: RankedDifferences, alternative: Alternative): numbe
   const { groupScores, groupSizes, groupPositives } = ranked;
   let divisor = 0;
   for (const s of groupScores) divisor = greatestCommonDivisor(s, divisor);
-  const scores: number[] = [];
+  // The groups come in increasing score, so the scores are already in the order the recursion wants.
+  const scores = new Int32Array(ranked.nonZero);
   let observed = 0;
   let total = 0;
-  for (let g = 0; g < groupScores.length; g++) {
+  for (let g = 0, k = 0; g < groupScores.length; g++) {
     const s = groupScores[g] / divisor;
-    for (let k = 0; k < groupSizes[g]; k++) scores.push(s);
+    scores.fill(s, k, (k += groupSizes[g]));
     observed += groupPositives[g] * s;
     total += groupSizes[g] * s;
   }
@@ -369,8 +396,8 @@ function exactPValue(ranked: RankedDifferences, alternative: Alternative): numbe
   const lowerTail = (c: number): number => {
     if (c < 0) return 0;
     if (c >= total) return 1;
-    if (c <= total - c - 1) return signedRankLowerTail(scores, c);
-    return 1 - signedRankLowerTail(scores, total - c - 1);
+    if (c <= total - c - 1) return lowerTailOfAscending(scores, c);
+    return 1 - lowerTailOfAscending(scores, total - c - 1);
   };
   if (alternative === "less") return lowerTail(observed);
   if (alternative === "greater") return lowerTail(total - observed);

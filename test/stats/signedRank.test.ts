@@ -174,6 +174,30 @@ describe("signedRankLowerTail (two half-sets, lower halves only)", () => {
     );
   });
 
+  it("gives the same answers whatever ran before it (the half-tables are kept between calls, never cleared)", () => {
+    // Exact arithmetic (enumeration) for the small sets; each is asked again after a long call has filled the
+    // kept tables with large counts and a raised floor, and again after a second long one of another shape.
+    const long = Array.from({ length: 1000 }, (_, i) => i + 1);
+    const tied = Array.from({ length: 801 }, (_, i) => 2 * (i >> 1) + 3);
+    const middle = (scores: number[]) => Math.floor(scores.reduce((x, y) => x + y, 0) / 2) - 1;
+    const small = [
+      { scores: [1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12, 13], q: 40 },
+      { scores: [3, 3, 5, 5, 7, 9, 9, 11, 14, 14, 15, 20], q: 47 },
+      { scores: [2, 4, 6, 8, 10, 12, 14, 16], q: 30 },
+      { scores: [1, 1, 1, 2], q: 3 },
+    ];
+    const first = signedRankLowerTail(long, middle(long));
+    const firstTied = signedRankLowerTail(tied, middle(tied));
+    for (const { scores, q } of small) {
+      signedRankLowerTail(long, middle(long));
+      expect(signedRankLowerTail(scores, q)).toBe(enumerated(scores, q));
+      signedRankLowerTail(tied, middle(tied));
+      expect(signedRankLowerTail(scores, q)).toBe(enumerated(scores, q));
+    }
+    expect(signedRankLowerTail(long, middle(long))).toBe(first);
+    expect(signedRankLowerTail(tied, middle(tied))).toBe(firstTied);
+  });
+
   it("agrees with the plain recursion (R-checked signedRankNullCdf) on long tied and untied score sets", () => {
     for (const scores of [
       Array.from({ length: 1000 }, (_, i) => i + 1),
