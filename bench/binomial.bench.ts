@@ -7,7 +7,7 @@
 import { createRequire } from "node:module";
 import { binomialUpperTail } from "../src/stats/binomial";
 import { fixedPointLogs } from "../test/stats/binomialReference";
-import { report, timeMedian } from "./timing";
+import { fastestAlternating, report } from "./timing";
 
 interface JStat {
   ibeta(x: number, a: number, b: number): number;
@@ -35,13 +35,9 @@ export async function run(): Promise<void> {
     const theirs = () => {
       for (let i = 0; i < CALLS; i++) for (const k of counts) sink += jStat.ibeta(P, k, n - k + 1);
     };
-    // Both get the same warm-up so that neither is timed before the JIT has optimised it; then alternate.
-    for (let i = 0; i < 20; i++) {
-      ours();
-      theirs();
-    }
-    const oursMs = Math.min(timeMedian(ours, 7), timeMedian(ours, 7));
-    const theirsMs = Math.min(timeMedian(theirs, 7), timeMedian(theirs, 7));
+    // Fastest of alternating runs after the same warm-up (bench/timing.ts): each run is only about 0.3 ms at
+    // n = 1e4, where a ratio of medians swung between 0.9x and 1.6x from run to run on a shared machine.
+    const { baseMs: theirsMs, ms: oursMs } = fastestAlternating(theirs, ours, 15, 5);
     report(`binomialUpperTail vs jStat.ibeta, n = ${n.toExponential(0)}, ${CALLS * counts.length} calls`, oursMs, theirsMs, 1);
     counts.forEach((k, i) => {
       const mine = binomialUpperTail(k, n, P);
