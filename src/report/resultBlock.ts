@@ -82,6 +82,20 @@ export interface BlockRequest {
    * (COUNTPVALUE) with the bounds the query fetched at ORDERRANKS' ranks. One sample only.
    */
   readonly database?: DatabaseSource;
+  /**
+   * Two groups named in a group column: `data` holds the values, `second` the group labels beside them, and
+   * these are the labels of the first and the second group (LABELEDTWOGROUPS, LABELEDSHIFT). `rows` gives
+   * where each group stands in BYGROUP's table of the same ranges (2 and 3 in order of first appearance, the
+   * other way round when swapped), for the count and median rows. Absent: the two groups are two ranges.
+   */
+  readonly groupLabels?: GroupLabels;
+}
+
+/** The labels of two groups read from one group column, and their rows in BYGROUP's table. */
+export interface GroupLabels {
+  readonly first: string | number;
+  readonly second: string | number;
+  readonly rows: readonly [number, number];
 }
 
 /** Where a block's pasted numbers came from, for its wording and its audit line. */
@@ -117,6 +131,8 @@ export interface CallValue {
   readonly args: readonly Operand[];
   /** 1-based position in a one-row result; absent for scalar results. */
   readonly column?: number;
+  /** With `column`: the 1-based row of a table result (BYGROUP); absent for the first row. */
+  readonly row?: number;
 }
 
 export type BlockValue =
@@ -288,6 +304,9 @@ function word(text: string): Operand {
 }
 function call(fn: string, args: Operand[], column?: number): CallValue {
   return column === undefined ? { kind: "call", fn, args } : { kind: "call", fn, args, column };
+}
+function labelOperand(label: string | number): Operand {
+  return typeof label === "number" ? num(label) : word(label);
 }
 function text(value: string): BlockValue {
   return { kind: "text", text: value };
@@ -681,8 +700,15 @@ function twoGroupRows(request: BlockRequest): BlockRow[] {
   const method = (request.method as TwoGroupMethod | undefined) ?? "rank-sum";
   const { first, second: secondName } = groupNames(request);
   const words = twoGroupHypotheses(request, method);
-  const pValue = call("TWOGROUPS", [data(), second(), num(request.center), word(request.alternative), word(method)]);
-  const shift = (column: number): CallValue => call("SHIFT", [data(), second(), num(request.confidence)], column);
+  const labels = request.groupLabels;
+  const picked = labels === undefined ? [] : [labelOperand(labels.first), labelOperand(labels.second)];
+  const pValue = labels
+    ? call("LABELEDTWOGROUPS", [data(), second(), ...picked, num(request.center), word(request.alternative), word(method)])
+    : call("TWOGROUPS", [data(), second(), num(request.center), word(request.alternative), word(method)]);
+  const shift = (column: number): CallValue =>
+    labels
+      ? call("LABELEDSHIFT", [data(), second(), ...picked, num(request.confidence)], column)
+      : call("SHIFT", [data(), second(), num(request.confidence)], column);
   const level = percentWords(request.confidence);
   const sameShape =
     method === "rank-sum"
@@ -694,18 +720,7 @@ function twoGroupRows(request: BlockRequest): BlockRow[] {
     row("question", "Question", text(words.question), "text"),
     row("h0", "H0", text(words.h0), "text"),
     row("h1", "H1", text(words.h1), "text"),
-    row("firstNumbers", `Numbers in ${first} (n)`, { kind: "numbers", of: "data" }, "integer"),
-    row("secondNumbers", `Numbers in ${secondName} (n)`, { kind: "numbers", of: "second" }, "integer"),
-    row("firstSkipped", `Cells skipped in ${first} (text or logical; blanks not counted)`, { kind: "skipped", of: "data" }, "integer"),
-    row(
-      "secondSkipped",
-      `Cells skipped in ${secondName} (text or logical; blanks not counted)`,
-      { kind: "skipped", of: "second" },
-      "integer",
-    ),
-    blankCheckRow(["data", "second"]),
-    row("firstMedian", `Median of ${first}`, { kind: "median", of: "data" }, "number"),
-    row("secondMedian", `Median of ${secondName}`, { kind: "median", of: "second" }, "number"),
+    ...(labels ? labeledSummaryRows(request, labels) : twoRangeSummaryRows(request)),
     row("pvalue", "p-value", pValue, "pvalue"),
     row("method", "Method", text(twoGroupMethodWords(method)), "text"),
     row(
@@ -741,6 +756,44 @@ function twoGroupRows(request: BlockRequest): BlockRow[] {
     ),
     reviewRow(),
     row("audit", "Audit", { kind: "audit", version: EVENSPLIT_VERSION, method: auditMethod(request) }, "text"),
+  ];
+}
+
+/** Counts, skipped cells, the blank check and medians of two groups given as two ranges. */
+function twoRangeSummaryRows(request: BlockRequest): BlockRow[] {
+  const { first, second: secondName } = groupNames(request);
+  return [
+    row("firstNumbers", `Numbers in ${first} (n)`, { kind: "numbers", of: "data" }, "integer"),
+    row("secondNumbers", `Numbers in ${secondName} (n)`, { kind: "numbers", of: "second" }, "integer"),
+    row("firstSkipped", `Cells skipped in ${first} (text or logical; blanks not counted)`, { kind: "skipped", of: "data" }, "integer"),
+    row(
+      "secondSkipped",
+      `Cells skipped in ${secondName} (text or logical; blanks not counted)`,
+      { kind: "skipped", of: "second" },
+      "integer",
+    ),
+    blankCheckRow(["data", "second"]),
+    row("firstMedian", `Median of ${first}`, { kind: "median", of: "data" }, "number"),
+    row("secondMedian", `Median of ${secondName}`, { kind: "median", of: "second" }, "number"),
+  ];
+}
+
+/**
+ * The same rows for two groups named in a group column: each group's count and median from its row of
+ * BYGROUP's table of the values and labels (column 2 the count, 3 the median), the cells skipped in the
+ * values column, and the blank check of the values column.
+ */
+function labeledSummaryRows(request: BlockRequest, labels: GroupLabels): BlockRow[] {
+  const { first, second: secondName } = groupNames(request);
+  const table = (rowAt: number, column: number): CallValue => ({ ...call("BYGROUP", [data(), second()], column), row: rowAt });
+  const [firstRow, secondRow] = labels.rows;
+  return [
+    row("firstNumbers", `Numbers in ${first} (n)`, table(firstRow, 2), "integer"),
+    row("secondNumbers", `Numbers in ${secondName} (n)`, table(secondRow, 2), "integer"),
+    row("firstSkipped", "Cells skipped in the values (text or logical; blanks not counted)", { kind: "skipped", of: "data" }, "integer"),
+    blankCheckRow(["data"]),
+    row("firstMedian", `Median of ${first}`, table(firstRow, 3), "number"),
+    row("secondMedian", `Median of ${secondName}`, table(secondRow, 3), "number"),
   ];
 }
 
@@ -1052,7 +1105,7 @@ export interface FormulaRefs {
 
 function formulaCall(value: CallValue, refs: { data: string; second?: string }): string {
   const inner = `EVENSPLIT.${value.fn}(${value.args.map((a) => formulaOperand(a, refs)).join(",")})`;
-  return value.column === undefined ? inner : `INDEX(${inner},1,${value.column})`;
+  return value.column === undefined ? inner : `INDEX(${inner},${value.row ?? 1},${value.column})`;
 }
 
 /** Characters that would make the spreadsheet read a typed text as a formula or a number. */
@@ -1254,7 +1307,7 @@ function evaluateCall(value: CallValue, inputs: BlockInputs, run: CatalogueCall)
   );
   const result = run(value.fn, args);
   if (value.column === undefined || !Array.isArray(result)) return result;
-  return (result as unknown[][])[0][value.column - 1];
+  return (result as unknown[][])[(value.row ?? 1) - 1][value.column - 1];
 }
 
 /**

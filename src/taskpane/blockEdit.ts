@@ -79,6 +79,8 @@ export interface BlockReading {
   readonly paired: boolean;
   /** Independent groups: two from two ranges, several from values and labels; "none" otherwise. */
   readonly groups: GroupsKind;
+  /** Two groups: true when both come from one column of values and a group column (LABELEDTWOGROUPS). */
+  readonly groupColumn: boolean;
   /** Groups: the method word of TWOGROUPS or GROUPS; null otherwise. */
   readonly groupMethod: TwoGroupMethod | ManyGroupMethod | null;
   /** Several groups: the adjustment of the table by group; null otherwise. */
@@ -122,7 +124,7 @@ export function readBlock(formulas: readonly (readonly unknown[])[]): BlockReadi
   const kind = testOf(String(formulas[0]?.[1] ?? ""));
   const p = callArguments(labelled(/^p-value$/));
   if (!kind || !p) return null;
-  if (kind.test === "two-groups" || kind.test === "groups") return readGroupBlock(formulas, kind.test, p.args);
+  if (kind.test === "two-groups" || kind.test === "groups") return readGroupBlock(formulas, kind.test, p);
   const references = p.args.flatMap((a) => (a.kind === "reference" ? [a.text] : []));
   const numbers = p.args.flatMap((a) => (a.kind === "number" ? [a.value] : []));
   const texts = p.args.flatMap((a) => (a.kind === "text" ? [a.value] : []));
@@ -136,6 +138,7 @@ export function readBlock(formulas: readonly (readonly unknown[])[]): BlockReadi
   return {
     ...kind,
     groups: "none",
+    groupColumn: false,
     groupMethod: null,
     adjust: null,
     withTarget: false,
@@ -174,31 +177,37 @@ function twoReferences(args: readonly FormulaArgument[]): string[] | null {
 
 /**
  * A group block read back: TWOGROUPS(first, second, shift, alternative, method) and SHIFT's confidence for two
- * groups; GROUPS(values, labels, method) and BYGROUP(values, labels, [target], alternative, confidence, adjust),
+ * groups (LABELEDTWOGROUPS and LABELEDSHIFT, with the two labels after the ranges, for two groups from a group
+ * column; which label is first is settled by writing the block again each way); GROUPS(values, labels, method) and BYGROUP(values, labels, [target], alternative, confidence, adjust),
  * whose formula sits in the label column, for several groups.
  */
 function readGroupBlock(
   formulas: readonly (readonly unknown[])[],
   test: "two-groups" | "groups",
-  pArgs: readonly FormulaArgument[],
+  p: { name: string; args: readonly FormulaArgument[] },
 ): BlockReading | null {
+  const pArgs = p.args;
   const labelled = (label: RegExp): string => String(formulas.find((row) => label.test(String(row[0] ?? "")))?.[1] ?? "");
   const alpha = /<=\s*([0-9.Ee+-]+)\s*,/.exec(labelled(/^Decision at alpha/));
   const references = twoReferences(pArgs);
   if (!alpha || !references) return null;
   const common = { test, paired: false, references, quantile: null, ties: null, signMethod: null, rankMethod: null, zeros: null };
   if (test === "two-groups") {
-    const shift = numberAt(pArgs, 2);
-    const alternative = textAt(pArgs, 3);
-    const method = textAt(pArgs, 4);
+    const groupColumn = /^LABELEDTWOGROUPS$/i.test(p.name);
+    // The labels stand between the ranges and the rest.
+    const at = groupColumn ? 4 : 2;
+    const shift = numberAt(pArgs, at);
+    const alternative = textAt(pArgs, at + 1);
+    const method = textAt(pArgs, at + 2);
     const bounds = callArguments(labelled(/bounds for the shift/));
-    const confidence = bounds ? numberAt(bounds.args, 2) : null;
+    const confidence = bounds ? numberAt(bounds.args, at) : null;
     if (shift === null || !alternative || !ALTERNATIVES.includes(alternative) || !method || !TWO_GROUP_METHODS.includes(method))
       return null;
     if (confidence === null) return null;
     return {
       ...common,
       groups: "two",
+      groupColumn,
       groupMethod: method as TwoGroupMethod,
       adjust: null,
       withTarget: false,
@@ -221,6 +230,7 @@ function readGroupBlock(
   return {
     ...common,
     groups: "several",
+    groupColumn: false,
     groupMethod: method as ManyGroupMethod,
     adjust: adjust as AdjustMethod,
     withTarget: target !== null,

@@ -10,7 +10,7 @@
  */
 import { formatAddress, rectsOverlap, type CellRect } from "./a1";
 import { headerName } from "./dataInfo";
-import { groupCells } from "../stats/groupedCells";
+import { groupCells, type GroupedCells } from "../stats/groupedCells";
 import { databaseChoices, databaseProblem, databaseView, emptyDatabaseForm, type DatabaseView } from "./databaseState";
 import { emptySlot, type PaneState, type RangeSlot } from "./paneState";
 import { absoluteReference, openEnded } from "./references";
@@ -65,6 +65,86 @@ export function usesTwoRanges(state: PaneState): boolean {
 }
 
 /**
+ * True when the second range is a group column beside the values: several groups, or two groups named in one.
+ *
+ * @example
+ * readsGroupColumn(setDataKind(initialState(), "groups")); // true
+ */
+export function readsGroupColumn(state: PaneState): boolean {
+  return state.groups === "several" || (state.groups === "two" && state.groupColumn);
+}
+
+/**
+ * Two groups: each from its own range (false) or both from one column of values and a group column beside it
+ * (true). The second range means something else in each form, so it is chosen again.
+ *
+ * @example
+ * setGroupColumn(setDataKind(initialState(), "two-groups"), true).groupColumn; // true
+ */
+export function setGroupColumn(state: PaneState, groupColumn: boolean): PaneState {
+  if (state.groups !== "two" || state.groupColumn === groupColumn) return state;
+  return settleData({ ...state, groupColumn, swapGroups: false, slots: [state.slots[0], emptySlot()], confirm: null });
+}
+
+/**
+ * Two groups from a group column: which label is the first group (the shift is second − first).
+ *
+ * @example
+ * setSwapGroups(state, true).swapGroups; // true
+ */
+export function setSwapGroups(state: PaneState, swapGroups: boolean): PaneState {
+  return { ...state, swapGroups, confirm: null };
+}
+
+/** The two groups a group column names: their labels, first and second, and their rows in BYGROUP's table. */
+export interface PickedGroups {
+  readonly first: string | number;
+  readonly second: string | number;
+  readonly rows: readonly [number, number];
+}
+
+/** Every label of the group column beside the values, in order of first appearance (none until both are read and line up). */
+function foundGroups(state: PaneState): GroupedCells | null {
+  const [values, labels] = state.slots;
+  if (!values.range || !labels.range) return null;
+  const v = bodyOf({ range: values.range, useHeader: values.useHeader });
+  const l = bodyOf({ range: labels.range, useHeader: labels.useHeader });
+  if (v.values.length !== l.values.length || v.values[0]?.length !== l.values[0]?.length) return null;
+  return groupCells(v.values, l.values);
+}
+
+/**
+ * Two groups from a group column: the two labels when the column holds exactly two (blank labels skipped),
+ * each with numbers, first and second in order of first appearance unless swapped; null otherwise.
+ *
+ * @example
+ * pickedGroups(stateWithNorthAndSouth); // { first: "North", second: "South", rows: [2, 3] }
+ */
+export function pickedGroups(state: PaneState): PickedGroups | null {
+  if (state.groups !== "two" || !state.groupColumn) return null;
+  const found = foundGroups(state);
+  if (!found || found.groups.length !== 2 || found.groups.some((g) => g.values.length === 0)) return null;
+  const [a, b] = found.groups.map((g) => g.label);
+  if (typeof a === "boolean" || typeof b === "boolean") return null;
+  return state.swapGroups ? { first: b, second: a, rows: [3, 2] } : { first: a, second: b, rows: [2, 3] };
+}
+
+/** What a group column holds that keeps it from naming exactly two groups, or null. */
+function twoLabelProblem(state: PaneState): string | null {
+  const found = foundGroups(state);
+  if (!found) return null;
+  const shown = found.groups.map((g) => `“${String(g.label)}” (${g.values.length} ${g.values.length === 1 ? "number" : "numbers"})`);
+  const list = shown.length > 0 ? `: ${shown.join(", ")}` : "";
+  if (found.groups.length !== 2) {
+    const more = found.groups.length > 2 ? " To compare them all, choose Several groups." : "";
+    return `Two groups need a group column with exactly two labels; it holds ${found.groups.length}${list}.${more}`;
+  }
+  if (found.groups.some((g) => g.values.length === 0)) return `Each of the two groups needs numbers; the group column names${list}.`;
+  if (found.groups.some((g) => typeof g.label === "boolean")) return "The group labels must be text or numbers, not TRUE or FALSE.";
+  return null;
+}
+
+/**
  * One set of values, pairs, two groups or several groups. Pairs take no quantile
  * test; a change of kind resets the hypothesised value (a shift starts at 0, a
  * median is typed anew; the target median of several groups is optional, so it
@@ -90,9 +170,9 @@ export function setDataKind(state: PaneState, kind: DataKind): PaneState {
   let question = { ...state.question, center: shift ? "0" : "" };
   if (kind !== "one" && question.test === "quantile") question = { ...question, test: "sign" };
   // A second range read as the second of each pair is not a group column, nor a second group: it is chosen again.
-  const keepSecond = before !== "one" && kind !== "one" && (before === "groups") === (kind === "groups");
+  const keepSecond = before !== "one" && kind !== "one" && readsGroupColumn(state) === (kind === "groups");
   const slots: readonly [RangeSlot, RangeSlot] = keepSecond ? state.slots : [state.slots[0], emptySlot()];
-  return settleData({ ...state, paired, groups, slots, question, confirm: null });
+  return settleData({ ...state, paired, groups, groupColumn: false, swapGroups: false, slots, question, confirm: null });
 }
 
 /**
@@ -255,13 +335,14 @@ export function problemOfData(state: PaneState): string | null {
   const kind = dataKind(state);
   if (first.tally.numbers === 0)
     return kind === "groups" ? "The values hold no numbers: there is nothing to test." : "The first group holds no numbers.";
-  if (kind === "two-groups" && second.tally.numbers === 0) return "The second group holds no numbers.";
+  if (kind === "two-groups" && !state.groupColumn && second.tally.numbers === 0) return "The second group holds no numbers.";
   if (first.sheet === second.sheet && rectsOverlap(first.rect, second.rect)) return "The two ranges overlap: pick two separate columns.";
-  if (kind === "two-groups") return null;
+  if (kind === "two-groups" && !state.groupColumn) return null;
   const shape = (rect: CellRect): string => `${rect.bottom - rect.top + 1} × ${rect.right - rect.left + 1}`;
   if (shape(first.rect) !== shape(second.rect) || first.rect.top !== second.rect.top) {
     return `The group column must lie beside the values, row for row: the values are ${formatAddress(first.rect, first.sheet)}, the group column ${formatAddress(second.rect, second.sheet)}.`;
   }
+  if (kind === "two-groups") return twoLabelProblem(state);
   const grouped = groupCells(first.values, second.values).groups.filter((g) => g.values.length > 0);
   if (grouped.length < 2) {
     const only = grouped.length === 1 ? ` (“${String(grouped[0].label)}”)` : "";
@@ -301,7 +382,7 @@ export function settleData(state: PaneState): PaneState {
  */
 export function withLabelHeader(state: PaneState): PaneState {
   const [values, labels] = state.slots;
-  if (state.groups !== "several" || !values.range || !labels.range || labels.range.header !== null) return state;
+  if (!readsGroupColumn(state) || !values.range || !labels.range || labels.range.header !== null) return state;
   if (labels.range.place.kind !== "none" || values.range.header === null || values.range.rect.top !== labels.range.rect.top) return state;
   const first = labels.range.values[0] ?? [];
   if (labels.range.values.length < 2 || !first.every((cell) => typeof cell === "string" && cell.trim() !== "")) return state;
@@ -320,7 +401,7 @@ export function dataStepProblem(state: PaneState): string | null {
   if (!dataComplete(state)) {
     const kind = dataKind(state);
     if (kind === "groups") return "Give the values and the group column first.";
-    if (kind === "two-groups") return "Give both groups first.";
+    if (kind === "two-groups") return state.groupColumn ? "Give the values and the group column first." : "Give both groups first.";
     return kind === "pairs" ? "Give both ranges first." : "Give the range with the values first.";
   }
   return problemOfData(state);
@@ -353,6 +434,10 @@ export interface DataView {
   readonly problem: string;
   /** Data in a database: the names, the queries and the pasted answer; null for data in the sheet. */
   readonly database: DatabaseView | null;
+  /** Two groups: true when they are named in a group column (the form is offered only for two groups). */
+  readonly groupColumn: boolean;
+  /** Two groups from a group column: which is first and which second, in words, with the swap offered; null otherwise. */
+  readonly picked: { readonly words: string; readonly swapped: boolean } | null;
 }
 
 /** How many labels a group column holds and how they are counted, beside the values they name. */
@@ -420,6 +505,11 @@ const SLOT_LABELS: Readonly<Record<DataKind, readonly [string, string]>> = {
   database: ["Cells holding the query's answer", "Second values"],
 };
 
+const LABELED_SLOT_LABELS = [
+  "Values (both groups in one column)",
+  "Group column (two labels: the group of each value, beside it)",
+] as const;
+
 /**
  * The sentence saying what the block's formulas will read, for the chosen reference form.
  *
@@ -458,14 +548,16 @@ export function dataView(state: PaneState): DataView {
   const complete = dataComplete(state);
   const c = choices(state);
   const kind = dataKind(state);
-  const [first, second] = SLOT_LABELS[kind];
+  const labeled = kind === "two-groups" && state.groupColumn;
+  const [first, second] = labeled ? LABELED_SLOT_LABELS : SLOT_LABELS[kind];
+  const picked = pickedGroups(state);
   return {
     kind,
     twoRanges: usesTwoRanges(state),
     paired: state.paired,
     slots: [
       slotView(state.slots[0], first, kind === "one"),
-      kind === "groups"
+      readsGroupColumn(state)
         ? slotView(state.slots[1], second, false, labelSummary(state.slots[1], state.slots[0]))
         : slotView(state.slots[1], second, false),
     ],
@@ -474,5 +566,12 @@ export function dataView(state: PaneState): DataView {
     note: referenceSentence(state),
     problem: complete ? (problemOfData(state) ?? "") : "",
     database: databaseView(state),
+    groupColumn: labeled,
+    picked: picked
+      ? {
+          words: `First group: “${String(picked.first)}”; second group: “${String(picked.second)}”. The shift is “${String(picked.second)}” − “${String(picked.first)}”.`,
+          swapped: state.swapGroups,
+        }
+      : null,
   };
 }

@@ -20,6 +20,10 @@ export interface DataEvents {
   reference(choice: ReferenceChoice): void;
   /** Take a two-column range chosen as one set of values as pairs instead. */
   asPairs(): void;
+  /** Two groups: each its own range (false) or both in one column of values with a group column (true). */
+  groupColumn(on: boolean): void;
+  /** Two groups from a group column: the label seen second is the first group. */
+  swapGroups(on: boolean): void;
   /** Load the block that holds the selected cell, to change it and write it again. */
   editBlock(): void;
   next(): void;
@@ -69,6 +73,25 @@ export function dataPage(heading: HTMLElement, events: DataEvents): DataPage {
     "one",
     (value) => events.kind(value),
   );
+  const formGroup = radioGroup<"ranges" | "column">(
+    "How are the two groups given?",
+    [
+      { value: "ranges", label: "Two ranges", hint: "Each group in its own range." },
+      {
+        value: "column",
+        label: "Values with a group column",
+        hint: "One range of values and a column beside it naming each value's group, with exactly two labels.",
+      },
+    ],
+    "ranges",
+    (value) => events.groupColumn(value === "column"),
+  );
+  const pickedText = el("p", { class: "es-picked-text", attrs: { "aria-live": "polite" } });
+  const swapId = newId("swap");
+  const swapBox = el("input", { id: swapId, attrs: { type: "checkbox" } });
+  swapBox.addEventListener("change", () => events.swapGroups(swapBox.checked));
+  const swapRow = el("div", { class: "es-check" }, swapBox, el("label", { attrs: { for: swapId } }, "Swap the first and the second group"));
+  const pickedPart = el("div", { class: "es-picked" }, pickedText, swapRow);
   const database = databasePage(events.database);
   const slotViews = [0, 1].map((index) => {
     const input = textInput("", { autocomplete: "off" });
@@ -122,8 +145,10 @@ export function dataPage(heading: HTMLElement, events: DataEvents): DataPage {
       button("Edit the block at the selection", "secondary", () => events.editBlock()),
     ),
     kindGroup.element,
+    formGroup.element,
     slotViews[0].element,
     slotViews[1].element,
+    pickedPart,
     database.element,
     referenceGroup.element,
     referenceNote,
@@ -137,6 +162,11 @@ export function dataPage(heading: HTMLElement, events: DataEvents): DataPage {
 
   function render(view: DataView, texts: readonly string[]): void {
     kindGroup.set(view.kind);
+    show(formGroup.element, view.kind === "two-groups");
+    formGroup.set(view.groupColumn ? "column" : "ranges");
+    show(pickedPart, view.picked !== null);
+    pickedText.textContent = view.picked?.words ?? "";
+    swapBox.checked = view.picked?.swapped ?? false;
     show(slotViews[0].element, view.database === null);
     show(slotViews[1].element, view.twoRanges);
     show(database.element, view.database !== null);

@@ -22,6 +22,8 @@ import {
   dataStepProblem,
   dataView,
   setDataKind,
+  setGroupColumn,
+  setSwapGroups,
   setReference,
   setUseHeader,
   slotCleared,
@@ -121,6 +123,8 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
     header: (index, useHeader) => update(setUseHeader(state, index, useHeader)),
     reference: (choice) => update(setReference(state, choice)),
     asPairs: () => update(splitIntoPairs(state)),
+    groupColumn: (on) => update(setGroupColumn(state, on)),
+    swapGroups: (on) => update(setSwapGroups(state, on)),
     editBlock: () => void editSelectedBlock(true),
     next: () => void goTo(1),
     database: {
@@ -499,7 +503,7 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
     formulas: readonly (readonly unknown[])[],
   ): Promise<PaneState | null> {
     const kind = reading.groups === "two" ? "two-groups" : reading.groups === "several" ? "groups" : reading.paired ? "pairs" : "one";
-    let base = setDataKind(initialState(), kind);
+    let base = setGroupColumn(setDataKind(initialState(), kind), reading.groupColumn);
     for (let i = 0; i < reading.references.length; i++) {
       const address = await referenceAddress(reading.references[i], block.sheet);
       if (!address) return null;
@@ -523,8 +527,12 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
     if (reading.zeros) base = setSetting(base, "zeros", reading.zeros);
     base = setTarget(atStep(base, 3), formatAddress({ ...block.rect, bottom: block.rect.top, right: block.rect.left }, block.sheet));
     // The formulas do not name the confidence or the answer about looking again: each is tried against the whole block.
+    // Nor which of two labels is the first group: both orders are tried.
+    const orders = reading.groupColumn ? [false, true] : [false];
     const candidates = reading.confidences.flatMap((confidence) =>
-      [false, true].map((watching) => setWatching(setSetting(base, "confidence", String(confidence)), watching)),
+      orders.flatMap((swapped) =>
+        [false, true].map((watching) => setWatching(setSetting(setSwapGroups(base, swapped), "confidence", String(confidence)), watching)),
+      ),
     );
     for (const candidate of candidates) {
       const built = currentRequest(candidate);

@@ -38,6 +38,13 @@ export interface PaneState {
    */
   readonly groups: GroupsKind;
   /**
+   * Two groups only: true when they are named in a group column beside one column of values (the second
+   * range is then that group column), false when each group is its own range.
+   */
+  readonly groupColumn: boolean;
+  /** Two groups from a group column: true when the label seen second is the first group. */
+  readonly swapGroups: boolean;
+  /**
    * Data in a database: what the person named for the query, and which pasted row the block reads; null when
    * the data are in the sheet. The cells holding the query's answer are the first range (`slots[0]`).
    */
@@ -101,6 +108,8 @@ export function initialState(): PaneState {
     step: 0,
     paired: false,
     groups: "none",
+    groupColumn: false,
+    swapGroups: false,
     database: null,
     slots: [emptySlot(), emptySlot()],
     reference: "exact",

@@ -11,7 +11,7 @@
  */
 import type { BlockTest } from "../report/resultBlock";
 import type { Alternative } from "../stats/types";
-import { blockFollowsNewRows, choices, dataKind, type DataKind } from "./dataState";
+import { blockFollowsNewRows, choices, dataKind, pickedGroups, type DataKind } from "./dataState";
 import type { PaneState } from "./paneState";
 import { buildRequest, notation, type FieldName, type FieldProblem } from "./request";
 import { bodyOf } from "./workflow";
@@ -67,6 +67,18 @@ export function effectiveTest(state: PaneState): BlockTest {
 }
 
 /**
+ * The names of the data for the wording: the two labels for two groups from a group column, else each range's name row.
+ *
+ * @example
+ * dataNames(stateWithNorthAndSouth); // ["North", "South"]
+ */
+export function dataNames(state: PaneState): (string | undefined)[] {
+  const picked = pickedGroups(state);
+  if (picked) return [String(picked.first), String(picked.second)];
+  return choices(state).map((choice) => bodyOf(choice).name);
+}
+
+/**
  * The block request for the whole state, or the problems of its fields.
  *
  * @example
@@ -74,11 +86,13 @@ export function effectiveTest(state: PaneState): BlockTest {
  */
 export function currentRequest(state: PaneState): ReturnType<typeof buildRequest> {
   if (state.database !== null) return databaseRequest(state);
-  const names = choices(state).map((choice) => bodyOf(choice).name);
+  const names = dataNames(state);
   const built = buildRequest(state.paired, state.question, state.settings, { data: names[0], second: names[1] }, state.groups);
+  const picked = pickedGroups(state);
+  const labeled = built.ok && picked ? { ok: true as const, request: { ...built.request, groupLabels: picked } } : built;
   // The block learns whether it follows new rows and, if so, the Settings step's answer about looking again.
-  if (!built.ok || !blockFollowsNewRows(state)) return built;
-  return { ok: true, request: { ...built.request, followsNewRows: true, watching: state.watching } };
+  if (!labeled.ok || !blockFollowsNewRows(state)) return labeled;
+  return { ok: true, request: { ...labeled.request, followsNewRows: true, watching: state.watching } };
 }
 
 /**
@@ -188,7 +202,7 @@ function quoted(name: string | undefined, otherwise: string): string {
  */
 function groupQuestionView(state: PaneState, showStepProblems: boolean): QuestionView {
   const test = effectiveTest(state);
-  const names = choices(state).map((choice) => bodyOf(choice).name);
+  const names = dataNames(state);
   const { question } = state;
   const problems = problemsFor(state, ["center"]);
   const showCenterProblem = showStepProblems || (state.step >= 1 && (question.center !== "" || state.step > 1));

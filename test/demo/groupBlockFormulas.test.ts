@@ -2,7 +2,7 @@
  * The two-group and several-group blocks two ways: their formulas entered in
  * the demo sheet and calculated by its evaluator with the catalogue's
  * functions, against direct evaluation (blockValue with callFunction) on the
- * invented "Lines and suppliers" sheet (src/demo/inventedData.ts). Every row must
+ * invented "Lines and suppliers" sheet (two groups also picked by label from the lines) (src/demo/inventedData.ts). Every row must
  * agree, and the by-group table spilled in the sheet must equal the matrix
  * BYGROUP answers directly, cell by cell. Hand counts are from that file. LABELEDTWOGROUPS and
  * LABELEDSHIFT, typed in the sheet, must give what they give called directly.
@@ -110,6 +110,42 @@ describe("two groups: the block's formulas agree with direct evaluation", () => 
     // By hand: 9 and 11 panels; sorted old 49.5 ... 51.6 has 50.4 in the middle, new 50.5 ... 52.9 has 51.7.
     expect([at("firstNumbers"), at("secondNumbers"), at("firstMedian"), at("secondMedian")]).toEqual([9, 11, 50.4, 51.7]);
     expect(at("estimate")).toBeTypeOf("number");
+  });
+});
+
+/** Two lines picked by label from the values and group column, with their rows in BYGROUP's table (North 2, South 3, East 4). */
+const LABELED: BlockRequest[] = [
+  { ...TWO[0], dataName: "North", secondName: "South", groupLabels: { first: "North", second: "South", rows: [2, 3] } },
+  { ...TWO[1], dataName: "South", secondName: "North", groupLabels: { first: "South", second: "North", rows: [3, 2] } },
+  { ...TWO[2], dataName: "East", secondName: "North", groupLabels: { first: "East", second: "North", rows: [4, 2] } },
+];
+
+describe("two groups from a group column: the block's formulas agree with direct evaluation", () => {
+  it.each(
+    LABELED.map((r) => [`${r.method ?? "rank-sum"} ${String(r.groupLabels?.first)} then ${String(r.groupLabels?.second)}`, r] as const),
+  )("%s", (_, request) => {
+    agree(request, { data: "$C$2:$C$20", second: "$B$2:$B$20" }, { data: column(2), second: column(1) });
+  });
+
+  it("gives the hand-counted numbers and medians of the two lines, and the p-value and shift of the split ranges", () => {
+    const request = LABELED[0];
+    const workbook = agree(request, { data: "$C$2:$C$20", second: "$B$2:$B$20" }, { data: column(2), second: column(1) });
+    const rows = resultBlockRows(request);
+    const at = (key: string): unknown =>
+      workbook.value(
+        GROUPS_SHEET,
+        rows.findIndex((r) => r.key === key),
+        7,
+      );
+    // By hand: North 50.8, 51.3, 49.9, 50.5, 51.0, 50.1 (median 50.65); South 52.1, 53.0, 51.7, 52.8, 51.9, 52.5 (median 52.3).
+    expect([at("firstNumbers"), at("secondNumbers"), at("firstMedian"), at("secondMedian")]).toEqual([6, 6, 50.65, 52.3]);
+    const north = [[50.8], [51.3], [49.9], [50.5], [51.0], [50.1]];
+    const south = [[52.1], [53.0], [51.7], [52.8], [51.9], [52.5]];
+    expect(at("pvalue")).toBe(callFunction("TWOGROUPS", [north, south, 0, "two-sided", "rank-sum"]));
+    expect(at("estimate")).toBe((callFunction("SHIFT", [north, south, 0.95]) as unknown[][])[0][0]);
+    expect(blockFormula(rows.find((r) => r.key === "firstMedian")!.value, { data: "D", second: "L" })).toBe(
+      "=INDEX(EVENSPLIT.BYGROUP(D,L),2,3)",
+    );
   });
 });
 
