@@ -1,7 +1,8 @@
 /**
  * The pane on the demo page, in Debian's Chromium, for independent groups:
- * two groups from two ranges and several groups from values with a group
- * column, each walked through all four steps on the invented sheet "Lines
+ * two groups from two ranges, two groups from values with a group column
+ * (an invented shift log typed beside the data), and several groups from
+ * values with a group column, each walked through all four steps on the invented sheet "Lines
  * and suppliers" (src/demo/inventedData.ts), the block written as formulas,
  * a new row typed under the table updating it, the block loaded back with
  * "Edit the block at the selection", and the Result step shot in the light
@@ -117,6 +118,80 @@ describe.skipIf(!run)("the pane with groups in Chromium", () => {
     await page.getByRole("button", { name: "Edit the block at the selection" }).click();
     await eventually(() => statusText(page)).toContain("is loaded");
     await eventually(() => previewValue(page, "Numbers in Old supplier (µm) (n)")).toBe("10");
+    await page.close();
+  });
+
+  it("walks two groups from values with a group column, swaps them, writes the block, follows a new row and loads it back", async () => {
+    const page = await openDemo(session);
+    await toGroupsSheet(page);
+    await page.getByLabel("Two groups", { exact: true }).check();
+    await page.getByLabel("Values with a group column", { exact: true }).check();
+    // The lines' column holds three labels: they are listed and several groups suggested.
+    await typeRange(page, "Values (both groups in one column)", `'${SHEET}'!C1:C20`);
+    await typeRange(page, "Group column (two labels: the group of each value, beside it)", `'${SHEET}'!B1:B20`);
+    await eventually(() => page.locator(".es-problem", { hasText: "Two groups need" }).innerText()).toContain(
+      "it holds 3: “North” (6 numbers), “South” (6 numbers), “East” (6 numbers). To compare them all, choose Several groups.",
+    );
+    // Invented: coating thickness by work shift, one shift not noted.
+    const log = [
+      ["Shift", "Thickness (µm)"],
+      ["Early", "50.2"],
+      ["Late", "51.4"],
+      ["Early", "49.8"],
+      ["", "50.9"],
+      ["Late", "52"],
+      ["Early", "50.6"],
+      ["Late", "51.1"],
+    ];
+    for (const [r, [shift, thickness]] of log.entries()) {
+      if (shift !== "") await typeIntoCell(page, `Q${r + 1}`, shift);
+      await typeIntoCell(page, `R${r + 1}`, thickness);
+    }
+    await typeRange(page, "Values (both groups in one column)", `'${SHEET}'!R1:R8`);
+    await typeRange(page, "Group column (two labels: the group of each value, beside it)", `'${SHEET}'!Q1:Q8`);
+    await eventually(() => page.locator(".es-picked").innerText()).toContain("First group: “Early”; second group: “Late”.");
+    await page.getByLabel("Swap the first and the second group").check();
+    await eventually(() => page.locator(".es-picked").innerText()).toContain("First group: “Late”; second group: “Early”.");
+    await page.getByLabel("Swap the first and the second group").uncheck();
+    await snap(page, "40-labeled-groups-data");
+    await page.getByRole("button", { name: "Next: the question" }).click();
+    await page.getByLabel(/^Compared with/).selectOption("greater");
+    await expect
+      .poll(() => page.locator(".es-notation").innerText())
+      .toContain("H1: the values of “Late” tend to lie above those of “Early”");
+    await page.getByRole("button", { name: "Next: settings" }).click();
+    await expect.poll(() => page.getByLabel("Test for two groups").isVisible()).toBe(true);
+    await page.getByRole("button", { name: "Next: the result" }).click();
+    // By hand: Early 49.8, 50.2, 50.6; Late 51.1, 51.4, 52.0.
+    await eventually(() => previewValue(page, "Median of Early")).toBe("50.2");
+    expect(await previewValue(page, "Median of Late")).toBe("51.4");
+    expect(await previewValue(page, "Numbers in Late (n)")).toBe("3");
+    await shootBothThemes(page, "41-labeled-groups-result");
+
+    await page.getByRole("button", { name: "Make the table and write the block" }).click();
+    await eventually(() => statusText(page)).toContain(`The block was written to '${SHEET}'!`);
+    const column = (await statusText(page)).match(/!([A-Z]+)1:/)?.[1] ?? "";
+    const at = column.charCodeAt(0) - 65;
+    const pLine = await rowOfLabel(page, at, "p-value");
+    const formula = await page.evaluate(
+      ([sheet, row, c]) => window.evensplitDemo?.workbook.entry(sheet as string, row as number, c as number),
+      [SHEET, pLine, at + 1],
+    );
+    expect(formula).toMatch(/^=EVENSPLIT\.LABELEDTWOGROUPS\(.*,"Early","Late",0,"greater","rank-sum"\)$/);
+    const nLine = await rowOfLabel(page, at, "Numbers in Late (n)");
+    expect(await cellText(page, nLine, at + 1)).toBe("3");
+
+    // A fourth late-shift panel typed below the table: the block counts it.
+    await typeIntoCell(page, "Q9", "Late");
+    await typeIntoCell(page, "R9", "51.8");
+    await eventually(() => cellText(page, nLine, at + 1)).toBe("4");
+    await snap(page, "42-labeled-groups-row-added", true);
+
+    await selectCells(page, `${String.fromCharCode(65 + at + 1)}${pLine + 1}`);
+    await page.getByRole("button", { name: "1. Data" }).click();
+    await page.getByRole("button", { name: "Edit the block at the selection" }).click();
+    await eventually(() => statusText(page)).toContain("is loaded");
+    await eventually(() => previewValue(page, "Numbers in Late (n)")).toBe("4");
     await page.close();
   });
 
