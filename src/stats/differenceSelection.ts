@@ -22,8 +22,8 @@
  *   values of a stratified random sample of the differences still in play, as R. W. Floyd and
  *   R. L. Rivest (1975), "Expected time bounds for selection", CACM 18, 165-172, do for plain
  *   selection, the rows' candidate ranges shrinking to the bracket; when few remain they are
- *   gathered and selected directly. This is the one-sample module's Walsh-average selection
- *   (hodgesLehmann.ts) on another matrix.
+ *   gathered and selected directly. On data with many repeats the one-sample Walsh averages
+ *   (hodgesLehmann.ts) are bracketed by this module too, as differences x_j − (−x_i).
  *
  * Cost: O((p + q) log(p + q)) expected time per selection once the distinct values are
  * found, p and q their numbers (at most m and n), and in practice a few walks of p + q steps;

@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import fc from "fast-check";
 import { hodgesLehmann, hodgesLehmannEstimate, walshAverageOrderStatistic, type HodgesLehmannResult } from "../../src/stats/hodgesLehmann";
 import { EXACT_AUTO_LIMIT, signedRankTest } from "../../src/stats/signedRank";
+import { xorshift32 } from "../../src/stats/xorshift";
 import fixture from "../fixtures/signedRank.json";
 
 interface ExactInterval {
@@ -146,6 +147,40 @@ describe("Walsh-average selection against brute force (all averages sorted)", ()
       ),
       { numRuns: 150 },
     );
+  });
+
+  it("large samples, both ways (rounds on mostly distinct data, full-matrix brackets on repeats), at extreme and middle ranks, by brute-force counting", () => {
+    const next = xorshift32(2024);
+    /** Whether w is the k-th Walsh average: fewer than k averages lie below it and at least k at or below it. */
+    const isKth = (x: readonly number[], k: number, w: number): boolean => {
+      let less = 0;
+      let atMost = 0;
+      for (let i = 0; i < x.length; i++)
+        for (let j = i; j < x.length; j++) {
+          const a = (x[i] + x[j]) / 2;
+          if (a < w) less++;
+          if (a <= w) atMost++;
+        }
+      return less < k && k <= atMost;
+    };
+    const n = 10_000;
+    const distinct = Array.from({ length: n }, () => 100 * next() - 50);
+    const tied = Array.from({ length: n }, () => Math.round(20 * next()) / 4);
+    const tiedOutliers = tied.map((x, i) => (i % 1000 === 0 ? (x + 1) * 1e298 : i % 1000 === 1 ? (x + 1) * 1e-300 : x));
+    const count = (n * (n + 1)) / 2;
+    const middle = count / 2; // n(n+1)/2 is even for n = 10,000
+    for (const x of [distinct, tied, tiedOutliers])
+      for (const k of [1, n, n + 1, middle - 3 * n, middle, middle + 1, count - n, count])
+        expect([k, isKth(x, k, walshAverageOrderStatistic(x, k))]).toEqual([k, true]);
+    // Every value twice: 10,000 distinct values on each side of the full matrix, enough for thinned brackets (differenceSelection.ts).
+    const twice = [...distinct, ...distinct];
+    const all = (2 * n * (2 * n + 1)) / 2;
+    for (const k of [2, all / 2, all - 2 * n]) expect([k, isKth(twice, k, walshAverageOrderStatistic(twice, k))]).toEqual([k, true]);
+    // Runs of consecutive ranks, where the averages change value, on a smaller sample of every value twice.
+    const pairs = [...distinct.slice(0, 1000), ...distinct.slice(0, 1000)];
+    const w = walshAverages(pairs);
+    for (const start of [1, 50_000, w.length / 2 - 100, w.length - 200])
+      for (let k = start; k < start + 200; k++) expect([k, walshAverageOrderStatistic(pairs, k)]).toEqual([k, w[k - 1] + 0]);
   });
 
   it("a constant sample (every average tied) and the documented examples", () => {
