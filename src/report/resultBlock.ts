@@ -696,6 +696,22 @@ function twoGroupMethodWords(method: TwoGroupMethod): string {
   return `Wilcoxon–Mann–Whitney rank-sum test: exact (conditional on tied mid-ranks) while the two groups hold at most ${EXACT_AUTO_SIZE} numbers together without ties, or ${EXACT_AUTO_TIED_SIZE} with ties; beyond that the normal approximation with tie and continuity corrections`;
 }
 
+/** The decision row: reject or keep H0 at the block's alpha, saying in words what the evidence is for. */
+function decisionRow(request: BlockRequest, pValue: CallValue, claim: string): BlockRow {
+  return row(
+    "decision",
+    `Decision at alpha = ${numberWords(request.alpha)}`,
+    {
+      kind: "decision",
+      pValue,
+      alpha: request.alpha,
+      reject: `Reject H0: evidence that ${claim}`,
+      keep: `Do not reject H0: these data do not show that ${claim}`,
+    },
+    "text",
+  );
+}
+
 function twoGroupRows(request: BlockRequest): BlockRow[] {
   const method = (request.method as TwoGroupMethod | undefined) ?? "rank-sum";
   const { first, second: secondName } = groupNames(request);
@@ -723,18 +739,7 @@ function twoGroupRows(request: BlockRequest): BlockRow[] {
     ...(labels ? labeledSummaryRows(request, labels) : twoRangeSummaryRows(request)),
     row("pvalue", "p-value", pValue, "pvalue"),
     row("method", "Method", text(twoGroupMethodWords(method)), "text"),
-    row(
-      "decision",
-      `Decision at alpha = ${numberWords(request.alpha)}`,
-      {
-        kind: "decision",
-        pValue,
-        alpha: request.alpha,
-        reject: `Reject H0: evidence that ${words.keep}`,
-        keep: `Do not reject H0: these data do not show that ${words.keep}`,
-      },
-      "text",
-    ),
+    decisionRow(request, pValue, words.keep),
     row("estimate", `Shift estimate, ${secondName} − ${first} (Hodges–Lehmann: median of all differences)`, shift(1), "number"),
     row("lower", `${level} bounds for the shift: lower`, shift(2), "number"),
     row("upper", `${level} bounds for the shift: upper`, shift(3), "number"),
@@ -852,18 +857,7 @@ function manyGroupRows(request: BlockRequest): BlockRow[] {
     blankCheckRow(["data"]),
     row("pvalue", "p-value", pValue, "pvalue"),
     row("method", "Method", text(methodWords), "text"),
-    row(
-      "decision",
-      `Decision at alpha = ${numberWords(request.alpha)}`,
-      {
-        kind: "decision",
-        pValue,
-        alpha: request.alpha,
-        reject: `Reject H0: evidence that ${h1}`,
-        keep: `Do not reject H0: these data do not show that ${h1}`,
-      },
-      "text",
-    ),
+    decisionRow(request, pValue, h1),
     row(
       "assumptions",
       "Assumptions",
@@ -904,7 +898,6 @@ export function resultBlockRows(request: BlockRequest): BlockRow[] {
   const about = subject(request);
   const parts =
     request.test === "sign" ? signRows(request) : request.test === "signed-rank" ? signedRankRows(request) : quantileRows(request);
-  const alphaWords = numberWords(request.alpha);
   const title = request.test === "sign" ? "Sign test" : request.test === "signed-rank" ? "Wilcoxon signed-rank test" : "Quantile test";
   return [
     row("title", "Evensplit result", text(`${title}${request.paired ? ", paired" : ", one sample"}`), "text", "title"),
@@ -917,18 +910,7 @@ export function resultBlockRows(request: BlockRequest): BlockRow[] {
     row("pvalue", "p-value", parts.pValue, "pvalue"),
     ...(showsWatchingBeside(request) ? [row("watchPvalue", "Watching p-value", watchingPValue(request), "pvalue")] : []),
     row("method", "Method", parts.method, "text"),
-    row(
-      "decision",
-      `Decision at alpha = ${alphaWords}`,
-      {
-        kind: "decision",
-        pValue: parts.pValue,
-        alpha: request.alpha,
-        reject: `Reject H0: evidence that ${about} is ${CLAIM[request.alternative]} ${centerWords}`,
-        keep: `Do not reject H0: these data do not show that ${about} is ${CLAIM[request.alternative]} ${centerWords}`,
-      },
-      "text",
-    ),
+    decisionRow(request, parts.pValue, `${about} is ${CLAIM[request.alternative]} ${centerWords}`),
     ...parts.bounds,
     ...cautionRows(request),
     row("audit", "Audit", { kind: "audit", version: EVENSPLIT_VERSION, method: auditMethod(request) }, "text"),
@@ -972,7 +954,6 @@ function databaseRows(request: BlockRequest, source: DatabaseSource): BlockRow[]
   const level = percentWords(request.confidence);
   const boundLabel = (end: "lower" | "upper"): string => `${level} bounds for the median (two-sided): ${end}`;
   const where = source.group === undefined ? "" : `, group ${source.group.label}`;
-  const alphaWords = numberWords(request.alpha);
   return [
     row("title", "Evensplit result", text(`Sign test, one sample, from a database query${where}`), "text", "title"),
     row("question", "Question", text(`Is ${about} ${CLAIM[request.alternative]} ${centerWords}?`), "text"),
@@ -998,18 +979,7 @@ function databaseRows(request: BlockRequest, source: DatabaseSource): BlockRow[]
       ),
       "text",
     ),
-    row(
-      "decision",
-      `Decision at alpha = ${alphaWords}`,
-      {
-        kind: "decision",
-        pValue,
-        alpha: request.alpha,
-        reject: `Reject H0: evidence that ${about} is ${CLAIM[request.alternative]} ${centerWords}`,
-        keep: `Do not reject H0: these data do not show that ${about} is ${CLAIM[request.alternative]} ${centerWords}`,
-      },
-      "text",
-    ),
+    decisionRow(request, pValue, `${about} is ${CLAIM[request.alternative]} ${centerWords}`),
     row("lowerRank", "Rank of the lower bound among the sorted values", ranks(1), "integer"),
     row("upperRank", "Rank of the upper bound among the sorted values", ranks(2), "integer"),
     row("lower", boundLabel("lower"), { kind: "pasted", cells: [at("lower")], blankShows: true }, "number"),
