@@ -84,18 +84,16 @@ export interface BlockRequest {
   readonly database?: DatabaseSource;
   /**
    * Two groups named in a group column: `data` holds the values, `second` the group labels beside them, and
-   * these are the labels of the first and the second group (LABELEDTWOGROUPS, LABELEDSHIFT). `rows` gives
-   * where each group stands in BYGROUP's table of the same ranges (2 and 3 in order of first appearance, the
-   * other way round when swapped), for the count and median rows. Absent: the two groups are two ranges.
+   * these are the labels of the first and the second group (LABELEDTWOGROUPS, LABELEDSHIFT); the count and
+   * median rows find each group's row of BYGROUP's table by its label. Absent: the two groups are two ranges.
    */
   readonly groupLabels?: GroupLabels;
 }
 
-/** The labels of two groups read from one group column, and their rows in BYGROUP's table. */
+/** The labels of two groups read from one group column. */
 export interface GroupLabels {
   readonly first: string | number;
   readonly second: string | number;
-  readonly rows: readonly [number, number];
 }
 
 /** Where a block's pasted numbers came from, for its wording and its audit line. */
@@ -133,6 +131,11 @@ export interface CallValue {
   readonly column?: number;
   /** With `column`: the 1-based row of a table result (BYGROUP); absent for the first row. */
   readonly row?: number;
+  /**
+   * With `column`, instead of `row`: the row of a table result whose first cell holds this label (text
+   * compared without regard to case, as MATCH does), so a group is found by its name, not its place.
+   */
+  readonly rowLabel?: string | number;
 }
 
 export type BlockValue =
@@ -784,21 +787,24 @@ function twoRangeSummaryRows(request: BlockRequest): BlockRow[] {
 }
 
 /**
- * The same rows for two groups named in a group column: each group's count and median from its row of
- * BYGROUP's table of the values and labels (column 2 the count, 3 the median), the cells skipped in the
+ * The same rows for two groups named in a group column: each group's count and median from the row of
+ * BYGROUP's table of the values and labels that carries its label (column 2 the count, 3 the median; found
+ * with MATCH, so edits that change which label appears first cannot swap them), the cells skipped in the
  * values column, and the blank check of the values column.
  */
 function labeledSummaryRows(request: BlockRequest, labels: GroupLabels): BlockRow[] {
   const { first, second: secondName } = groupNames(request);
-  const table = (rowAt: number, column: number): CallValue => ({ ...call("BYGROUP", [data(), second()], column), row: rowAt });
-  const [firstRow, secondRow] = labels.rows;
+  const table = (label: string | number, column: number): CallValue => ({
+    ...call("BYGROUP", [data(), second()], column),
+    rowLabel: label,
+  });
   return [
-    row("firstNumbers", `Numbers in ${first} (n)`, table(firstRow, 2), "integer"),
-    row("secondNumbers", `Numbers in ${secondName} (n)`, table(secondRow, 2), "integer"),
+    row("firstNumbers", `Numbers in ${first} (n)`, table(labels.first, 2), "integer"),
+    row("secondNumbers", `Numbers in ${secondName} (n)`, table(labels.second, 2), "integer"),
     row("firstSkipped", "Cells skipped in the values (text or logical; blanks not counted)", { kind: "skipped", of: "data" }, "integer"),
     blankCheckRow(["data"]),
-    row("firstMedian", `Median of ${first}`, table(firstRow, 3), "number"),
-    row("secondMedian", `Median of ${secondName}`, table(secondRow, 3), "number"),
+    row("firstMedian", `Median of ${first}`, table(labels.first, 3), "number"),
+    row("secondMedian", `Median of ${secondName}`, table(labels.second, 3), "number"),
   ];
 }
 
@@ -1075,7 +1081,10 @@ export interface FormulaRefs {
 
 function formulaCall(value: CallValue, refs: { data: string; second?: string }): string {
   const inner = `EVENSPLIT.${value.fn}(${value.args.map((a) => formulaOperand(a, refs)).join(",")})`;
-  return value.column === undefined ? inner : `INDEX(${inner},${value.row ?? 1},${value.column})`;
+  if (value.column === undefined) return inner;
+  if (value.rowLabel === undefined) return `INDEX(${inner},${value.row ?? 1},${value.column})`;
+  const label = typeof value.rowLabel === "number" ? formulaNumber(value.rowLabel) : formulaString(value.rowLabel);
+  return `INDEX(${inner},MATCH(${label},INDEX(${inner},0,1),0),${value.column})`;
 }
 
 /** Characters that would make the spreadsheet read a typed text as a formula or a number. */
@@ -1277,7 +1286,15 @@ function evaluateCall(value: CallValue, inputs: BlockInputs, run: CatalogueCall)
   );
   const result = run(value.fn, args);
   if (value.column === undefined || !Array.isArray(result)) return result;
-  return (result as unknown[][])[(value.row ?? 1) - 1][value.column - 1];
+  const table = result as unknown[][];
+  if (value.rowLabel === undefined) return table[(value.row ?? 1) - 1][value.column - 1];
+  const at = table.findIndex((r) => sameLabel(r[0], value.rowLabel!));
+  return at < 0 ? { code: "#N/A", message: `No row of the table is labelled ${String(value.rowLabel)}.` } : table[at][value.column - 1];
+}
+
+/** MATCH's exact comparison: text without regard to case, anything else as it is. */
+function sameLabel(cell: unknown, label: string | number): boolean {
+  return typeof label === "string" ? typeof cell === "string" && cell.toLowerCase() === label.toLowerCase() : cell === label;
 }
 
 /**

@@ -96,11 +96,10 @@ export function setSwapGroups(state: PaneState, swapGroups: boolean): PaneState 
   return { ...state, swapGroups, confirm: null };
 }
 
-/** The two groups a group column names: their labels, first and second, and their rows in BYGROUP's table. */
+/** The two groups a group column names: their labels, first and second. */
 export interface PickedGroups {
   readonly first: string | number;
   readonly second: string | number;
-  readonly rows: readonly [number, number];
 }
 
 /** Every label of the group column beside the values, in order of first appearance (none until both are read and line up). */
@@ -118,7 +117,7 @@ function foundGroups(state: PaneState): GroupedCells | null {
  * each with numbers, first and second in order of first appearance unless swapped; null otherwise.
  *
  * @example
- * pickedGroups(stateWithNorthAndSouth); // { first: "North", second: "South", rows: [2, 3] }
+ * pickedGroups(stateWithNorthAndSouth); // { first: "North", second: "South" }
  */
 export function pickedGroups(state: PaneState): PickedGroups | null {
   if (state.groups !== "two" || !state.groupColumn) return null;
@@ -126,7 +125,7 @@ export function pickedGroups(state: PaneState): PickedGroups | null {
   if (!found || found.groups.length !== 2 || found.groups.some((g) => g.values.length === 0)) return null;
   const [a, b] = found.groups.map((g) => g.label);
   if (typeof a === "boolean" || typeof b === "boolean") return null;
-  return state.swapGroups ? { first: b, second: a, rows: [3, 2] } : { first: a, second: b, rows: [2, 3] };
+  return state.swapGroups ? { first: b, second: a } : { first: a, second: b };
 }
 
 /** What a group column holds that keeps it from naming exactly two groups, or null. */

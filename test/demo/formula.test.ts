@@ -226,6 +226,18 @@ describe("evaluate: built-in functions", () => {
     expect((calc('COUNTIF(A1:A5,"no*")') as { code: string }).code).toBe("#VALUE!");
   });
 
+  it("MATCH finds an exact value, text in any case; INDEX with row 0 gives a whole column (Microsoft, MATCH and INDEX function pages)", () => {
+    expect(calc('MATCH("b",{"a";"B";"c"},0)')).toBe(2);
+    expect(calc("MATCH(4,INDEX({1,2;3,4},0,2),0)")).toBe(2);
+    expect(calc('MATCH(A1,{"1";1},0)')).toBe(2);
+    expect((calc('MATCH("z",{"a";"b"},0)') as { code: string }).code).toBe("#N/A");
+    expect((calc("MATCH(1,{1,2;3,4},0)") as { code: string }).code).toBe("#N/A");
+    // The sorted forms (match_type 1, Excel's default, and -1) are refused: stricter than Excel, never laxer.
+    expect((calc('MATCH("b",{"a";"b"})') as { code: string }).code).toBe("#VALUE!");
+    expect((calc('MATCH("b",{"a";"b"},1)') as { code: string }).code).toBe("#VALUE!");
+    expect((calc("INDEX({1,2;3,4},0,3)") as { code: string }).code).toBe("#REF!");
+  });
+
   it('a defined name stands for its cells, in any case (Microsoft, "Define and use names in formulas")', () => {
     expect(calc("COUNT(FirstTwo)")).toBe(2);
     expect(calc("INDEX(firsttwo,2,1)*3")).toBe(6);

@@ -113,11 +113,11 @@ describe("two groups: the block's formulas agree with direct evaluation", () => 
   });
 });
 
-/** Two lines picked by label from the values and group column, with their rows in BYGROUP's table (North 2, South 3, East 4). */
+/** Two lines picked by label from the values and group column, found in BYGROUP's table by their labels. */
 const LABELED: BlockRequest[] = [
-  { ...TWO[0], dataName: "North", secondName: "South", groupLabels: { first: "North", second: "South", rows: [2, 3] } },
-  { ...TWO[1], dataName: "South", secondName: "North", groupLabels: { first: "South", second: "North", rows: [3, 2] } },
-  { ...TWO[2], dataName: "East", secondName: "North", groupLabels: { first: "East", second: "North", rows: [4, 2] } },
+  { ...TWO[0], dataName: "North", secondName: "South", groupLabels: { first: "North", second: "South" } },
+  { ...TWO[1], dataName: "South", secondName: "North", groupLabels: { first: "South", second: "North" } },
+  { ...TWO[2], dataName: "East", secondName: "North", groupLabels: { first: "East", second: "North" } },
 ];
 
 describe("two groups from a group column: the block's formulas agree with direct evaluation", () => {
@@ -144,8 +144,24 @@ describe("two groups from a group column: the block's formulas agree with direct
     expect(at("pvalue")).toBe(callFunction("TWOGROUPS", [north, south, 0, "two-sided", "rank-sum"]));
     expect(at("estimate")).toBe((callFunction("SHIFT", [north, south, 0.95]) as unknown[][])[0][0]);
     expect(blockFormula(rows.find((r) => r.key === "firstMedian")!.value, { data: "D", second: "L" })).toBe(
-      "=INDEX(EVENSPLIT.BYGROUP(D,L),2,3)",
+      '=INDEX(EVENSPLIT.BYGROUP(D,L),MATCH("North",INDEX(EVENSPLIT.BYGROUP(D,L),0,1),0),3)',
     );
+  });
+
+  it("keeps each line's count and median when an edit makes another label come first", () => {
+    const request = LABELED[0];
+    const workbook = agree(request, { data: "$C$2:$C$20", second: "$B$2:$B$20" }, { data: column(2), second: column(1) });
+    const rows = resultBlockRows(request);
+    const at = (key: string): unknown =>
+      workbook.value(
+        GROUPS_SHEET,
+        rows.findIndex((r) => r.key === key),
+        7,
+      );
+    // Q-201 (50.8) moves from North to South, so South now appears first in the group column.
+    workbook.writeEntries(GROUPS_SHEET, 1, 1, [["South"]]);
+    // By hand: North 51.3, 49.9, 50.5, 51.0, 50.1 (median 50.5); South 50.8 and its six (median 52.1).
+    expect([at("firstNumbers"), at("secondNumbers"), at("firstMedian"), at("secondMedian")]).toEqual([5, 7, 50.5, 52.1]);
   });
 });
 

@@ -73,10 +73,10 @@ describe("two groups from a group column: the Data step", () => {
   it("takes exactly two labels in order of first appearance, text matched ignoring case, the blank label skipped and counted", async () => {
     const state = await labeled("J1:J8", "I1:I8");
     expect(dataReady(state)).toBe(true);
-    expect(pickedGroups(state)).toEqual({ first: "Early", second: "Late", rows: [2, 3] });
+    expect(pickedGroups(state)).toEqual({ first: "Early", second: "Late" });
     expect(dataView(state).slots[1].summary).toContain("2 groups with numbers counted — “Early” (3), “Late” (3). 1 row has a blank");
     expect(dataView(state).picked?.words).toBe("First group: “Early”; second group: “Late”. The shift is “Late” − “Early”.");
-    expect(pickedGroups(setSwapGroups(state, true))).toEqual({ first: "Late", second: "Early", rows: [3, 2] });
+    expect(pickedGroups(setSwapGroups(state, true))).toEqual({ first: "Late", second: "Early" });
   });
 
   it("names the labels it found and suggests several groups when the column holds more than two", async () => {
@@ -98,7 +98,7 @@ describe("two groups from a group column: question, result and copy", () => {
       center: 0.5,
       dataName: "Early",
       secondName: "Late",
-      groupLabels: { first: "Early", second: "Late", rows: [2, 3] },
+      groupLabels: { first: "Early", second: "Late" },
     });
     const view = resultView(atStep(state, 3), callFunction);
     const shown = (key: string): unknown => view.rows.find((r) => r.key === key)?.value;

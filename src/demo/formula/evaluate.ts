@@ -2,7 +2,7 @@
  * Evaluates an expression tree for one cell of the demo sheet: references,
  * array constants, the few built-in functions the result block, its chart's
  * helper cells and the installation check use (INDEX, ROWS, COLUMNS, COUNT,
- * COUNTA, IF, ABS, IFERROR, COUNTIF, MEDIAN, NA), arithmetic, comparison, concatenation, and the
+ * COUNTA, IF, ABS, IFERROR, COUNTIF, MEDIAN, NA; MATCH exact only; INDEX with row 0 on a returned array), arithmetic, comparison, concatenation, and the
  * EVENSPLIT.* functions taken from the real cell-function bundle.
  *
  * Method: a direct tree walk. Values follow the spreadsheet's coercions
@@ -16,7 +16,17 @@
  */
 import { formatAddress, parseAddress, rectSize } from "../../taskpane/a1";
 import type { Expression } from "./parse";
-import { errorValue, isError, isMatrix, isReference, type ErrorValue, type ReferenceValue, type Scalar, type Value } from "./values";
+import {
+  errorValue,
+  isError,
+  isMatrix,
+  isReference,
+  type ErrorValue,
+  type MatrixValue,
+  type ReferenceValue,
+  type Scalar,
+  type Value,
+} from "./values";
 
 /** How a custom function wants an argument: a matrix (a range) or a single value. */
 export type ArgumentShape = "matrix" | "scalar";
@@ -191,6 +201,7 @@ function index(args: Value[], context: EvaluationContext): Value {
   if (args.length < 2 || args.length > 3) return errorValue("#VALUE!", "INDEX takes an array, a row and a column.");
   const array = args[0];
   if (isError(array)) return array;
+  if (args.length === 3 && isMatrix(array) && toNumber(single(args[1], context)) === 0) return wholeColumn(array, single(args[2], context));
   const row = whole(single(args[1], context), "row");
   if (isError(row)) return row;
   const column = args.length === 3 ? whole(single(args[2], context), "column") : 1;
@@ -202,6 +213,39 @@ function index(args: Value[], context: EvaluationContext): Value {
     return { kind: "reference", sheet: array.sheet, rect: { ...cell, bottom: cell.top, right: cell.left } };
   }
   return isMatrix(array) ? array.rows[row - 1][column - 1] : array;
+}
+
+/**
+ * INDEX(array, 0, column) on an array a function returned: the whole column, as Microsoft's "INDEX function"
+ * page describes for a row number of 0. (Only this form: the demo's blocks use it to look a label up.)
+ */
+function wholeColumn(array: MatrixValue, columnArgument: Scalar): Value {
+  const column = whole(columnArgument, "column");
+  if (isError(column)) return column;
+  if (column > dimensions(array).columns) return errorValue("#REF!", "INDEX points outside the array.");
+  return { kind: "matrix", rows: array.rows.map((r) => [r[column - 1]]) };
+}
+
+/**
+ * MATCH(lookup_value, lookup_array, 0) as Microsoft's "MATCH function" page describes the exact form: the
+ * 1-based position of the first value equal to lookup_value (text compared without regard to case), #N/A
+ * when none is; the lookup array must be one row or one column. The sorted forms (match_type 1, the
+ * default, and -1) are beyond the demo and refused, so the demo never answers where Excel might not.
+ */
+function match(args: Value[], context: EvaluationContext): Value {
+  if (args.length !== 3 || toNumber(single(args[2], context)) !== 0) {
+    return errorValue("#VALUE!", "The demo sheet's MATCH finds exact matches only: give 0 as the third argument.");
+  }
+  const wanted = single(args[0], context);
+  if (isError(wanted)) return wanted;
+  const cells = cellsOf(args[1], context);
+  const size = { rows: cells.length, columns: cells[0]?.length ?? 0 };
+  if (size.rows !== 1 && size.columns !== 1) return errorValue("#N/A", "MATCH looks along one row or one column.");
+  const line = size.columns === 1 ? cells.map((r) => r[0]) : cells[0];
+  const same = (cell: Scalar): boolean =>
+    typeof wanted === "string" ? typeof cell === "string" && cell.toLowerCase() === wanted.toLowerCase() : cell === wanted;
+  const at = line.findIndex(same);
+  return at < 0 ? errorValue("#N/A", "MATCH found no value equal to the one looked up.") : at + 1;
 }
 
 function count(args: Value[], context: EvaluationContext, counts: (cell: Scalar) => boolean): number {
@@ -275,6 +319,8 @@ function builtIn(name: string, args: Value[], context: EvaluationContext): Value
       return countIf(args, context);
     case "INDEX":
       return index(args, context);
+    case "MATCH":
+      return match(args, context);
     case "ROWS":
     case "COLUMNS": {
       if (args.length !== 1) return errorValue("#VALUE!", `${name} takes one range.`);
