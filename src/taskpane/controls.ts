@@ -185,3 +185,21 @@ export function button(text: string, kind: "primary" | "secondary" | "quiet", on
 export function hintFor<T extends string>(choices: readonly Choice<T>[], value: T): string {
   return choices.find((c) => c.value === value)?.hint ?? "";
 }
+
+/**
+ * A labelled choice among `choices`, starting at `initial` with that choice's hint, that reports each
+ * change as the chosen value.
+ *
+ * @example
+ * choiceField("Ties", [{ value: "drop", label: "Leave out", hint: "Ties say nothing" }], "drop", (v) => console.log(v));
+ */
+export function choiceField<T extends string>(
+  labelText: string,
+  choices: readonly Choice<T>[],
+  initial: T,
+  onChange: (value: T) => void,
+): Field<HTMLSelectElement> {
+  const made = field(labelText, selectControl(choices, initial), hintFor(choices, initial));
+  made.control.addEventListener("change", () => onChange(made.control.value as T));
+  return made;
+}

@@ -9,7 +9,7 @@ import { EXACT_AUTO_LIMIT, EXACT_LIMIT } from "../stats/signedRank";
 import type { ManyGroupMethod, TwoGroupMethod } from "../report/resultBlock";
 import { EXACT_AUTO_SIZE, EXACT_AUTO_TIED_SIZE } from "../stats/rankSum";
 import type { AdjustMethod, SignTestMethod, SignedRankMethod, TieRule, ZeroRule } from "../stats/types";
-import { button, field, hintFor, selectControl, setProblem, textInput, type Choice } from "./controls";
+import { button, choiceField, field, hintFor, setProblem, textInput, type Choice } from "./controls";
 import { el, show } from "./dom";
 import type { SettingsForm } from "./request";
 import type { SettingsView } from "./settingsState";
@@ -141,48 +141,30 @@ export function settingsPage(heading: HTMLElement, events: SettingsEvents): Sett
     "The bounds cover the true value at least this often; the block also shows the level actually reached.",
   );
   confidenceField.control.addEventListener("input", () => events.setting("confidence", confidenceField.control.value));
-  const tiesField = field(
-    "Values equal to the hypothesised value (ties)",
-    selectControl(TIE_CHOICES, "drop"),
-    hintFor(TIE_CHOICES, "drop"),
+  const tiesField = choiceField("Values equal to the hypothesised value (ties)", TIE_CHOICES, "drop", (value) =>
+    events.setting("ties", value),
   );
-  tiesField.control.addEventListener("change", () => events.setting("ties", tiesField.control.value as TieRule));
-  const signMethodField = field(
-    "How the p-value is computed",
-    selectControl(SIGN_METHOD_CHOICES, "exact"),
-    hintFor(SIGN_METHOD_CHOICES, "exact"),
+  const signMethodField = choiceField("How the p-value is computed", SIGN_METHOD_CHOICES, "exact", (value) =>
+    events.setting("signMethod", value),
   );
-  signMethodField.control.addEventListener("change", () => events.setting("signMethod", signMethodField.control.value as SignTestMethod));
-  const rankMethodField = field(
-    "How the p-value is computed",
-    selectControl(RANK_METHOD_CHOICES, "auto"),
-    hintFor(RANK_METHOD_CHOICES, "auto"),
+  const rankMethodField = choiceField("How the p-value is computed", RANK_METHOD_CHOICES, "auto", (value) =>
+    events.setting("rankMethod", value),
   );
-  rankMethodField.control.addEventListener("change", () => events.setting("rankMethod", rankMethodField.control.value as SignedRankMethod));
-  const zerosField = field("Values that equal the median under test", selectControl(ZERO_CHOICES, "drop"), hintFor(ZERO_CHOICES, "drop"));
-  zerosField.control.addEventListener("change", () => events.setting("zeros", zerosField.control.value as ZeroRule));
-  const twoGroupField = field("Test for two groups", selectControl(TWO_GROUP_CHOICES, "rank-sum"), hintFor(TWO_GROUP_CHOICES, "rank-sum"));
-  twoGroupField.control.addEventListener("change", () => events.setting("twoGroupMethod", twoGroupField.control.value as TwoGroupMethod));
-  const manyGroupField = field(
-    "Test for several groups",
-    selectControl(MANY_GROUP_CHOICES, "median"),
-    hintFor(MANY_GROUP_CHOICES, "median"),
+  const zerosField = choiceField("Values that equal the median under test", ZERO_CHOICES, "drop", (value) =>
+    events.setting("zeros", value),
   );
-  manyGroupField.control.addEventListener("change", () =>
-    events.setting("manyGroupMethod", manyGroupField.control.value as ManyGroupMethod),
+  const twoGroupField = choiceField("Test for two groups", TWO_GROUP_CHOICES, "rank-sum", (value) =>
+    events.setting("twoGroupMethod", value),
   );
-  const adjustField = field(
-    "Adjusting the p-values of the groups' table",
-    selectControl(ADJUST_CHOICES, "holm"),
-    hintFor(ADJUST_CHOICES, "holm"),
+  const manyGroupField = choiceField("Test for several groups", MANY_GROUP_CHOICES, "median", (value) =>
+    events.setting("manyGroupMethod", value),
   );
-  adjustField.control.addEventListener("change", () => events.setting("adjust", adjustField.control.value as AdjustMethod));
-  const lookingField = field(
-    "Will you look at this result again as new rows arrive?",
-    selectControl(LOOKING_CHOICES, "once"),
-    hintFor(LOOKING_CHOICES, "once"),
+  const adjustField = choiceField("Adjusting the p-values of the groups' table", ADJUST_CHOICES, "holm", (value) =>
+    events.setting("adjust", value),
   );
-  lookingField.control.addEventListener("change", () => events.watching(lookingField.control.value === "again"));
+  const lookingField = choiceField("Will you look at this result again as new rows arrive?", LOOKING_CHOICES, "once", (value) =>
+    events.watching(value === "again"),
+  );
   const quantileNote = el("p", { class: "es-note" }, "The quantile test is exact and leaves out values equal to the hypothesised value.");
   const element = el(
     "section",
