@@ -37,6 +37,7 @@
  */
 import { normalLowerTail, normalUpperTail } from "./normal";
 import { greatestCommonDivisor, mergeRanks, sortFloat64 } from "./ranks";
+import { subsetSumEngine, type SubsetSumEngine } from "./subsetSumStep";
 import type { Alternative, SignedRankMethod, ZeroRule } from "./types";
 import { unavailable, type Unavailable } from "./types";
 
@@ -125,15 +126,16 @@ export function signedRankNullCdf(scores: ArrayLike<number>, cap: number): Float
       throw new RangeError(`signedRankNullCdf: scores must be positive integers, got ${s}`);
     return s;
   }).sort(); // small scores first: the reachable range grows slowly
-  const counts = new Float64Array(cap + 1);
+  const engine = subsetSumEngine();
+  const [counts] = engine.tables([cap + 1]);
+  counts.fill(0, 0, cap + 1);
   counts[0] = 1;
   let reach = 0;
   let exponent = 0; // counts are scaled by 2^-exponent to stay in range
   for (let k = 0; k < sorted.length; k++) {
     const s = sorted[k];
     reach = Math.min(cap, reach + s);
-    // Integer-typed loop variables and an Int32Array of scores keep this loop on small-integer arithmetic.
-    for (let w = reach; w >= s; w--) counts[w] += counts[w - s];
+    engine.step(counts, s, reach, s);
     if ((k + 1) % RESCALE_EVERY === 0) {
       let largest = 0;
       for (let w = 0; w <= reach; w++) if (counts[w] > largest) largest = counts[w];
@@ -168,8 +170,9 @@ interface LowerHalf {
 
 /**
  * A Float64Array kept between calls and grown when a call needs more: at n = 200-300 allocating and zeroing
- * fresh tables took a noticeable share of a call (bench/signedRankVsR.ts). Nothing is kept but the memory:
- * every call writes the entries it reads.
+ * a fresh one took a noticeable share of a call (bench/signedRankVsR.ts). Nothing is kept but the memory:
+ * every call writes the entries it reads. (The half-tables come from the step's engine, which keeps them the
+ * same way, in memory its WebAssembly can reach.)
  */
 class KeptTable {
   private array = new Float64Array(0);
@@ -179,10 +182,15 @@ class KeptTable {
   }
 }
 
-/** The two sets' half-tables and B's running total (signedRankLowerTail), reused by every call. */
-const FIRST_TABLE = new KeptTable();
-const SECOND_TABLE = new KeptTable();
+/** B's running total (signedRankLowerTail), reused by every call. */
 const CUMULATIVE_TABLE = new KeptTable();
+
+/** Entries the half-table of `scores` needs for P(W <= cap): up to min(cap, floor(total / 2)). */
+function halfTableLength(scores: Int32Array, cap: number): number {
+  let total = 0;
+  for (let k = 0; k < scores.length; k++) total += scores[k];
+  return Math.min(cap, Math.floor(total / 2)) + 1;
+}
 
 /**
  * The subset-sum recursion, keeping at every step only the lower half of the symmetric distribution so far:
@@ -195,13 +203,12 @@ const CUMULATIVE_TABLE = new KeptTable();
  * distribution. The table then only spans the last 2 t_k below the middle: about half of the work at 1,000
  * scores.
  */
-function lowerHalf(scores: Int32Array, cap: number, negligible: number, table: KeptTable): LowerHalf {
+function lowerHalf(scores: Int32Array, cap: number, negligible: number, counts: Float64Array, engine: SubsetSumEngine): LowerHalf {
   let total = 0;
   for (let k = 0; k < scores.length; k++) total += scores[k];
   const finalLimit = Math.min(cap, Math.floor(total / 2));
   // Every entry the recursion reads it has written first (an entry above the old half is set in mirror before
   // the step adds into it, and nothing below the floor is read), so a kept table needs no clearing.
-  const counts = table.atLeast(finalLimit + 1);
   counts[0] = 1;
   const spread = negligible > 0 ? Math.log(scores.length / negligible) / 2 : 0;
   let reach = 0; // total of the scores so far
@@ -217,10 +224,8 @@ function lowerHalf(scores: Int32Array, cap: number, negligible: number, table: K
     squares += s * s;
     const tail = negligible > 0 ? Math.ceil((reach + s) / 2 - Math.sqrt(squares * spread)) : 0;
     const nextFloor = Math.min(nextLimit, Math.max(floor, tail));
-    // Integer-typed loop variables and an Int32Array of scores keep this loop on small-integer arithmetic;
-    // below floor + s the step adds counts already left out, that is nothing.
-    const stop = Math.max(s, floor + s, nextFloor);
-    for (let w = nextLimit; w >= stop; w--) counts[w] += counts[w - s];
+    // Below floor + s the step would add counts already left out, that is nothing.
+    engine.step(counts, Math.max(s, floor + s, nextFloor), nextLimit, s);
     reach += s;
     limit = nextLimit;
     floor = nextFloor;
@@ -261,18 +266,18 @@ function negligibleFor(scores: Int32Array, q: number): number {
  * @example
  * signedRankLowerTail([1, 2, 3], 3); // 0.625 (sums 0, 1, 2, 3, 3 of the eight)
  */
-export function signedRankLowerTail(scores: ArrayLike<number>, q: number): number {
+export function signedRankLowerTail(scores: ArrayLike<number>, q: number, engine = subsetSumEngine()): number {
   if (!Number.isInteger(q)) throw new RangeError(`signedRankLowerTail: q must be an integer, got ${q}`);
   const sorted = Int32Array.from(scores, (s) => {
     if (!Number.isInteger(s) || s <= 0 || s > MAX_SCORE)
       throw new RangeError(`signedRankLowerTail: scores must be positive integers, got ${s}`);
     return s;
   }).sort();
-  return lowerTailOfAscending(sorted, q);
+  return lowerTailOfAscending(sorted, q, engine);
 }
 
 /** signedRankLowerTail on scores already checked and in ascending order. */
-function lowerTailOfAscending(sorted: Int32Array, q: number): number {
+function lowerTailOfAscending(sorted: Int32Array, q: number, engine: SubsetSumEngine): number {
   if (q < 0) return 0;
   const first = new Int32Array((sorted.length + 1) >> 1);
   const second = new Int32Array(sorted.length >> 1);
@@ -281,13 +286,14 @@ function lowerTailOfAscending(sorted: Int32Array, q: number): number {
     else second[k >> 1] = sorted[k];
   }
   const negligible = negligibleFor(sorted, q);
-  const a = lowerHalf(first, q, negligible, FIRST_TABLE);
   // B in units of its scores' common divisor: untied ranks deal the even scores to B, which halves its table.
   let unit = 0;
   for (let k = 0; k < second.length; k++) unit = greatestCommonDivisor(second[k], unit);
   unit = Math.max(1, unit);
   if (unit > 1) for (let k = 0; k < second.length; k++) second[k] /= unit;
-  const b = lowerHalf(second, Math.floor(q / unit), negligible, SECOND_TABLE);
+  const [aTable, bTable] = engine.tables([halfTableLength(first, q), halfTableLength(second, Math.floor(q / unit))]);
+  const a = lowerHalf(first, q, negligible, aTable, engine);
+  const b = lowerHalf(second, Math.floor(q / unit), negligible, bTable, engine);
   // P(B <= y units) for y = 0..min(q / unit, total of B), in B's scale (zero in the left-out tails).
   const top = Math.min(Math.floor(q / unit), b.total);
   const cumulative = CUMULATIVE_TABLE.atLeast(top + 1);
@@ -393,11 +399,12 @@ function exactPValue(ranked: RankedDifferences, alternative: Alternative): numbe
     total += groupSizes[g] * s;
   }
   // P(W <= c), summing whichever tail is shorter; W and total - W have the same distribution.
+  const engine = subsetSumEngine();
   const lowerTail = (c: number): number => {
     if (c < 0) return 0;
     if (c >= total) return 1;
-    if (c <= total - c - 1) return lowerTailOfAscending(scores, c);
-    return 1 - lowerTailOfAscending(scores, total - c - 1);
+    if (c <= total - c - 1) return lowerTailOfAscending(scores, c, engine);
+    return 1 - lowerTailOfAscending(scores, total - c - 1, engine);
   };
   if (alternative === "less") return lowerTail(observed);
   if (alternative === "greater") return lowerTail(total - observed);

@@ -18,6 +18,7 @@ import { join } from "node:path";
 import { parse } from "acorn";
 import type { Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { signedRankTest } from "../../src/stats/signedRank";
 import { browserAvailable, DIST, recordViolations, serveOfficeJs, startSession, type Session, type Violation } from "./browser";
 
 const run = browserAvailable();
@@ -120,6 +121,44 @@ describe.skipIf(!run)("taskpane.html under the real Office.js", () => {
     expect(answers.number).toBe(0.125);
     expect(await violations(page)).toEqual([]);
     expect(pageErrors.filter((message) => !NO_EXCEL_WINDOW.test(message))).toEqual([]);
+    await page.close();
+  });
+
+  it("compiles its WebAssembly step under the page's policy and gives the exact signed-rank p-value Node gives", async () => {
+    const page = await session.context.newPage();
+    // Count the WebAssembly modules the page compiles (only successful compilations are counted).
+    await page.addInitScript(() => {
+      const compiled: number[] = [];
+      (window as unknown as { compiledModules: number[] }).compiledModules = compiled;
+      const Original = WebAssembly.Module;
+      const Counting = function (bytes: BufferSource) {
+        const module = new Original(bytes);
+        compiled.push(bytes.byteLength);
+        return module;
+      } as unknown as typeof WebAssembly.Module;
+      Counting.prototype = Original.prototype;
+      WebAssembly.Module = Counting;
+    });
+    await page.goto(`${session.origin}/taskpane.html`);
+    await page.getByText("runs inside Excel").waitFor();
+    // 600 invented differences with distinct sizes: exact only when asked (above the automatic limit).
+    const differences = Array.from({ length: 600 }, (_, i) => (i % 3 === 0 ? -1 : 1) * (i + 1 + ((i * 7) % 10) / 20));
+    const inPage = await page.evaluate((values) => {
+      const mappings = (
+        window as unknown as { CustomFunctions: { _association: { mappings: Record<string, (...a: unknown[]) => unknown> } } }
+      ).CustomFunctions._association.mappings;
+      return mappings.SIGNRANK(
+        values.map((v) => [v]),
+        0,
+        "two-sided",
+        "exact",
+      );
+    }, differences);
+    const inNode = signedRankTest(differences, { method: "exact" });
+    expect(inNode.available && inNode.method === "exact").toBe(true);
+    expect(inPage).toBe(inNode.available ? inNode.pValue : NaN);
+    expect(await page.evaluate(() => (window as unknown as { compiledModules: number[] }).compiledModules)).toEqual([232]);
+    expect(await violations(page)).toEqual([]);
     await page.close();
   });
 

@@ -8,6 +8,7 @@ import {
   signedRankTest,
   type SignedRankResult,
 } from "../../src/stats/signedRank";
+import { javascriptEngine, webAssemblyEngine } from "../../src/stats/subsetSumStep";
 import type { Alternative, ZeroRule } from "../../src/stats/types";
 import fixture from "../fixtures/signedRank.json";
 
@@ -161,42 +162,54 @@ describe("signedRankLowerTail (two half-sets, lower halves only)", () => {
     return Number(ways) / 2 ** scores.length;
   };
 
-  it("equals brute-force enumeration on random score multisets (exact arithmetic, property)", () => {
-    fc.assert(
-      fc.property(
-        fc.array(fc.integer({ min: 1, max: 12 }), { minLength: 0, maxLength: 14 }),
-        fc.integer({ min: -2, max: 90 }),
-        (scores, q) => {
-          expect(signedRankLowerTail(scores, q)).toBe(enumerated(scores, q));
-        },
-      ),
-      { numRuns: 300 },
-    );
+  // Both engines of the subset-sum step (subsetSumStep.ts): WebAssembly where it runs, JavaScript elsewhere.
+  const engines = [webAssemblyEngine(), javascriptEngine()];
+  it("runs the step in WebAssembly under Node (else the WebAssembly engine would go untested here)", () => {
+    expect(engines.map((engine) => engine?.name)).toEqual(["webassembly", "javascript"]);
   });
 
-  it("gives the same answers whatever ran before it (the half-tables are kept between calls, never cleared)", () => {
-    // Exact arithmetic (enumeration) for the small sets; each is asked again after a long call has filled the
-    // kept tables with large counts and a raised floor, and again after a second long one of another shape.
-    const long = Array.from({ length: 1000 }, (_, i) => i + 1);
-    const tied = Array.from({ length: 801 }, (_, i) => 2 * (i >> 1) + 3);
-    const middle = (scores: number[]) => Math.floor(scores.reduce((x, y) => x + y, 0) / 2) - 1;
-    const small = [
-      { scores: [1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12, 13], q: 40 },
-      { scores: [3, 3, 5, 5, 7, 9, 9, 11, 14, 14, 15, 20], q: 47 },
-      { scores: [2, 4, 6, 8, 10, 12, 14, 16], q: 30 },
-      { scores: [1, 1, 1, 2], q: 3 },
-    ];
-    const first = signedRankLowerTail(long, middle(long));
-    const firstTied = signedRankLowerTail(tied, middle(tied));
-    for (const { scores, q } of small) {
-      signedRankLowerTail(long, middle(long));
-      expect(signedRankLowerTail(scores, q)).toBe(enumerated(scores, q));
-      signedRankLowerTail(tied, middle(tied));
-      expect(signedRankLowerTail(scores, q)).toBe(enumerated(scores, q));
-    }
-    expect(signedRankLowerTail(long, middle(long))).toBe(first);
-    expect(signedRankLowerTail(tied, middle(tied))).toBe(firstTied);
-  });
+  it.each(engines.map((engine) => [engine!.name, engine!] as const))(
+    "equals brute-force enumeration on random score multisets, stepping in %s (exact arithmetic, property)",
+    (_, engine) => {
+      fc.assert(
+        fc.property(
+          fc.array(fc.integer({ min: 1, max: 12 }), { minLength: 0, maxLength: 14 }),
+          fc.integer({ min: -2, max: 90 }),
+          (scores, q) => {
+            expect(signedRankLowerTail(scores, q, engine)).toBe(enumerated(scores, q));
+          },
+        ),
+        { numRuns: 300 },
+      );
+    },
+  );
+
+  it.each(engines.map((engine) => [engine!.name, engine!] as const))(
+    "gives the same answers whatever ran before it, stepping in %s (the half-tables are kept between calls, never cleared)",
+    (_, engine) => {
+      // Exact arithmetic (enumeration) for the small sets; each is asked again after a long call has filled the
+      // kept tables with large counts and a raised floor, and again after a second long one of another shape.
+      const long = Array.from({ length: 1000 }, (_, i) => i + 1);
+      const tied = Array.from({ length: 801 }, (_, i) => 2 * (i >> 1) + 3);
+      const middle = (scores: number[]) => Math.floor(scores.reduce((x, y) => x + y, 0) / 2) - 1;
+      const small = [
+        { scores: [1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12, 13], q: 40 },
+        { scores: [3, 3, 5, 5, 7, 9, 9, 11, 14, 14, 15, 20], q: 47 },
+        { scores: [2, 4, 6, 8, 10, 12, 14, 16], q: 30 },
+        { scores: [1, 1, 1, 2], q: 3 },
+      ];
+      const first = signedRankLowerTail(long, middle(long), engine);
+      const firstTied = signedRankLowerTail(tied, middle(tied), engine);
+      for (const { scores, q } of small) {
+        signedRankLowerTail(long, middle(long), engine);
+        expect(signedRankLowerTail(scores, q, engine)).toBe(enumerated(scores, q));
+        signedRankLowerTail(tied, middle(tied), engine);
+        expect(signedRankLowerTail(scores, q, engine)).toBe(enumerated(scores, q));
+      }
+      expect(signedRankLowerTail(long, middle(long), engine)).toBe(first);
+      expect(signedRankLowerTail(tied, middle(tied), engine)).toBe(firstTied);
+    },
+  );
 
   it("agrees with the plain recursion (R-checked signedRankNullCdf) on long tied and untied score sets", () => {
     for (const scores of [
