@@ -10,13 +10,16 @@
  *   psignrank uses (the whole lower half of the table, f_k(w) += f_(k-1)(w - k) for k = 2..n), written
  *   here in the same engine and timed in the same run: limit 1x. R itself runs that recursion in C, about
  *   twice as fast as this engine runs it; `npx tsx bench/signedRankVsR.ts` prints R's own times beside ours
- *   when R is installed.
+ *   when R is installed;
+ * - the same tails with the subset-sum step in WebAssembly (what the add-in runs) against the step in
+ *   JavaScript (what it falls back to where WebAssembly is refused), same run: limit 0.5x.
  *
  * Data: invented, from a fixed-seed generator.
  */
 import { differencesFrom } from "../src/stats/differences";
 import { normalLowerTail } from "../src/stats/normal";
-import { EXACT_AUTO_LIMIT, EXACT_LIMIT, signedRankNullCdf, signedRankTest } from "../src/stats/signedRank";
+import { EXACT_AUTO_LIMIT, EXACT_LIMIT, signedRankLowerTail, signedRankNullCdf, signedRankTest } from "../src/stats/signedRank";
+import { javascriptEngine, webAssemblyEngine } from "../src/stats/subsetSumStep";
 import { alternate, bareLoop, columnOf } from "./cells.bench";
 import { fastestAlternating, report, timeMedian } from "./timing";
 import { xorshift32 as uniforms } from "../src/stats/xorshift";
@@ -111,6 +114,22 @@ export async function run(): Promise<void> {
       2,
     );
     report(`exact, no ties, n = ${n}, against the plain recursion`, timed.ms, timed.baseMs, 1);
+  }
+
+  const webAssembly = webAssemblyEngine();
+  const javascript = javascriptEngine();
+  if (!webAssembly) console.log("WebAssembly step: not available in this engine");
+  for (const n of webAssembly ? [200, 400, 600, 800, 1000] : []) {
+    const ranks = Array.from({ length: n }, (_, i) => i + 1);
+    const middle = Math.floor((n * (n + 1)) / 4) - 1;
+    const timed = fastestAlternating(
+      () => (sink += signedRankLowerTail(ranks, middle, javascript)),
+      () => (sink += signedRankLowerTail(ranks, middle, webAssembly)),
+      3,
+      2,
+      2,
+    );
+    report(`exact tail at the middle, n = ${n}, WebAssembly step against the JavaScript step`, timed.ms, timed.baseMs, 0.5);
   }
 
   // Relative error of the normal approximation in the lower tail, untied ranks, at exact p near each level.

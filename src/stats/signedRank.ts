@@ -33,7 +33,8 @@
  *
  * Cost: ranking O(n) (radix sort, ranks.ts); exact distribution O(n * c) time and
  * O(c) memory, c <= n(n+1)/2 the tail cut-off (O(n^3) at worst, about n^3/24 additions
- * with both savings against n^3/6 for the plain recursion); normal O(1) after ranking.
+ * with both savings against n^3/6 for the plain recursion, each a step of subsetSumStep.ts, which runs in
+ * WebAssembly where it can); normal O(1) after ranking.
  */
 import { normalLowerTail, normalUpperTail } from "./normal";
 import { greatestCommonDivisor, mergeRanks, sortFloat64 } from "./ranks";
@@ -42,22 +43,23 @@ import type { Alternative, SignedRankMethod, ZeroRule } from "./types";
 import { unavailable, type Unavailable } from "./types";
 
 /**
- * `auto` is exact up to this many non-zero differences. Chosen by measurement with
- * `npx tsx bench/run.ts signedRank` (2-core machine shared with other work): the slowest
- * exact case at 400 (tie pairs making every score odd, p near 1) took 73-100 ms with the plain
- * recursion and takes about 12 ms with the halved one (issue 8); the cost grows as n^3. At 400
- * the continuity-corrected normal p-value is off by 0.04% at p = 0.05, 0.6% at 0.01, 2.6% at
- * 0.001 and 19% at 1e-6 (same bench), so below this size exactness is worth its cost. The
- * limit is also where the Hodges-Lehmann bounds (hodgesLehmann.ts) stop using the plain
- * recursion for their exact rank, and where the result block's words change; it is kept while
- * the exact p-value at 1,000 is not yet clearly faster than R's (bench/signedRankVsR.ts).
+ * `auto` is exact up to this many non-zero differences, as far as `exact` goes. Chosen by measurement
+ * with `npm run bench -- signedRank` (2-core machine): the slowest exact case at 1,000 (tie pairs
+ * making every score odd, p near 1) takes about 14 ms with the WebAssembly step (subsetSumStep.ts)
+ * and about 85 ms where only the JavaScript step runs; without ties about 5 ms, a ninth of R 4.2's
+ * wilcox.test(exact = TRUE) on the same data (bench/signedRankVsR.ts). At 1,000 the
+ * continuity-corrected normal p-value is still off by 0.2% at p = 0.01, 1% at 0.001 and 7% at 1e-6
+ * (same bench), so up to here exactness is worth its cost. (It was 400 while the step ran in
+ * JavaScript only. The Hodges-Lehmann bounds keep their own limit for the exact rank,
+ * hodgesLehmann.ts.)
  */
-export const EXACT_AUTO_LIMIT = 400;
+export const EXACT_AUTO_LIMIT = 1000;
 
 /**
- * `exact` is honoured up to this many non-zero differences: the slowest case took 1.1-1.6 s in
- * the same bench with the plain recursion, about 0.4 s with the halved one. Above it the O(n^3) cost would freeze a spreadsheet, so the normal approximation
- * is used and `method` says so (at 1000 it is off by 0.2% at p = 0.01 and 1% at 0.001).
+ * `exact` is honoured up to this many non-zero differences: the slowest case takes about 14 ms with
+ * the WebAssembly step and 85 ms with the JavaScript one (same bench), and the cost grows as n^3.
+ * Above it the normal approximation is used under `auto` and `exact` answers #N/A, saying so (at 1,000
+ * the approximation is off by 0.2% at p = 0.01 and 1% at 0.001).
  */
 export const EXACT_LIMIT = 1000;
 

@@ -40,10 +40,10 @@ beforeAll(async () => {
 describe("the method row states the method that ran", () => {
   it("exact at the auto limit, normal one past it", () => {
     expect(methodOf(AUTO, column(EXACT_AUTO_LIMIT))).toMatch(
-      /^Wilcoxon signed-rank test, exact \(conditional on ties\), as there are at most 400 non-zero/,
+      /^Wilcoxon signed-rank test, exact \(conditional on ties\), as there are at most 1,000 non-zero/,
     );
     expect(methodOf(AUTO, column(EXACT_AUTO_LIMIT + 1))).toMatch(
-      /^Wilcoxon signed-rank test, normal approximation .*, as there are more than 400 non-zero/,
+      /^Wilcoxon signed-rank test, normal approximation .*, as there are more than 1,000 non-zero/,
     );
     expect(methodOf(AUTO, column(1492))).toMatch(/normal approximation/);
   });

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import { hodgesLehmann, hodgesLehmannEstimate, walshAverageOrderStatistic, type HodgesLehmannResult } from "../../src/stats/hodgesLehmann";
-import { EXACT_AUTO_LIMIT, signedRankTest } from "../../src/stats/signedRank";
+import { EXACT_RANK_LIMIT, hodgesLehmann, hodgesLehmannEstimate, walshAverageOrderStatistic, type HodgesLehmannResult } from "../../src/stats/hodgesLehmann";
+import { signedRankTest } from "../../src/stats/signedRank";
 import { xorshift32 } from "../../src/stats/xorshift";
 import fixture from "../fixtures/signedRank.json";
 
@@ -84,7 +84,7 @@ describe("hodgesLehmann against R 4.2 wilcox.test(conf.int = TRUE) (fixture test
     for (const c of cases.filter((c) => c.kind === "normal-large")) {
       const want = c.interval as LargeInterval;
       const r = run(c.x, c.confidence);
-      expect(c.x.length).toBeGreaterThan(EXACT_AUTO_LIMIT);
+      expect(c.x.length).toBeGreaterThan(EXACT_RANK_LIMIT);
       expect(r.method).toBe("normal");
       expect(r.boundRank).toBe(want.normalK);
       expect(r.lower).toBe(want.normalLower);
@@ -296,7 +296,7 @@ describe("hodgesLehmann: duality with the signed-rank test, coverage, data condi
   });
 
   it("switches to the normal rank above the exact limit", () => {
-    const x = Array.from({ length: EXACT_AUTO_LIMIT + 1 }, (_, i) => Math.sin(i) * 10);
+    const x = Array.from({ length: EXACT_RANK_LIMIT + 1 }, (_, i) => Math.sin(i) * 10);
     const r = run(x);
     const n = x.length;
     const sd = Math.sqrt((n * (n + 1) * (2 * n + 1)) / 24);
