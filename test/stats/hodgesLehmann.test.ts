@@ -1,6 +1,12 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import { EXACT_RANK_LIMIT, hodgesLehmann, hodgesLehmannEstimate, walshAverageOrderStatistic, type HodgesLehmannResult } from "../../src/stats/hodgesLehmann";
+import {
+  EXACT_RANK_LIMIT,
+  hodgesLehmann,
+  hodgesLehmannEstimate,
+  walshAverageOrderStatistic,
+  type HodgesLehmannResult,
+} from "../../src/stats/hodgesLehmann";
 import { signedRankTest } from "../../src/stats/signedRank";
 import { xorshift32 } from "../../src/stats/xorshift";
 import fixture from "../fixtures/signedRank.json";
