@@ -1,6 +1,6 @@
 /**
  * Compiles src/stats/subsetSumStep.wat (the WebAssembly subset-sum step) with wabt and writes the
- * binary, base64-encoded, to src/stats/subsetSumStepBytes.ts: `npx tsx scripts/subsetSumWasm.ts`.
+ * binary, as hexadecimal text, to src/stats/subsetSumStepBytes.ts: `npx tsx scripts/subsetSumWasm.ts`.
  *
  * The bytes are committed so that neither the build nor the add-in needs wabt; the unit test
  * test/stats/subsetSumStep.test.ts compiles the .wat again and fails if the committed bytes differ.
@@ -33,9 +33,9 @@ export function bytesModule(binary: Uint8Array): string {
   return `// Generated from subsetSumStep.wat by scripts/subsetSumWasm.ts (\`npx tsx scripts/subsetSumWasm.ts\`); do not edit.
 // test/stats/subsetSumStep.test.ts fails when these bytes and the .wat disagree.
 
-/** The subset-sum step module (subsetSumStep.wat), a WebAssembly binary in base64. */
-export const SUBSET_SUM_STEP_BASE64 =
-  "${Buffer.from(binary).toString("base64")}";
+/** The subset-sum step module (subsetSumStep.wat), a WebAssembly binary as hexadecimal text. */
+export const SUBSET_SUM_STEP_HEX =
+  "${Buffer.from(binary).toString("hex")}";
 `;
 }
 

@@ -18,7 +18,7 @@
  * Cost: the step is O(high - low); handing out tables is O(1), plus growing the memory when a call needs
  * more than any before.
  */
-import { SUBSET_SUM_STEP_BASE64 } from "./subsetSumStepBytes";
+import { SUBSET_SUM_STEP_HEX } from "./subsetSumStepBytes";
 
 export interface SubsetSumEngine {
   readonly name: "webassembly" | "javascript";
@@ -66,11 +66,12 @@ interface StepExports {
  * WebAssembly, no SIMD, or a content security policy that refuses it). Tables too large for its memory
  * come from a JavaScript engine instead, and are stepped in JavaScript.
  */
-export function webAssemblyEngine(binary: Uint8Array<ArrayBuffer> = decodeBase64(SUBSET_SUM_STEP_BASE64)): SubsetSumEngine | undefined {
+export function webAssemblyEngine(binary?: Uint8Array<ArrayBuffer>): SubsetSumEngine | undefined {
   let exports: StepExports;
   try {
     // Synchronous compilation: the module is 232 bytes, well under the 4 KB browsers allow on the main thread.
-    exports = new WebAssembly.Instance(new WebAssembly.Module(binary)).exports as unknown as StepExports;
+    const module = new WebAssembly.Module(binary ?? bytesOfHex(SUBSET_SUM_STEP_HEX));
+    exports = new WebAssembly.Instance(module).exports as unknown as StepExports;
     const probe = new Float64Array(exports.memory.buffer, 0, 6);
     probe.set([1, 2, 3, 4, 5, 6]);
     exports.step(0, 1, 5, 1);
@@ -103,9 +104,9 @@ export function webAssemblyEngine(binary: Uint8Array<ArrayBuffer> = decodeBase64
   };
 }
 
-/** Bytes from base64, in Node and in the browser alike. */
-function decodeBase64(text: string): Uint8Array<ArrayBuffer> {
-  return Uint8Array.from(atob(text), (character) => character.charCodeAt(0));
+/** Bytes from hexadecimal text, by plain JavaScript (runtimes without the web's atob included). */
+function bytesOfHex(text: string): Uint8Array<ArrayBuffer> {
+  return Uint8Array.from({ length: text.length / 2 }, (_, i) => parseInt(text.slice(2 * i, 2 * i + 2), 16));
 }
 
 let shared: SubsetSumEngine | undefined;

@@ -132,6 +132,25 @@ describe("dist/functions.js", () => {
     expectError(bundle.call("PAIRED", col(1, 2, 3), col(1, 2)), "#VALUE!", /same shape.*3 rows × 1 column.*2 rows × 1 column/);
   });
 
+  it("gives the same exact signed-rank p-values, bit for bit, in a runtime without WebAssembly (its JavaScript step)", () => {
+    const withoutWebAssembly = loadFunctionsBundle({ webAssembly: false });
+    // Invented differences: untied, tied with zeros (Pratt), and 1,000 untied (the slowest exact size).
+    const untied = Array.from({ length: 300 }, (_, i) => [(i % 3 === 0 ? -1 : 1) * (i + 1 + (i % 7) / 10)]);
+    const tied = Array.from({ length: 500 }, (_, i) => [Math.round(Math.sin(i * 1.3) * 20)]);
+    const large = Array.from({ length: 1000 }, (_, i) => [(i % 5 < 2 ? -1 : 1) * (i + 1)]);
+    for (const [data, zeros] of [
+      [untied, "drop"],
+      [tied, "pratt"],
+      [large, "drop"],
+    ] as const) {
+      for (const alternative of ["two-sided", "greater", "less"]) {
+        const fast = bundle.call("SIGNRANK", data, 0, alternative, "exact", zeros);
+        expect(typeof fast).toBe("number");
+        expect(withoutWebAssembly.call("SIGNRANK", data, 0, alternative, "exact", zeros)).toBe(fast);
+      }
+    }
+  });
+
   it("turns an unexpected failure inside into a calm #VALUE!, never the exception's text", () => {
     const treacherous: unknown[] = [1];
     Object.defineProperty(treacherous, 0, {

@@ -45,9 +45,11 @@ export interface LoadedBundle {
  * files each function under its id in upper case), and only after the bundle
  * has run the `Error` class and `ErrorCode` values, which Excel's host script
  * adds later (excel-web-16.00.js in the same package). A bundle that waited
- * for `Error` before registering would register nothing here.
+ * for `Error` before registering would register nothing here. With
+ * `webAssembly: false` the context has no `WebAssembly`, as in a runtime that
+ * lacks it or refuses it.
  */
-export function loadFunctionsBundle(): LoadedBundle {
+export function loadFunctionsBundle(options: { webAssembly?: boolean } = {}): LoadedBundle {
   const ids: string[] = [];
   const fns = new Map<string, Registered>();
   const mappings: Record<string, Registered> = {};
@@ -60,7 +62,7 @@ export function loadFunctionsBundle(): LoadedBundle {
       mappings[id.toUpperCase()] = fn;
     },
   };
-  const context = createContext({ CustomFunctions, console });
+  const context = createContext({ CustomFunctions, console, ...(options.webAssembly === false ? { WebAssembly: undefined } : {}) });
   runInContext(distText("functions.js"), context, { filename: "dist/functions.js" });
   Object.assign(CustomFunctions, { Error: StandInError, ErrorCode: ERROR_CODES });
   return {
