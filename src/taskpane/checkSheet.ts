@@ -7,7 +7,9 @@
  * pass/fail formula with the case's tolerance, and its source. Above them:
  * the Evensplit version, Excel's version and platform as
  * Office.context.diagnostics reports them (Microsoft, "Office.ContextInformation
- * interface": host, platform, version) and the moment of checking, written as
+ * interface": host, platform, version), whether this page runs the exact
+ * signed-rank step in WebAssembly or falls back to JavaScript (a webview that
+ * refuses WebAssembly gives the same results more slowly), and the moment of checking, written as
  * fixed text rather than a volatile NOW(), so the record keeps it. Below: the
  * count of cases that pass and the cautions.
  *
@@ -18,6 +20,7 @@
  */
 import { caseFormula, type ReferenceCase } from "../report/installationCheck";
 import { auditTime } from "../report/resultBlock";
+import type { SubsetSumEngine } from "../stats/subsetSumStep";
 import type { Host, SheetContent, SheetReport } from "./host";
 
 /** The new sheet's name, made unique with " (2)", " (3)", … when the workbook has it already. */
@@ -39,8 +42,16 @@ export interface CheckFacts {
   readonly excelVersion: string | null;
   /** The platform as the host reports it, or null. */
   readonly platform: string | null;
+  /** Where the exact signed-rank distribution's inner loop runs in this page (src/stats/subsetSumStep.ts). */
+  readonly exactStep: SubsetSumEngine["name"];
   readonly checkedAt: Date;
 }
+
+/** The exact step's engine in words: the JavaScript one is the slow fallback, so the record says why it matters. */
+export const EXACT_STEP_WORDS: Record<SubsetSumEngine["name"], string> = {
+  webassembly: "WebAssembly",
+  javascript: "JavaScript: WebAssembly is not available in this Excel, so exact signed-rank p-values take longer (same results)",
+};
 
 /** Office.PlatformType values in words (Microsoft, "Office.PlatformType enum"). */
 const PLATFORM_WORDS: Record<string, string> = {
@@ -100,15 +111,15 @@ export const CHECK_COLUMNS = [
 /** Column widths in points (about 5.3 points a character of the default font; common practice). */
 const COLUMN_WIDTHS = [110, 330, 150, 110, 70, 60, 45, 700];
 
-/** Rows above the case table: title, four facts, the outcome, a blank row. */
-const FIRST_TABLE_ROW = 7;
+/** Rows above the case table: title, five facts, the outcome, a blank row. */
+const FIRST_TABLE_ROW = 8;
 
 /** The cautions that close the sheet. */
 export const CHECK_CAUTIONS = [
   "This check supports, but does not replace, the laboratory's own qualification of the software under its quality system and local rules: have it reviewed and approved as those require.",
   "Each answer is calculated live by the Evensplit functions installed in this Excel, so the sheet checks the installation it is opened in; check again after Excel or Evensplit is updated, and before relying on results.",
   "Expected values come from exact arithmetic written out beside them or from the published tables named there; a table value marked 'from memory' was recalled, not re-read.",
-  "Save the workbook to keep this sheet as a record; the version, platform and time above are fixed text and do not change.",
+  "Save the workbook to keep this sheet as a record; the facts above (version, platform, time) are fixed text and do not change.",
 ];
 
 function column(index: number): string {
@@ -132,7 +143,8 @@ export interface CheckLayout {
  * column widths, and where each part lies.
  *
  * @example
- * checkSheetContent(REFERENCE_CASES, { evensplitVersion: "0.1.0", excelVersion: null, platform: null, checkedAt: new Date() }).formulas[8][2];
+ * const facts = { evensplitVersion: "0.1.0", excelVersion: null, platform: null, exactStep: "webassembly", checkedAt: new Date() } as const;
+ * checkSheetContent(REFERENCE_CASES, facts).formulas[9][2];
  * // '=EVENSPLIT.PVALUE({51;52;53},50,"greater")'
  */
 export function checkSheetContent(cases: readonly ReferenceCase[], facts: CheckFacts): SheetContent & { readonly layout: CheckLayout } {
@@ -160,6 +172,7 @@ export function checkSheetContent(cases: readonly ReferenceCase[], facts: CheckF
   fact("Evensplit version", facts.evensplitVersion);
   fact("Excel version", facts.excelVersion ?? NOT_REPORTED);
   fact("Platform", facts.platform ?? NOT_REPORTED);
+  fact("Exact signed-rank step", EXACT_STEP_WORDS[facts.exactStep]);
   fact("Checked at", auditTime(facts.checkedAt));
   const outcomeRow = rows.length;
   add([

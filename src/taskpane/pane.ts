@@ -59,6 +59,7 @@ import { settingsPage } from "./settingsView";
 import { environmentFrom, writeCheckSheet, type DiagnosticsLike } from "./checkSheet";
 import { REFERENCE_CASES } from "../report/installationCheck";
 import { EVENSPLIT_VERSION } from "../report/version";
+import { subsetSumEngine } from "../stats/subsetSumStep";
 import { analyzeRange, blockInputs, blockRefs, defaultPlace, writeResult, type WriteOutcome } from "./workflow";
 import { blockAt, readBlock, sameBlockFormulas, type BlockReading } from "./blockEdit";
 import { blockPreview, blockWrite } from "./preview";
@@ -216,7 +217,12 @@ export function mountPane(root: HTMLElement, options: PaneOptions): void {
     checkButton.disabled = true;
     say("Writing the installation check…");
     try {
-      const facts = { evensplitVersion: EVENSPLIT_VERSION, ...environmentFrom(options.diagnostics), checkedAt: new Date() };
+      const facts = {
+        evensplitVersion: EVENSPLIT_VERSION,
+        ...environmentFrom(options.diagnostics),
+        exactStep: subsetSumEngine().name,
+        checkedAt: new Date(),
+      };
       say((await writeCheckSheet(host, REFERENCE_CASES, facts)).message);
     } catch (thrown) {
       say(`No check sheet was written: ${errorMessage(thrown)}`);

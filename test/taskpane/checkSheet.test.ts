@@ -34,6 +34,7 @@ const FACTS: CheckFacts = {
   evensplitVersion: EVENSPLIT_VERSION,
   excelVersion: "16.0.17928.20114",
   platform: "PC (Excel on Windows)",
+  exactStep: "webassembly",
   checkedAt: new Date(Date.UTC(2026, 11, 2, 8, 15, 30)),
 };
 const LAYOUT = checkSheetContent(REFERENCE_CASES, FACTS).layout;
@@ -81,12 +82,18 @@ describe('Excel\'s version and platform (Microsoft, "Office.ContextInformation i
 
   it('show as "not reported" on the sheet when missing', () => {
     const { formulas } = checkSheetContent(REFERENCE_CASES, { ...FACTS, ...environmentFrom(undefined) });
-    expect(formulas.slice(1, 5).map((row) => row.slice(0, 2))).toEqual([
+    expect(formulas.slice(1, 6).map((row) => row.slice(0, 2))).toEqual([
       ["Evensplit version", EVENSPLIT_VERSION],
       ["Excel version", NOT_REPORTED],
       ["Platform", NOT_REPORTED],
+      ["Exact signed-rank step", "WebAssembly"],
       ["Checked at", "2026-12-02 08:15:30 UTC"],
     ]);
+  });
+
+  it("says when the exact signed-rank step falls back to JavaScript, and what that means", () => {
+    const { formulas } = checkSheetContent(REFERENCE_CASES, { ...FACTS, exactStep: "javascript" });
+    expect(formulas[4][1]).toMatch(/^JavaScript: WebAssembly is not available in this Excel, .*same results/);
   });
 });
 
@@ -99,11 +106,11 @@ describe("the check sheet's content", () => {
       expect(row.length, `row ${r}`).toBe(width);
       expect(content.numberFormats[r].length, `row ${r}`).toBe(width);
     }
-    for (let r = 1; r <= 4; r++) expect(content.numberFormats[r][1]).toBe("@");
+    for (let r = 1; r <= 5; r++) expect(content.numberFormats[r][1]).toBe("@");
   });
 
   it("states the time as fixed text and holds no volatile function, so the record keeps it", () => {
-    expect(content.formulas[4][1]).toBe(auditTime(FACTS.checkedAt));
+    expect(content.formulas[5][1]).toBe(auditTime(FACTS.checkedAt));
     const text = content.formulas.flat().join("\n").toUpperCase();
     for (const volatile of ["NOW(", "TODAY(", "RAND(", "OFFSET(", "INDIRECT("]) expect(text).not.toContain(volatile);
   });
