@@ -109,7 +109,7 @@ export const CHECK_COLUMNS = [
 ] as const;
 
 /** Column widths in points (about 5.3 points a character of the default font; common practice). */
-const COLUMN_WIDTHS = [110, 330, 150, 110, 70, 60, 45, 700];
+const COLUMN_WIDTHS = [130, 330, 150, 110, 70, 60, 45, 700];
 
 /** Rows above the case table: title, five facts, the outcome, a blank row. */
 const FIRST_TABLE_ROW = 8;
