@@ -36,7 +36,10 @@ interface ProfileNode {
 }
 
 /** The functions with the most self time in a CPU profile, as "name (file:line) ms". */
-function topFunctions(profile: { nodes: ProfileNode[]; samples: number[]; timeDeltas: number[] }, count = 8): string[] {
+function topFunctions(
+  profile: { nodes: ProfileNode[]; samples: number[]; timeDeltas: number[] },
+  count = Number(process.env.DEMO_PROFILE_TOP ?? 8),
+): string[] {
   const self = new Map<number, number>();
   profile.samples.forEach((id, i) => self.set(id, (self.get(id) ?? 0) + (profile.timeDeltas[i] ?? 0) / 1000));
   const byName = new Map<string, number>();
