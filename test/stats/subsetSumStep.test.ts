@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import { BYTES_PATH, bytesModule, compileSubsetSumStep } from "../../scripts/subsetSumWasm";
+import wabt from "wabt";
+import { BYTES_PATH, bytesModule, compileSubsetSumStep, WAT_PATH } from "../../scripts/subsetSumWasm";
 import { signedRankLowerTail, signedRankNullCdf } from "../../src/stats/signedRank";
 import { javascriptEngine, subsetSumEngine, webAssemblyEngine } from "../../src/stats/subsetSumStep";
 import { SUBSET_SUM_STEP_HEX } from "../../src/stats/subsetSumStepBytes";
@@ -22,6 +23,23 @@ describe("the WebAssembly module", () => {
 
   it("is the engine Node uses", () => {
     expect(subsetSumEngine().name).toBe("webassembly");
+  });
+
+  it("hands out JavaScript tables, stepped in JavaScript, when its memory cannot grow", async () => {
+    // The same module with a memory of at most one page (64 KiB): a table of 100,000 entries cannot fit.
+    const tools = await wabt();
+    const source = readFileSync(WAT_PATH, "utf8").replace('(memory (export "memory") 1 32767)', '(memory (export "memory") 1 1)');
+    expect(source).toContain("1 1)");
+    const parsed = tools.parseWat("small.wat", source, { simd: true });
+    const engine = webAssemblyEngine(Uint8Array.from(parsed.toBinary({}).buffer))!;
+    parsed.destroy();
+    expect(engine.name).toBe("webassembly");
+    const [inside] = engine.tables([1000]);
+    const [outside] = engine.tables([100_000]);
+    expect(outside.buffer).not.toBe(inside.buffer);
+    outside.fill(1);
+    engine.step(outside, 3, 99_999, 3);
+    expect([outside[2], outside[3], outside[99_999]]).toEqual([1, 2, 2]);
   });
 
   it("is given up, for JavaScript, when the bytes cannot be compiled (as under a policy refusing WebAssembly)", () => {
