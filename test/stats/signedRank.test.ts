@@ -13,7 +13,7 @@ import type { Alternative, ZeroRule } from "../../src/stats/types";
 import fixture from "../fixtures/signedRank.json";
 
 interface Case {
-  kind: "exact-small" | "ties" | "exact-large" | "normal-large";
+  kind: "exact-small" | "ties" | "exact-large" | "exact-body" | "normal-large";
   x: number[];
   alternative: Alternative;
   statistic: number;
@@ -72,7 +72,7 @@ function enumerate(d: number[], zeros: ZeroRule) {
 const pick = (e: ReturnType<typeof enumerate>, a: Alternative) => (a === "less" ? e.less : a === "greater" ? e.greater : e.twoSided);
 
 describe("signedRankTest against R 4.2 wilcox.test (fixture test/fixtures/signedRank.R)", () => {
-  it(`exact p-values without ties: ${cases.filter((c) => c.pExact !== null).length} cases, n up to 400 (R exact = TRUE)`, () => {
+  it(`exact p-values without ties: ${cases.filter((c) => c.pExact !== null).length} cases, n up to 1,000 (R exact = TRUE)`, () => {
     let worst = 0;
     for (const c of cases.filter((c) => c.pExact !== null)) {
       const r = run(c.x, { alternative: c.alternative, method: "exact" });
@@ -82,6 +82,16 @@ describe("signedRankTest against R 4.2 wilcox.test (fixture test/fixtures/signed
     }
     console.log(`signed rank exact vs R: worst relative error ${worst.toExponential(2)}`);
     expect(worst).toBeLessThan(1e-12);
+  });
+
+  it("auto is exact, and equal to R's exact p-value, up to 1,000 differences", () => {
+    const large = cases.filter((c) => c.pExact !== null && c.x.length > 400);
+    expect(large.map((c) => c.x.length).sort((a, b) => a - b)).toEqual([450, 500, 600, 700, 800, 1000, 1000]);
+    for (const c of large) {
+      const r = run(c.x, { alternative: c.alternative });
+      expect(r.method).toBe("exact");
+      expect(relative(r.pValue, c.pExact as number)).toBeLessThan(1e-12);
+    }
   });
 
   it(`normal approximation (correct = TRUE, tie correction, zeros dropped): all ${cases.length} cases`, () => {
