@@ -263,7 +263,8 @@ function negligibleFor(scores: Int32Array, q: number): number {
 /**
  * P(W <= q), W the sum of a random subset of the positive integer `scores` (each in with probability 1/2):
  * the scores, in ascending order, are dealt alternately into two sets A and B of near-equal totals, and
- * P(W <= q) = sum over x of P(A = x) P(B <= q - x).
+ * P(W <= q) = sum over x of P(A = x) P(B <= q - x). `engine` runs the recursion's steps (subsetSumStep.ts):
+ * the shared one by default; the tests and the bench pass each engine in turn, and both give the same bits.
  *
  * @example
  * signedRankLowerTail([1, 2, 3], 3); // 0.625 (sums 0, 1, 2, 3, 3 of the eight)
