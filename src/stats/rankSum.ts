@@ -43,14 +43,16 @@ export const EXACT_AUTO_SIZE = 400;
 
 /**
  * `auto` is exact with ties while m + n is at most this: the conditional distribution costs
- * O(N min(m, n) m n); in the same bench 60 and 60 (tie pairs, p near 1) took about 90 ms, 40 and 40 about 8 ms.
+ * O(N min(m, n) m n). In `npm run bench -- groups`, 80 and 80 (tie pairs, p near 1) take about 13 ms with
+ * the WebAssembly step (subsetSumStep.ts), where they took 120 ms before it (and before rows that can no
+ * longer reach the final size were skipped), when this limit was 80; 40 and 40 now take under 1 ms.
  */
-export const EXACT_AUTO_TIED_SIZE = 80;
+export const EXACT_AUTO_TIED_SIZE = 160;
 
 /**
  * `exact` is honoured up to these sizes; beyond, the normal method runs and `method` says so. Measured on
  * the same machine: 500 and 500 without ties took 0.4-0.5 s (C(1000, 500) is still a finite double), 100 and
- * 100 with ties 0.9 s.
+ * 100 with ties about 33 ms (0.9 s before the WebAssembly step; 150 and 150 would take about 170 ms).
  */
 export const EXACT_SIZE = 1000;
 export const EXACT_TIED_SIZE = 200;

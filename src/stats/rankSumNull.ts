@@ -20,8 +20,11 @@
  *   permutation and rank tests", Statistical Software Newsletter 12, 10-17, from memory).
  *
  * Cost: without ties O(min(m, n) x cap) time, O(cap) memory; with ties
- * O(N x size x cap) time and O(size x cap) memory, N the number of items.
+ * O(N x size x cap) time and O(size x cap) memory, N the number of items, about half of it skipped
+ * (rows that can no longer reach the final size), each row's update one step of subsetSumStep.ts
+ * (WebAssembly where it runs).
  */
+import { subsetSumEngine } from "./subsetSumStep";
 
 /**
  * P(U <= u) for u = 0..cap, U the Mann–Whitney statistic of groups of sizes m and n without
@@ -87,16 +90,19 @@ export function subsetSumNullCdf(scores: ArrayLike<number>, size: number, cap: n
     return s;
   }).sort(); // small scores first: the reachable sums grow slowly
   const width = cap + 1;
-  const table = new Float64Array((size + 1) * width); // row k: ways to pick k items with each sum
+  const engine = subsetSumEngine();
+  const [table] = engine.tables([(size + 1) * width]); // row k: ways to pick k items with each sum
+  table.fill(0, 0, (size + 1) * width);
   table[0] = 1;
   let reach = 0;
   for (let t = 0; t < items; t++) {
     const s = sorted[t];
     reach = Math.min(cap, reach + s);
-    for (let k = Math.min(t + 1, size); k >= 1; k--) {
-      const row = k * width;
-      const previous = row - width;
-      for (let w = reach; w >= s; w--) table[row + w] += table[previous + w - s];
+    // Rows below size - (items left after this one) can no longer grow into row `size`: they are not updated.
+    const lowest = Math.max(1, size - (items - 1 - t));
+    for (let k = Math.min(t + 1, size); k >= lowest; k--) {
+      // table[k][w] += table[k - 1][w - s] for w = reach..s: one step with the rows laid end to end.
+      engine.step(table, k * width + s, k * width + reach, width + s);
     }
   }
   const total = choose(items, size);

@@ -49,6 +49,44 @@ function bruteForceP(first: number[], second: number[], alternative: Alternative
   return Math.min(1, (2 * Math.min(below, above)) / all);
 }
 
+/**
+ * The exact conditional p-value with ties by exact integer arithmetic: BigInt counts of the size-n subsets of
+ * the pooled values by their sum of doubled mid-ranks (a plain recursion over every row and sum), so that
+ * groups far too large to enumerate are checked at the sizes `auto` now reaches.
+ */
+function bigIntP(first: number[], second: number[], alternative: Alternative): number {
+  const pooled = [...first, ...second].map((value, i) => ({ value, second: i >= first.length })).sort((a, b) => a.value - b.value);
+  const scores: number[] = [];
+  for (let i = 0; i < pooled.length;) {
+    let j = i;
+    while (j < pooled.length && pooled[j].value === pooled[i].value) j++;
+    for (let k = i; k < j; k++) scores.push(i + j + 1); // doubled mid-rank of positions i+1..j
+    i = j;
+  }
+  const observed = pooled.reduce((sum, item, i) => sum + (item.second ? scores[i] : 0), 0);
+  const n = second.length;
+  const top = scores.reduce((a, b) => a + b, 0);
+  let rows = Array.from({ length: n + 1 }, () => new Array<bigint>(top + 1).fill(0n));
+  rows[0][0] = 1n;
+  for (const s of scores) {
+    const next = rows.map((row) => row.slice());
+    for (let k = 1; k <= n; k++) for (let w = s; w <= top; w++) next[k][w] += rows[k - 1][w - s];
+    rows = next;
+  }
+  let below = 0n;
+  let above = 0n;
+  let all = 0n;
+  rows[n].forEach((count, w) => {
+    all += count;
+    if (w <= observed) below += count;
+    if (w >= observed) above += count;
+  });
+  const ratio = (part: bigint): number => Number((part * 10n ** 30n) / all) / 1e30;
+  if (alternative === "less") return ratio(below);
+  if (alternative === "greater") return ratio(above);
+  return Math.min(1, 2 * Math.min(ratio(below), ratio(above)));
+}
+
 describe("exact null distributions against brute-force enumeration", () => {
   it("mannWhitneyNullCdf counts every arrangement (sizes up to 7 and 6)", () => {
     for (let m = 1; m <= 7; m++) {
@@ -124,6 +162,30 @@ describe("exact null distributions against brute-force enumeration", () => {
       ),
       { numRuns: 300 },
     );
+  });
+});
+
+describe("rankSumTest's exact p-values with ties at larger sizes", () => {
+  it("match exact integer arithmetic (BigInt counts) for groups of 12 to 30 with many ties", () => {
+    let next = 17;
+    const uniform = (): number => ((next = (next * 48271) % 2147483647) - 1) / 2147483646; // Park-Miller, seeded
+    for (const [m, n] of [
+      [12, 14],
+      [20, 17],
+      [25, 30],
+      [30, 30],
+    ]) {
+      // Invented readings on a coarse scale (whole units from 0 to 9), so most values are shared.
+      const first = Array.from({ length: m }, () => Math.floor(uniform() * 10));
+      const second = Array.from({ length: n }, () => Math.floor(uniform() * 10 + uniform() * 2));
+      for (const alternative of ["two-sided", "greater", "less"] as const) {
+        const r = available(rankSumTest(first, second, { alternative }));
+        expect(r.method).toBe("exact");
+        expect(r.tiesPresent).toBe(true);
+        const exact = bigIntP(first, second, alternative);
+        expect(Math.abs(r.pValue - exact) / exact, `${m} + ${n} ${alternative}`).toBeLessThan(1e-12);
+      }
+    }
   });
 });
 
