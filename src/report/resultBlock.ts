@@ -138,6 +138,9 @@ export interface CallValue {
   readonly rowLabel?: string | number;
 }
 
+/** A part of a size a method depends on: a catalogue value, or the count of a range's numbers. */
+export type SizeTerm = CallValue | { readonly kind: "numbers"; readonly of: "data" | "second" };
+
 export type BlockValue =
   | { readonly kind: "text"; readonly text: string }
   | CallValue
@@ -155,8 +158,16 @@ export type BlockValue =
   | { readonly kind: "sum"; readonly terms: readonly CallValue[] }
   | BlankCheckValue
   | { readonly kind: "decision"; readonly pValue: CallValue; readonly alpha: number; readonly reject: string; readonly keep: string }
-  /** One text when a catalogue value is at most a limit, another above it (e.g. which method a size led to). */
-  | { readonly kind: "atMost"; readonly value: CallValue; readonly limit: number; readonly then: string; readonly otherwise: string }
+  /**
+   * Which method a size led to: the text of the first step whose limit the size (the sum of `size`) is at
+   * most, otherwise the last text.
+   */
+  | {
+      readonly kind: "bySize";
+      readonly size: readonly SizeTerm[];
+      readonly steps: readonly { readonly atMost: number; readonly text: string }[];
+      readonly otherwise: string;
+    }
   /**
    * Cells of the data's first row, added (a pasted count, or below + above). With `blankShows`, a single
    * blank cell shows as empty rather than 0 (a bound the query did not fetch).
@@ -503,10 +514,9 @@ function signedRankMethod(request: BlockRequest, method: SignedRankMethod, zeros
   const nonZero = request.paired ? call("PAIREDCOUNTS", [data(), second(), c], 4) : call("COUNTS", [data(), c], 4);
   const limit = EXACT_AUTO_LIMIT.toLocaleString("en-US");
   return {
-    kind: "atMost",
-    value: nonZero,
-    limit: EXACT_AUTO_LIMIT,
-    then: words(`${SIGNED_RANK_EXACT_WORDS}, as there are at most ${limit} non-zero differences`),
+    kind: "bySize",
+    size: [nonZero],
+    steps: [{ atMost: EXACT_AUTO_LIMIT, text: words(`${SIGNED_RANK_EXACT_WORDS}, as there are at most ${limit} non-zero differences`) }],
     otherwise: words(`${SIGNED_RANK_NORMAL_WORDS}, as there are more than ${limit} non-zero differences`),
   };
 }
@@ -693,10 +703,36 @@ function twoGroupHypotheses(request: BlockRequest, method: TwoGroupMethod): { qu
   };
 }
 
-function twoGroupMethodWords(method: TwoGroupMethod): string {
+/**
+ * The method row of a two-group block: the method that ran. For the rank-sum test that depends on how many
+ * numbers the two groups hold together, so the row is live: exact up to EXACT_AUTO_TIED_SIZE whether or not
+ * values are tied, normal beyond EXACT_AUTO_SIZE; in between it depends on ties, which no cell shows, so the
+ * row says so.
+ */
+function twoGroupMethod(method: TwoGroupMethod, sizes: readonly SizeTerm[]): BlockValue {
   if (method === "median")
-    return "Mood's median test: each group's values above / not above the pooled median (values equal to it count as not above), Fisher's exact test on that 2×2 table";
-  return `Wilcoxon–Mann–Whitney rank-sum test: exact (conditional on tied mid-ranks) while the two groups hold at most ${EXACT_AUTO_SIZE} numbers together without ties, or ${EXACT_AUTO_TIED_SIZE} with ties; beyond that the normal approximation with tie and continuity corrections`;
+    return text(
+      "Mood's median test: each group's values above / not above the pooled median (values equal to it count as not above), Fisher's exact test on that 2×2 table",
+    );
+  const test = "Wilcoxon–Mann–Whitney rank-sum test";
+  const normal = "the normal approximation with tie and continuity corrections";
+  const tied = EXACT_AUTO_TIED_SIZE.toLocaleString("en-US");
+  const untied = EXACT_AUTO_SIZE.toLocaleString("en-US");
+  return {
+    kind: "bySize",
+    size: sizes,
+    steps: [
+      {
+        atMost: EXACT_AUTO_TIED_SIZE,
+        text: `${test}, exact (conditional on tied mid-ranks), as the two groups hold at most ${tied} numbers together`,
+      },
+      {
+        atMost: EXACT_AUTO_SIZE,
+        text: `${test}: exact if no two of the numbers are equal, otherwise ${normal}, as the two groups hold more than ${tied} numbers together (exact with ties up to ${tied}) and at most ${untied}`,
+      },
+    ],
+    otherwise: `${test}, ${normal}, as the two groups hold more than ${untied} numbers together`,
+  };
 }
 
 /** The decision row: reject or keep H0 at the block's alpha, saying in words what the evidence is for. */
@@ -741,7 +777,12 @@ function twoGroupRows(request: BlockRequest): BlockRow[] {
     row("h1", "H1", text(words.h1), "text"),
     ...(labels ? labeledSummaryRows(request, labels) : twoRangeSummaryRows(request)),
     row("pvalue", "p-value", pValue, "pvalue"),
-    row("method", "Method", text(twoGroupMethodWords(method)), "text"),
+    row(
+      "method",
+      "Method",
+      twoGroupMethod(method, labels ? [labeledCount(labels.first), labeledCount(labels.second)] : TWO_RANGE_COUNTS),
+      "text",
+    ),
     decisionRow(request, pValue, words.keep),
     row("estimate", `Shift estimate, ${secondName} − ${first} (Hodges–Lehmann: median of all differences)`, shift(1), "number"),
     row("lower", `${level} bounds for the shift: lower`, shift(2), "number"),
@@ -771,8 +812,8 @@ function twoGroupRows(request: BlockRequest): BlockRow[] {
 function twoRangeSummaryRows(request: BlockRequest): BlockRow[] {
   const { first, second: secondName } = groupNames(request);
   return [
-    row("firstNumbers", `Numbers in ${first} (n)`, { kind: "numbers", of: "data" }, "integer"),
-    row("secondNumbers", `Numbers in ${secondName} (n)`, { kind: "numbers", of: "second" }, "integer"),
+    row("firstNumbers", `Numbers in ${first} (n)`, TWO_RANGE_COUNTS[0], "integer"),
+    row("secondNumbers", `Numbers in ${secondName} (n)`, TWO_RANGE_COUNTS[1], "integer"),
     row("firstSkipped", `Cells skipped in ${first} (text or logical; blanks not counted)`, { kind: "skipped", of: "data" }, "integer"),
     row(
       "secondSkipped",
@@ -792,19 +833,31 @@ function twoRangeSummaryRows(request: BlockRequest): BlockRow[] {
  * with MATCH, so edits that change which label appears first cannot swap them), the cells skipped in the
  * values column, and the blank check of the values column.
  */
+/** A cell of the row of BYGROUP's table (values and labels) that carries a group's label. */
+function byGroupCell(label: string | number, column: number): CallValue {
+  return { ...call("BYGROUP", [data(), second()], column), rowLabel: label };
+}
+
+/** A labelled group's count of numbers: column 2 of its row of BYGROUP's table. */
+function labeledCount(label: string | number): CallValue {
+  return byGroupCell(label, 2);
+}
+
+/** The two ranges' counts of numbers. */
+const TWO_RANGE_COUNTS: readonly SizeTerm[] = [
+  { kind: "numbers", of: "data" },
+  { kind: "numbers", of: "second" },
+];
+
 function labeledSummaryRows(request: BlockRequest, labels: GroupLabels): BlockRow[] {
   const { first, second: secondName } = groupNames(request);
-  const table = (label: string | number, column: number): CallValue => ({
-    ...call("BYGROUP", [data(), second()], column),
-    rowLabel: label,
-  });
   return [
-    row("firstNumbers", `Numbers in ${first} (n)`, table(labels.first, 2), "integer"),
-    row("secondNumbers", `Numbers in ${secondName} (n)`, table(labels.second, 2), "integer"),
+    row("firstNumbers", `Numbers in ${first} (n)`, labeledCount(labels.first), "integer"),
+    row("secondNumbers", `Numbers in ${secondName} (n)`, labeledCount(labels.second), "integer"),
     row("firstSkipped", "Cells skipped in the values (text or logical; blanks not counted)", { kind: "skipped", of: "data" }, "integer"),
     blankCheckRow(["data"]),
-    row("firstMedian", `Median of ${first}`, table(labels.first, 3), "number"),
-    row("secondMedian", `Median of ${secondName}`, table(labels.second, 3), "number"),
+    row("firstMedian", `Median of ${first}`, byGroupCell(labels.first, 3), "number"),
+    row("secondMedian", `Median of ${secondName}`, byGroupCell(labels.second, 3), "number"),
   ];
 }
 
@@ -1116,8 +1169,16 @@ export function blockFormula(value: BlockValue, refs: FormulaRefs): string {
       return `=${value.terms.map((term) => formulaCall(term, refs)).join("+")}`;
     case "decision":
       return `=IF(${formulaCall(value.pValue, refs)}<=${formulaNumber(value.alpha)},${formulaString(value.reject)},${formulaString(value.keep)})`;
-    case "atMost":
-      return `=IF(${formulaCall(value.value, refs)}<=${formulaNumber(value.limit)},${formulaString(value.then)},${formulaString(value.otherwise)})`;
+    case "bySize": {
+      const size = value.size.map((term) =>
+        term.kind === "call" ? formulaCall(term, refs) : `COUNT(${formulaOperand({ ref: term.of }, refs)})`,
+      );
+      const sized = size.length === 1 ? size[0] : `(${size.join("+")})`;
+      return `=${value.steps.reduceRight(
+        (otherwise, step) => `IF(${sized}<=${formulaNumber(step.atMost)},${formulaString(step.text)},${otherwise})`,
+        formulaString(value.otherwise),
+      )}`;
+    }
     case "blankCheck": {
       const sheetCount = `COUNT(${value.ranges.map((range) => formulaOperand({ ref: range }, refs)).join(",")})`;
       const read = value.read.map((term) => formulaCall(term, refs)).join("+");
@@ -1328,10 +1389,14 @@ export function blockValue(value: BlockValue, inputs: BlockInputs, run: Catalogu
       if (typeof p !== "number") return p;
       return p <= value.alpha ? value.reject : value.keep;
     }
-    case "atMost": {
-      const x = evaluateCall(value.value, inputs, run);
-      if (typeof x !== "number") return x;
-      return x <= value.limit ? value.then : value.otherwise;
+    case "bySize": {
+      let size = 0;
+      for (const term of value.size) {
+        const part = term.kind === "call" ? evaluateCall(term, inputs, run) : countCells(rangeOf(term.of, inputs), isNumberCell);
+        if (typeof part !== "number") return part;
+        size += part;
+      }
+      return value.steps.find((step) => size <= step.atMost)?.text ?? value.otherwise;
     }
     case "blankCheck":
       return blankCheck(value, inputs, run);
