@@ -107,7 +107,7 @@ describe("the two-group block's method row states the method the rank-sum p-valu
   /** An invented group of n readings from `start` in steps of 0.01; with `tied`, every reading twice. */
   const group = (n: number, start: number, tied: boolean): number[][] =>
     Array.from({ length: n }, (_, i) => [Number((start + (tied ? i >> 1 : i) * 0.01).toFixed(3))]);
-  const methodRow = (request: BlockRequest, first: number[][], second: number[][]): unknown =>
+  const methodRow = (request: BlockRequest, first: unknown[][], second: unknown[][]): unknown =>
     blockValue(resultBlockRows(request).find((r) => r.key === "method")!.value, { data: first, second }, callFunction);
 
   it("exact up to the tied limit, normal beyond the untied one, ties deciding in between, as the core does", () => {
