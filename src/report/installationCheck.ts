@@ -233,6 +233,16 @@ export const REFERENCE_CASES: readonly ReferenceCase[] = [
     source: "Exact arithmetic: every value labelled b exceeds every value labelled A, 1 of the C(7, 3) = 35 equally likely rank patterns",
     tolerance: 1e-15,
   },
+  {
+    id: "two-groups-tied-3-3",
+    what: "Rank-sum test of 1, 2, 2 against 2, 3, 4 (three values tied at 2), exact given the ties, one-sided",
+    fn: "TWOGROUPS",
+    args: [column(1, 2, 2), column(2, 3, 4), 0, "greater"],
+    expected: 3 / 20,
+    source:
+      "Exact arithmetic: mid-ranks 1, 3, 3, 3, 5, 6; the second group's rank sum 3 + 5 + 6 = 14 is the largest possible, reached by 3 of the C(6, 3) = 20 equally likely choices (any one of the three 3s with 5 and 6)",
+    tolerance: 1e-15,
+  },
 ];
 
 function errorCode(value: unknown): string | null {
