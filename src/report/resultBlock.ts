@@ -827,12 +827,6 @@ function twoRangeSummaryRows(request: BlockRequest): BlockRow[] {
   ];
 }
 
-/**
- * The same rows for two groups named in a group column: each group's count and median from the row of
- * BYGROUP's table of the values and labels that carries its label (column 2 the count, 3 the median; found
- * with MATCH, so edits that change which label appears first cannot swap them), the cells skipped in the
- * values column, and the blank check of the values column.
- */
 /** A cell of the row of BYGROUP's table (values and labels) that carries a group's label. */
 function byGroupCell(label: string | number, column: number): CallValue {
   return { ...call("BYGROUP", [data(), second()], column), rowLabel: label };
@@ -849,6 +843,12 @@ const TWO_RANGE_COUNTS: readonly SizeTerm[] = [
   { kind: "numbers", of: "second" },
 ];
 
+/**
+ * The same rows for two groups named in a group column: each group's count and median from the row of
+ * BYGROUP's table of the values and labels that carries its label (column 2 the count, 3 the median; found
+ * with MATCH, so edits that change which label appears first cannot swap them), the cells skipped in the
+ * values column, and the blank check of the values column.
+ */
 function labeledSummaryRows(request: BlockRequest, labels: GroupLabels): BlockRow[] {
   const { first, second: secondName } = groupNames(request);
   return [
