@@ -79,8 +79,8 @@ export function scalar(body: () => number | CellError): number | CellError {
   }
 }
 
-/** A value in a one-row result: a number, an empty end of a one-sided bound, or an error. */
-export type RowCell = number | "" | CellError;
+/** A value in a one-row result: a number, an empty end of a one-sided bound (""), a word (a method's name), or an error. */
+export type RowCell = number | string | CellError;
 
 /**
  * Runs a function body that answers with one row of `width` cells; a failure

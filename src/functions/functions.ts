@@ -967,6 +967,8 @@ const CATALOGUE: Readonly<Record<string, CatalogueFunction>> = {
   BYGROUP: bygroup as CatalogueFunction,
   LABELEDTWOGROUPS: labeledtwogroups as CatalogueFunction,
   LABELEDSHIFT: labeledshift as CatalogueFunction,
+  TWOGROUPSSTATISTIC: twogroupsstatistic as CatalogueFunction,
+  LABELEDTWOGROUPSSTATISTIC: labeledtwogroupsstatistic as CatalogueFunction,
 };
 
 /** Every catalogue id, as registered under the EVENSPLIT namespace. */
@@ -995,7 +997,7 @@ import { summariseGroups, type Missing } from "../stats/byGroup";
 import { groupCells, type GroupedCells } from "../stats/groupedCells";
 import { kruskalWallisTest } from "../stats/kruskalWallis";
 import { moodMedianTest } from "../stats/moodMedian";
-import { rankSumTest } from "../stats/rankSum";
+import { exactSizeLimit, rankSumTest } from "../stats/rankSum";
 import { shiftBounds, shiftEstimate } from "../stats/shiftBounds";
 import { cellError } from "./runtime";
 
@@ -1045,6 +1047,33 @@ export function twogroups(
     const options = twoGroupOptions(shift, alternative, method, at_median);
     return twoGroupPValue(x, groupNumbers("second", second), options);
   });
+}
+
+/**
+ * The rank-sum statistic U of two groups (the pairs in which second − shift exceeds first, a tie counting 1/2) and the method TWOGROUPS' rank-sum p-value uses on them: "exact" or "normal". Returns one row: U, method.
+ * @customfunction TWOGROUPSSTATISTIC
+ * @param first Range with the first group's measurements.
+ * @param second Range with the second group's measurements; any size.
+ * @param [shift] The shift second − first under test; default 0.
+ * @returns One row: U, method.
+ * @helpurl https://localhost:3000/help/twogroupsstatistic.html
+ * @example =EVENSPLIT.TWOGROUPSSTATISTIC(LineA[Thickness], LineB[Thickness]) counts the pairs of panels in which line B's is the thicker and says whether TWOGROUPS' p-value is exact.
+ * @see H. B. Mann and D. R. Whitney (1947), "On a test of whether one of two random variables is stochastically larger than the other", Annals of Mathematical Statistics 18, 50-60.
+ */
+export function twogroupsstatistic(first: unknown[][], second: unknown[][], shift?: unknown): unknown[][] {
+  return oneRow(2, () => {
+    const x = groupNumbers("first", first);
+    const moved = shiftOf(shift);
+    return rankSumRow(x, groupNumbers("second", second), moved);
+  });
+}
+
+/** U and the method the rank-sum p-value uses (rankSum.ts decides it from the size and the ties). */
+function rankSumRow(x: Float64Array, y: Float64Array, moved: number): RowCell[] | CellError {
+  // "normal" gives U and whether values tie without the exact distribution, which U does not need.
+  const result = rankSumTest(x, y, { shift: moved, method: "normal" });
+  if (!result.available) return unavailableError(result);
+  return [result.statistic, x.length + y.length <= exactSizeLimit("auto", result.tiesPresent) ? "exact" : "normal"];
 }
 
 /** The canonical words of a vocabulary. */
@@ -1313,6 +1342,33 @@ export function labeledshift(
     const level = fractionArgument("confidence", confidence, 0.95);
     const pair = labeledPair(values, labels, first_label, second_label);
     return "x" in pair ? shiftRow(pair.x, pair.y, level) : pair;
+  });
+}
+
+/**
+ * The rank-sum statistic U and the method of LABELEDTWOGROUPS' rank-sum p-value, for two groups picked by their labels from a column of values and a column of group labels; the same row as TWOGROUPSSTATISTIC on the two groups' values. Returns one row: U, method.
+ * @customfunction LABELEDTWOGROUPSSTATISTIC
+ * @param values Range with the measurements, such as B2:B200.
+ * @param labels Range with each value's group label beside it, same shape, such as A2:A200. Rows with a blank label are skipped; text labels match ignoring case.
+ * @param first_label Label of the first group as the labels column shows it, such as Line A (in quotes when typed), or a cell holding it.
+ * @param second_label Label of the second group, such as Line B (in quotes when typed), or a cell holding it.
+ * @param [shift] The shift second − first under test; default 0.
+ * @returns One row: U, method.
+ * @helpurl https://localhost:3000/help/labeledtwogroupsstatistic.html
+ * @example =EVENSPLIT.LABELEDTWOGROUPSSTATISTIC(Panels[Thickness], Panels[Line], "Line A", "Line B") counts the pairs of panels in which line B's is the thicker, from one table of panels (Line: an invented column naming each panel's line).
+ * @see H. B. Mann and D. R. Whitney (1947), "On a test of whether one of two random variables is stochastically larger than the other", Annals of Mathematical Statistics 18, 50-60.
+ */
+export function labeledtwogroupsstatistic(
+  values: unknown[][],
+  labels: unknown[][],
+  first_label: unknown,
+  second_label: unknown,
+  shift?: unknown,
+): unknown[][] {
+  return oneRow(2, () => {
+    const moved = shiftOf(shift);
+    const pair = labeledPair(values, labels, first_label, second_label);
+    return "x" in pair ? rankSumRow(pair.x, pair.y, moved) : pair;
   });
 }
 

@@ -243,6 +243,17 @@ export const REFERENCE_CASES: readonly ReferenceCase[] = [
       "Exact arithmetic: mid-ranks 1, 3, 3, 3, 5, 6; the second group's rank sum 3 + 5 + 6 = 14 is the largest possible, reached by 3 of the C(6, 3) = 20 equally likely choices (any one of the three 3s with 5 and 6)",
     tolerance: 1e-15,
   },
+  {
+    id: "two-groups-u-3-3",
+    what: "Rank-sum statistic U of 1, 2, 2 against 2, 3, 4",
+    fn: "TWOGROUPSSTATISTIC",
+    args: [column(1, 2, 2), column(2, 3, 4)],
+    column: 1,
+    expected: 8,
+    source:
+      "Exact arithmetic: pairs in which the second group's value is larger, a tie counting 1/2: 2 beats 1 and ties both 2s (2), 3 and 4 beat all three (3 + 3)",
+    tolerance: 0,
+  },
 ];
 
 function errorCode(value: unknown): string | null {

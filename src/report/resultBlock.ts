@@ -138,9 +138,6 @@ export interface CallValue {
   readonly rowLabel?: string | number;
 }
 
-/** A part of a size a method depends on: a catalogue value, or the count of a range's numbers. */
-export type SizeTerm = CallValue | { readonly kind: "numbers"; readonly of: "data" | "second" };
-
 export type BlockValue =
   | { readonly kind: "text"; readonly text: string }
   | CallValue
@@ -158,16 +155,10 @@ export type BlockValue =
   | { readonly kind: "sum"; readonly terms: readonly CallValue[] }
   | BlankCheckValue
   | { readonly kind: "decision"; readonly pValue: CallValue; readonly alpha: number; readonly reject: string; readonly keep: string }
-  /**
-   * Which method a size led to: the text of the first step whose limit the size (the sum of `size`) is at
-   * most, otherwise the last text.
-   */
-  | {
-      readonly kind: "bySize";
-      readonly size: readonly SizeTerm[];
-      readonly steps: readonly { readonly atMost: number; readonly text: string }[];
-      readonly otherwise: string;
-    }
+  /** One text when a catalogue value is at most a limit, another above it (e.g. which method a size led to). */
+  | { readonly kind: "atMost"; readonly value: CallValue; readonly limit: number; readonly then: string; readonly otherwise: string }
+  /** One text when a catalogue value is a word (compared as the sheet compares text, ignoring case), another otherwise. */
+  | { readonly kind: "whenWord"; readonly value: CallValue; readonly word: string; readonly then: string; readonly otherwise: string }
   /**
    * Cells of the data's first row, added (a pasted count, or below + above). With `blankShows`, a single
    * blank cell shows as empty rather than 0 (a bound the query did not fetch).
@@ -514,9 +505,10 @@ function signedRankMethod(request: BlockRequest, method: SignedRankMethod, zeros
   const nonZero = request.paired ? call("PAIREDCOUNTS", [data(), second(), c], 4) : call("COUNTS", [data(), c], 4);
   const limit = EXACT_AUTO_LIMIT.toLocaleString("en-US");
   return {
-    kind: "bySize",
-    size: [nonZero],
-    steps: [{ atMost: EXACT_AUTO_LIMIT, text: words(`${SIGNED_RANK_EXACT_WORDS}, as there are at most ${limit} non-zero differences`) }],
+    kind: "atMost",
+    value: nonZero,
+    limit: EXACT_AUTO_LIMIT,
+    then: words(`${SIGNED_RANK_EXACT_WORDS}, as there are at most ${limit} non-zero differences`),
     otherwise: words(`${SIGNED_RANK_NORMAL_WORDS}, as there are more than ${limit} non-zero differences`),
   };
 }
@@ -703,35 +695,22 @@ function twoGroupHypotheses(request: BlockRequest, method: TwoGroupMethod): { qu
   };
 }
 
+const MEDIAN_TEST_WORDS =
+  "Mood's median test: each group's values above / not above the pooled median (values equal to it count as not above), Fisher's exact test on that 2×2 table";
+
 /**
- * The method row of a two-group block: the method that ran. For the rank-sum test that depends on how many
- * numbers the two groups hold together, so the row is live: exact up to EXACT_AUTO_TIED_SIZE whether or not
- * values are tied, normal beyond EXACT_AUTO_SIZE; in between it depends on ties, which no cell shows, so the
- * row says so.
+ * The rank-sum method row: the method that ran, as the statistic's second cell names it (TWOGROUPSSTATISTIC
+ * decides it by rankSum.ts's rule: the size, and whether values are tied).
  */
-function twoGroupMethod(method: TwoGroupMethod, sizes: readonly SizeTerm[]): BlockValue {
-  if (method === "median")
-    return text(
-      "Mood's median test: each group's values above / not above the pooled median (values equal to it count as not above), Fisher's exact test on that 2×2 table",
-    );
+function rankSumMethod(methodCell: CallValue): BlockValue {
   const test = "Wilcoxon–Mann–Whitney rank-sum test";
-  const normal = "the normal approximation with tie and continuity corrections";
-  const tied = EXACT_AUTO_TIED_SIZE.toLocaleString("en-US");
-  const untied = EXACT_AUTO_SIZE.toLocaleString("en-US");
+  const sizes = `at most ${EXACT_AUTO_SIZE} numbers together without ties, ${EXACT_AUTO_TIED_SIZE} with ties`;
   return {
-    kind: "bySize",
-    size: sizes,
-    steps: [
-      {
-        atMost: EXACT_AUTO_TIED_SIZE,
-        text: `${test}, exact (conditional on tied mid-ranks), as the two groups hold at most ${tied} numbers together`,
-      },
-      {
-        atMost: EXACT_AUTO_SIZE,
-        text: `${test}: exact if no two of the numbers are equal, otherwise ${normal}, as the two groups hold more than ${tied} numbers together (exact with ties up to ${tied}) and at most ${untied}`,
-      },
-    ],
-    otherwise: `${test}, ${normal}, as the two groups hold more than ${untied} numbers together`,
+    kind: "whenWord",
+    value: methodCell,
+    word: "exact",
+    then: `${test}, exact (conditional on tied mid-ranks), as the groups are small enough for it (${sizes})`,
+    otherwise: `${test}, the normal approximation with tie and continuity corrections, as the groups are too large for the exact distribution (it takes ${sizes})`,
   };
 }
 
@@ -760,6 +739,17 @@ function twoGroupRows(request: BlockRequest): BlockRow[] {
   const pValue = labels
     ? call("LABELEDTWOGROUPS", [data(), second(), ...picked, num(request.center), word(request.alternative), word(method)])
     : call("TWOGROUPS", [data(), second(), num(request.center), word(request.alternative), word(method)]);
+  const statistic = (column: number): CallValue =>
+    labels
+      ? call("LABELEDTWOGROUPSSTATISTIC", [data(), second(), ...picked, num(request.center)], column)
+      : call("TWOGROUPSSTATISTIC", [data(), second(), num(request.center)], column);
+  const rankSum = method === "rank-sum";
+  const uRow = row(
+    "statistic",
+    `Rank-sum statistic U (pairs in which ${secondName} − shift exceeds ${first}; a tie counts ½)`,
+    statistic(1),
+    "number",
+  );
   const shift = (column: number): CallValue =>
     labels
       ? call("LABELEDSHIFT", [data(), second(), ...picked, num(request.confidence)], column)
@@ -776,13 +766,9 @@ function twoGroupRows(request: BlockRequest): BlockRow[] {
     row("h0", "H0", text(words.h0), "text"),
     row("h1", "H1", text(words.h1), "text"),
     ...(labels ? labeledSummaryRows(request, labels) : twoRangeSummaryRows(request)),
+    ...(rankSum ? [uRow] : []),
     row("pvalue", "p-value", pValue, "pvalue"),
-    row(
-      "method",
-      "Method",
-      twoGroupMethod(method, labels ? [labeledCount(labels.first), labeledCount(labels.second)] : TWO_RANGE_COUNTS),
-      "text",
-    ),
+    row("method", "Method", rankSum ? rankSumMethod(statistic(2)) : text(MEDIAN_TEST_WORDS), "text"),
     decisionRow(request, pValue, words.keep),
     row("estimate", `Shift estimate, ${secondName} − ${first} (Hodges–Lehmann: median of all differences)`, shift(1), "number"),
     row("lower", `${level} bounds for the shift: lower`, shift(2), "number"),
@@ -812,8 +798,8 @@ function twoGroupRows(request: BlockRequest): BlockRow[] {
 function twoRangeSummaryRows(request: BlockRequest): BlockRow[] {
   const { first, second: secondName } = groupNames(request);
   return [
-    row("firstNumbers", `Numbers in ${first} (n)`, TWO_RANGE_COUNTS[0], "integer"),
-    row("secondNumbers", `Numbers in ${secondName} (n)`, TWO_RANGE_COUNTS[1], "integer"),
+    row("firstNumbers", `Numbers in ${first} (n)`, { kind: "numbers", of: "data" }, "integer"),
+    row("secondNumbers", `Numbers in ${secondName} (n)`, { kind: "numbers", of: "second" }, "integer"),
     row("firstSkipped", `Cells skipped in ${first} (text or logical; blanks not counted)`, { kind: "skipped", of: "data" }, "integer"),
     row(
       "secondSkipped",
@@ -827,22 +813,6 @@ function twoRangeSummaryRows(request: BlockRequest): BlockRow[] {
   ];
 }
 
-/** A cell of the row of BYGROUP's table (values and labels) that carries a group's label. */
-function byGroupCell(label: string | number, column: number): CallValue {
-  return { ...call("BYGROUP", [data(), second()], column), rowLabel: label };
-}
-
-/** A labelled group's count of numbers: column 2 of its row of BYGROUP's table. */
-function labeledCount(label: string | number): CallValue {
-  return byGroupCell(label, 2);
-}
-
-/** The two ranges' counts of numbers. */
-const TWO_RANGE_COUNTS: readonly SizeTerm[] = [
-  { kind: "numbers", of: "data" },
-  { kind: "numbers", of: "second" },
-];
-
 /**
  * The same rows for two groups named in a group column: each group's count and median from the row of
  * BYGROUP's table of the values and labels that carries its label (column 2 the count, 3 the median; found
@@ -851,13 +821,17 @@ const TWO_RANGE_COUNTS: readonly SizeTerm[] = [
  */
 function labeledSummaryRows(request: BlockRequest, labels: GroupLabels): BlockRow[] {
   const { first, second: secondName } = groupNames(request);
+  const table = (label: string | number, column: number): CallValue => ({
+    ...call("BYGROUP", [data(), second()], column),
+    rowLabel: label,
+  });
   return [
-    row("firstNumbers", `Numbers in ${first} (n)`, labeledCount(labels.first), "integer"),
-    row("secondNumbers", `Numbers in ${secondName} (n)`, labeledCount(labels.second), "integer"),
+    row("firstNumbers", `Numbers in ${first} (n)`, table(labels.first, 2), "integer"),
+    row("secondNumbers", `Numbers in ${secondName} (n)`, table(labels.second, 2), "integer"),
     row("firstSkipped", "Cells skipped in the values (text or logical; blanks not counted)", { kind: "skipped", of: "data" }, "integer"),
     blankCheckRow(["data"]),
-    row("firstMedian", `Median of ${first}`, byGroupCell(labels.first, 3), "number"),
-    row("secondMedian", `Median of ${secondName}`, byGroupCell(labels.second, 3), "number"),
+    row("firstMedian", `Median of ${first}`, table(labels.first, 3), "number"),
+    row("secondMedian", `Median of ${secondName}`, table(labels.second, 3), "number"),
   ];
 }
 
@@ -1169,16 +1143,10 @@ export function blockFormula(value: BlockValue, refs: FormulaRefs): string {
       return `=${value.terms.map((term) => formulaCall(term, refs)).join("+")}`;
     case "decision":
       return `=IF(${formulaCall(value.pValue, refs)}<=${formulaNumber(value.alpha)},${formulaString(value.reject)},${formulaString(value.keep)})`;
-    case "bySize": {
-      const size = value.size.map((term) =>
-        term.kind === "call" ? formulaCall(term, refs) : `COUNT(${formulaOperand({ ref: term.of }, refs)})`,
-      );
-      const sized = size.length === 1 ? size[0] : `(${size.join("+")})`;
-      return `=${value.steps.reduceRight(
-        (otherwise, step) => `IF(${sized}<=${formulaNumber(step.atMost)},${formulaString(step.text)},${otherwise})`,
-        formulaString(value.otherwise),
-      )}`;
-    }
+    case "atMost":
+      return `=IF(${formulaCall(value.value, refs)}<=${formulaNumber(value.limit)},${formulaString(value.then)},${formulaString(value.otherwise)})`;
+    case "whenWord":
+      return `=IF(${formulaCall(value.value, refs)}=${formulaString(value.word)},${formulaString(value.then)},${formulaString(value.otherwise)})`;
     case "blankCheck": {
       const sheetCount = `COUNT(${value.ranges.map((range) => formulaOperand({ ref: range }, refs)).join(",")})`;
       const read = value.read.map((term) => formulaCall(term, refs)).join("+");
@@ -1389,14 +1357,15 @@ export function blockValue(value: BlockValue, inputs: BlockInputs, run: Catalogu
       if (typeof p !== "number") return p;
       return p <= value.alpha ? value.reject : value.keep;
     }
-    case "bySize": {
-      let size = 0;
-      for (const term of value.size) {
-        const part = term.kind === "call" ? evaluateCall(term, inputs, run) : countCells(rangeOf(term.of, inputs), isNumberCell);
-        if (typeof part !== "number") return part;
-        size += part;
-      }
-      return value.steps.find((step) => size <= step.atMost)?.text ?? value.otherwise;
+    case "atMost": {
+      const x = evaluateCall(value.value, inputs, run);
+      if (typeof x !== "number") return x;
+      return x <= value.limit ? value.then : value.otherwise;
+    }
+    case "whenWord": {
+      const x = evaluateCall(value.value, inputs, run);
+      if (typeof x !== "string") return x;
+      return x.toLowerCase() === value.word.toLowerCase() ? value.then : value.otherwise;
     }
     case "blankCheck":
       return blankCheck(value, inputs, run);

@@ -57,6 +57,19 @@ export const EXACT_AUTO_TIED_SIZE = 160;
 export const EXACT_SIZE = 1000;
 export const EXACT_TIED_SIZE = 200;
 
+/**
+ * The largest m + n for which a method request gives the exact p-value, with or without ties (0 for
+ * "normal"): the one rule rankSumTest follows, for callers that state the method without the p-value.
+ *
+ * @example
+ * exactSizeLimit("auto", true); // EXACT_AUTO_TIED_SIZE
+ */
+export function exactSizeLimit(requested: SignedRankMethod, tiesPresent: boolean): number {
+  if (requested === "exact") return tiesPresent ? EXACT_TIED_SIZE : EXACT_SIZE;
+  if (requested === "auto") return tiesPresent ? EXACT_AUTO_TIED_SIZE : EXACT_AUTO_SIZE;
+  return 0;
+}
+
 export interface RankSumResult {
   available: true;
   /** U: pairs in which second − shift exceeds first, ties counting 1/2. */
@@ -222,17 +235,7 @@ export function rankSumTest(
   const expected = (m * n) / 2;
   const variance = ((m * n) / 12) * (total + 1 - ranks.tieSum / (total * (total - 1) || 1));
   const tiesPresent = ranks.tieSum > 0;
-  const limit = tiesPresent
-    ? requestedMethod === "exact"
-      ? EXACT_TIED_SIZE
-      : requestedMethod === "auto"
-        ? EXACT_AUTO_TIED_SIZE
-        : 0
-    : requestedMethod === "exact"
-      ? EXACT_SIZE
-      : requestedMethod === "auto"
-        ? EXACT_AUTO_SIZE
-        : 0;
+  const limit = exactSizeLimit(requestedMethod, tiesPresent);
   const common = {
     available: true as const,
     statistic: u,

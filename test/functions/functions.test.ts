@@ -224,6 +224,7 @@ describe("REPORT and calling by id", () => {
       "HODGESLEHMANN",
       "LABELEDSHIFT",
       "LABELEDTWOGROUPS",
+      "LABELEDTWOGROUPSSTATISTIC",
       "ORDERRANKS",
       "PAIRED",
       "PAIREDBOUNDS",
@@ -247,6 +248,7 @@ describe("REPORT and calling by id", () => {
       "SPRT",
       "STATISTIC",
       "TWOGROUPS",
+      "TWOGROUPSSTATISTIC",
       "WATCHBOUNDS",
       "WATCHPVALUE",
     ]);

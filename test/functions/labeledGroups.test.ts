@@ -1,11 +1,22 @@
 /**
- * LABELEDTWOGROUPS and LABELEDSHIFT: two groups picked by label from one values column and one label column.
+ * LABELEDTWOGROUPS, LABELEDSHIFT and LABELEDTWOGROUPSSTATISTIC: two groups picked by label from one values
+ * column and one label column; and TWOGROUPSSTATISTIC, whose U is checked by exact arithmetic and whose
+ * method word against the core's own choice.
  * The reference is the cell layer's own TWOGROUPS and SHIFT on the two groups split into ranges by hand
  * (exact equality: the same numbers reach the same core), whose numbers test/functions/groups.test.ts and
  * the core's tests check against R 4.2 and enumeration. Label rules are groupCells' (src/stats/groupedCells.ts).
  */
 import { describe, expect, it } from "vitest";
-import { callFunction, labeledshift, labeledtwogroups, shift, twogroups } from "../../src/functions/functions";
+import {
+  callFunction,
+  labeledshift,
+  labeledtwogroups,
+  labeledtwogroupsstatistic,
+  shift,
+  twogroups,
+  twogroupsstatistic,
+} from "../../src/functions/functions";
+import { rankSumTest } from "../../src/stats/rankSum";
 import { isCellError } from "../../src/functions/runtime";
 
 const col = (v: unknown[]) => v.map((x) => [x]);
@@ -134,5 +145,53 @@ describe("labels the column does not hold, and wrong arguments", () => {
     expectError(labeledtwogroups(col([1, 2]), col(["a"]), "a", "b"), "#VALUE!", /same shape/);
     expectError(labeledtwogroups(values, labels, "Line A", "Line B", null, null, "t-test"), "#VALUE!", /rank-sum/);
     expectError(labeledshift(values, labels, "Line A", "Line B", 95)[0][0], "#VALUE!", /confidence/);
+  });
+});
+
+describe("TWOGROUPSSTATISTIC: U and the method TWOGROUPS' rank-sum p-value uses", () => {
+  it("counts the pairs in which second − shift exceeds first, a tie counting 1/2 (exact arithmetic)", () => {
+    // 1, 2, 2 against 2, 3, 4: second's 2 beats 1 and ties two 2s (2), 3 and 4 beat all three (6): U = 8.
+    expect(twogroupsstatistic(col([1, 2, 2]), col([2, 3, 4]))).toEqual([[8, "exact"]]);
+    // With shift 1 the second group becomes 1, 2, 3: 1 ties 1 (0.5), 2 beats 1 and ties two 2s (2), 3 beats all (3).
+    expect(twogroupsstatistic(col([1, 2, 2]), col([2, 3, 4]), 1)).toEqual([[5.5, "exact"]]);
+  });
+
+  it("names the method TWOGROUPS used, on both sides of each size limit, with and without ties", () => {
+    // Invented readings: distinct in steps of 0.01, or each twice (ties).
+    const group = (n: number, start: number, tied: boolean) =>
+      col(Array.from({ length: n }, (_, i) => Number((start + (tied ? i >> 1 : i) * 0.01).toFixed(3))));
+    for (const [m, n, tied] of [
+      [80, 80, true],
+      [81, 80, true],
+      [81, 80, false],
+      [200, 200, false],
+      [201, 200, false],
+    ] as const) {
+      const first = group(m, 50, tied);
+      const second = group(n, 50.005, tied);
+      const core = rankSumTest(first.flat() as number[], second.flat() as number[]);
+      expect(core.available).toBe(true);
+      if (!core.available) continue;
+      expect(twogroupsstatistic(first, second), `${m} + ${n}, ties ${tied}`).toEqual([[core.statistic, core.method]]);
+    }
+  });
+
+  it("answers #N/A in both cells for an empty group, and #VALUE! for a bad shift", () => {
+    const [row] = twogroupsstatistic(col(["x"]), col([1, 2]));
+    for (const cell of row) expectError(cell, "#N/A", /first has 0/);
+    const [bad] = twogroupsstatistic(col([1]), col([2]), "up");
+    for (const cell of bad) expectError(cell, "#VALUE!", /shift/);
+  });
+});
+
+describe("LABELEDTWOGROUPSSTATISTIC is TWOGROUPSSTATISTIC on the two labels' values", () => {
+  it.each([null, 1.5])("shift %s", (moved) => {
+    expect(labeledtwogroupsstatistic(values, labels, "Line A", "Line B", moved)).toEqual(twogroupsstatistic(lineA, lineB, moved));
+    expect(labeledtwogroupsstatistic(values, labels, "line b", "LINE A", moved)).toEqual(twogroupsstatistic(lineB, lineA, moved));
+  });
+
+  it("answers #N/A naming a label that is not there, in both cells", () => {
+    const [row] = labeledtwogroupsstatistic(values, labels, "Line A", "Line D");
+    for (const cell of row) expectError(cell, "#N/A", /Line D/);
   });
 });

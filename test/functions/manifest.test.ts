@@ -170,6 +170,8 @@ describe("manifest.xml", () => {
         "BYGROUP",
         "LABELEDTWOGROUPS",
         "LABELEDSHIFT",
+        "TWOGROUPSSTATISTIC",
+        "LABELEDTWOGROUPSSTATISTIC",
         "COUNTPVALUE",
         "ORDERRANKS",
       ]),

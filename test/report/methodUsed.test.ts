@@ -3,9 +3,8 @@
  * the p-value actually used (under "auto": exact up to EXACT_AUTO_LIMIT
  * non-zero differences, the normal approximation beyond), and a one-sided
  * question gets the one-sided Hodges–Lehmann bound, as the sign test's block does.
- * The two-group block's rank-sum row does the same by the groups' size: exact up
- * to EXACT_AUTO_TIED_SIZE numbers together, normal beyond EXACT_AUTO_SIZE, and in
- * between it says that ties decide.
+ * The two-group block's rank-sum row does the same from TWOGROUPSSTATISTIC's
+ * second cell, which names the method rankSum.ts chose from the size and the ties.
  */
 import { beforeAll, describe, expect, it } from "vitest";
 import type { CustomFunction } from "../../src/demo/formula/evaluate";
@@ -107,10 +106,10 @@ describe("the two-group block's method row states the method the rank-sum p-valu
   /** An invented group of n readings from `start` in steps of 0.01; with `tied`, every reading twice. */
   const group = (n: number, start: number, tied: boolean): number[][] =>
     Array.from({ length: n }, (_, i) => [Number((start + (tied ? i >> 1 : i) * 0.01).toFixed(3))]);
-  const methodRow = (request: BlockRequest, first: unknown[][], second: unknown[][]): unknown =>
-    blockValue(resultBlockRows(request).find((r) => r.key === "method")!.value, { data: first, second }, callFunction);
+  const rowValue = (request: BlockRequest, key: string, first: unknown[][], second: unknown[][]): unknown =>
+    blockValue(resultBlockRows(request).find((r) => r.key === key)!.value, { data: first, second }, callFunction);
 
-  it("exact up to the tied limit, normal beyond the untied one, ties deciding in between, as the core does", () => {
+  it("says exact or normal as the core chose, on both sides of each size limit, with and without ties, and gives U", () => {
     const tiedLimit = EXACT_AUTO_TIED_SIZE;
     for (const [m, n, tied] of [
       [tiedLimit / 2, tiedLimit / 2, true],
@@ -122,53 +121,57 @@ describe("the two-group block's method row states the method the rank-sum p-valu
       const first = group(m, 50, tied);
       const second = group(n, 50.005, tied);
       const core = rankSumTest(first.flat(), second.flat());
-      const words = methodRow(TWO, first, second);
-      const total = m + n;
       expect(core.available && core.tiesPresent, `${m} + ${n}`).toBe(tied);
-      if (total <= tiedLimit) {
-        expect(words).toBe(
-          `Wilcoxon–Mann–Whitney rank-sum test, exact (conditional on tied mid-ranks), as the two groups hold at most ${tiedLimit} numbers together`,
-        );
-        expect(core.available && core.method).toBe("exact");
-      } else if (total <= EXACT_AUTO_SIZE) {
-        expect(words).toMatch(/: exact if no two of the numbers are equal, otherwise the normal approximation/);
-        expect(core.available && core.method).toBe(tied ? "normal" : "exact");
-      } else {
-        expect(words).toMatch(
-          /, the normal approximation with tie and continuity corrections, as the two groups hold more than 400 numbers/,
-        );
-        expect(core.available && core.method).toBe("normal");
-      }
+      if (!core.available) continue;
+      const words = rowValue(TWO, "method", first, second);
+      expect(words, `${m} + ${n}, ties ${tied}`).toMatch(
+        core.method === "exact"
+          ? /^Wilcoxon–Mann–Whitney rank-sum test, exact \(conditional on tied mid-ranks\), as the groups are small enough/
+          : /^Wilcoxon–Mann–Whitney rank-sum test, the normal approximation with tie and continuity corrections, as the groups are too large/,
+      );
+      expect(rowValue(TWO, "statistic", first, second)).toBe(core.statistic);
     }
   });
 
   it("is a formula the demo sheet evaluates to the same words, for two ranges and for labelled groups", () => {
-    const first = group(EXACT_AUTO_SIZE / 2 + 1, 50, false);
-    const second = group(EXACT_AUTO_SIZE / 2, 50.005, false);
-    const rows = first.length + second.length;
-    const workbook = new Workbook(["Lines"]);
-    // Columns A and B: the two ranges; C and D: the same values with a label column.
-    workbook.writeEntries("Lines", 0, 0, [["Old"], ...first]);
-    workbook.writeEntries("Lines", 0, 1, [["New"], ...second]);
-    const labelled = [...first.map(([v]) => [v, "old"]), ...second.map(([v]) => [v, "new"])];
-    workbook.writeEntries("Lines", 0, 2, [["Thickness", "Line"], ...labelled]);
-    workbook.setFunctions(functions);
-    const ranges = { data: `$A$2:$A$${first.length + 1}`, second: `$B$2:$B$${second.length + 1}` };
-    const byLabel: BlockRequest = { ...TWO, groupLabels: { first: "old", second: "new" } };
-    const columns = { data: `$C$2:$C$${rows + 1}`, second: `$D$2:$D$${rows + 1}` };
-    const formulaOf = (request: BlockRequest, refs: { data: string; second: string }): string =>
-      blockFormula(resultBlockRows(request).find((r) => r.key === "method")!.value, refs);
-    workbook.writeEntries("Lines", 0, 5, [[formulaOf(TWO, ranges)], [formulaOf(byLabel, columns)]]);
-    const direct = methodRow(TWO, first, second);
-    expect(direct).toMatch(/, the normal approximation .*more than 400 numbers together$/);
-    expect(workbook.value("Lines", 0, 5)).toBe(direct);
-    expect(workbook.value("Lines", 1, 5)).toBe(direct);
-    expect(
-      methodRow(
-        byLabel,
-        labelled.map(([v]) => [v]),
-        labelled.map(([, label]) => [label]),
-      ),
-    ).toBe(direct);
+    for (const [m, n, tied] of [
+      [EXACT_AUTO_TIED_SIZE / 2 + 1, EXACT_AUTO_TIED_SIZE / 2, true],
+      [EXACT_AUTO_TIED_SIZE / 2 + 1, EXACT_AUTO_TIED_SIZE / 2, false],
+    ] as const) {
+      const first = group(m, 50, tied);
+      const second = group(n, 50.005, tied);
+      const rows = first.length + second.length;
+      const workbook = new Workbook(["Lines"]);
+      // Columns A and B: the two ranges; C and D: the same values with a label column.
+      workbook.writeEntries("Lines", 0, 0, [["Old"], ...first]);
+      workbook.writeEntries("Lines", 0, 1, [["New"], ...second]);
+      const labelled = [...first.map(([v]) => [v, "old"]), ...second.map(([v]) => [v, "new"])];
+      workbook.writeEntries("Lines", 0, 2, [["Thickness", "Line"], ...labelled]);
+      workbook.setFunctions(functions);
+      const ranges = { data: `$A$2:$A$${first.length + 1}`, second: `$B$2:$B$${second.length + 1}` };
+      const byLabel: BlockRequest = { ...TWO, groupLabels: { first: "old", second: "new" } };
+      const columns = { data: `$C$2:$C$${rows + 1}`, second: `$D$2:$D$${rows + 1}` };
+      const formulaOf = (request: BlockRequest, refs: { data: string; second: string }): string =>
+        blockFormula(resultBlockRows(request).find((r) => r.key === "method")!.value, refs);
+      workbook.writeEntries("Lines", 0, 5, [[formulaOf(TWO, ranges)], [formulaOf(byLabel, columns)]]);
+      const direct = rowValue(TWO, "method", first, second);
+      expect(direct).toMatch(tied ? /normal approximation/ : /, exact /);
+      expect(workbook.value("Lines", 0, 5)).toBe(direct);
+      expect(workbook.value("Lines", 1, 5)).toBe(direct);
+      expect(
+        rowValue(
+          byLabel,
+          "method",
+          labelled.map(([v]) => [v]),
+          labelled.map(([, label]) => [label]),
+        ),
+      ).toBe(direct);
+    }
+  });
+
+  it("states Mood's test plainly, without a rank-sum statistic", () => {
+    const rows = resultBlockRows({ ...TWO, method: "median" });
+    expect(rows.find((r) => r.key === "method")!.value).toMatchObject({ kind: "text", text: expect.stringMatching(/^Mood's median test/) });
+    expect(rows.some((r) => r.key === "statistic")).toBe(false);
   });
 });
