@@ -682,16 +682,13 @@ function twoGroupHypotheses(request: BlockRequest, method: TwoGroupMethod): { qu
       keep: `the ${difference} is ${CLAIM[request.alternative]} ${shiftWords}`,
     };
   }
-  const tends: Readonly<Record<Alternative, string>> = {
-    greater: `${second} tends to lie above ${against}`,
-    less: `${second} tends to lie below ${against}`,
-    "two-sided": `${second} tends to lie above or below ${against}`,
-  };
+  const direction: Readonly<Record<Alternative, string>> = { greater: "above", less: "below", "two-sided": "above or below" };
+  const tends = `${second} tends to lie ${direction[request.alternative]} ${against}`;
   return {
-    question: `Does ${tends[request.alternative]}?`,
+    question: `Does ${second} tend to lie ${direction[request.alternative]} ${against}?`,
     h0: `${second} and ${against} have the same distribution`,
-    h1: tends[request.alternative],
-    keep: tends[request.alternative],
+    h1: tends,
+    keep: tends,
   };
 }
 

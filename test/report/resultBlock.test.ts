@@ -209,3 +209,30 @@ describe("bound labels", () => {
     expect(labels(paired)).toEqual(["95% bounds for the median difference: lower", "95% bounds for the median difference: upper"]);
   });
 });
+
+describe("the two-group block's question and hypotheses", () => {
+  const request: BlockRequest = {
+    test: "two-groups",
+    paired: false,
+    center: 0,
+    alternative: "greater",
+    alpha: 0.05,
+    confidence: 0.95,
+    dataName: "Old supplier",
+    secondName: "New supplier",
+  };
+  const textOf = (r: BlockRequest, key: string): unknown => {
+    const value = resultBlockRows(r).find((row) => row.key === key)!.value;
+    return "text" in value ? value.text : undefined;
+  };
+
+  it.each([
+    ["greater", "above"],
+    ["less", "below"],
+    ["two-sided", "above or below"],
+  ] as const)("%s: asks with “tend” and states H1 with “tends”", (alternative, direction) => {
+    const r = { ...request, alternative };
+    expect(textOf(r, "question")).toBe(`Does New supplier tend to lie ${direction} Old supplier?`);
+    expect(textOf(r, "h1")).toBe(`New supplier tends to lie ${direction} Old supplier`);
+  });
+});
