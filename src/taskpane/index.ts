@@ -34,6 +34,14 @@ function showOutsideExcel(app: HTMLElement): void {
 }
 
 /**
+ * Whether legacy-check.js found this webview too old and said so in the pane: a webview that can still run
+ * this bundle (one lacking only ES2020's built-ins) must not replace that message.
+ */
+function tooOld(app: HTMLElement): boolean {
+  return app.getAttribute("data-unsupported-webview") === "true";
+}
+
+/**
  * Office.js loads Excel's host script (and with it the `Excel` namespace)
  * asynchronously, so `Excel` is only known to be there once `Office.onReady`
  * has said the host is Excel; outside Office, onReady answers at once with no
@@ -41,12 +49,14 @@ function showOutsideExcel(app: HTMLElement): void {
  */
 function start(): void {
   const app = document.getElementById("app");
-  if (!app) return;
+  if (!app || tooOld(app)) return;
   if (typeof Office === "undefined") {
     showOutsideExcel(app);
     return;
   }
   void Office.onReady((info) => {
+    // legacy-check.js may have put up its message since (it waits for the document): leave it.
+    if (tooOld(app)) return;
     if (info.host !== Office.HostType.Excel || typeof Excel === "undefined") {
       showOutsideExcel(app);
       return;

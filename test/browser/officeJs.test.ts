@@ -170,8 +170,30 @@ describe.skipIf(!run)("taskpane.html under the real Office.js", () => {
         get: () => "Mozilla/5.0 (Windows NT 10.0; WOW64; Trident/7.0; .NET4.0C; .NET4.0E; rv:11.0) like Gecko",
       }),
     );
+    // The bundle still runs in Chromium, so whenever Office.onReady answers it must leave the message in place.
+    // Make it answer late, after the document has loaded (it once raced the message and sometimes won).
+    await page.addInitScript(() => {
+      type Late = { onReady: (callback: (info: unknown) => void) => Promise<unknown>; lateReady?: boolean };
+      let office: Late | undefined;
+      Object.defineProperty(window, "Office", {
+        configurable: true,
+        set: (value: Late) => (office = value),
+        // office.js fills in Office.onReady after creating Office, so the answer is delayed when it is first asked for.
+        get: () => {
+          if (office && typeof office.onReady === "function" && !office.lateReady) {
+            const onReady = office.onReady.bind(office);
+            office.onReady = (callback) => onReady((info) => setTimeout(() => callback(info), 300));
+            office.lateReady = true;
+          }
+          return office;
+        },
+      });
+    });
     await page.goto(`${session.origin}/taskpane.html`);
     await page.getByRole("heading", { name: "Evensplit needs a newer Office" }).waitFor();
+    await page.waitForTimeout(1000);
+    expect(await page.getByRole("heading", { name: "Evensplit needs a newer Office" }).isVisible()).toBe(true);
+    expect(await page.getByText("runs inside Excel").count()).toBe(0);
     await page.close();
   });
 
