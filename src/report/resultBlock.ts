@@ -743,7 +743,7 @@ function twoGroupRows(request: BlockRequest): BlockRow[] {
   const rankSum = method === "rank-sum";
   const uRow = row(
     "statistic",
-    `Rank-sum statistic U (pairs in which ${secondName} − shift exceeds ${first}; a tie counts ½)`,
+    `Rank-sum statistic U (pairs in which ${secondName} exceeds ${shiftedWords(request)}; a tie counts ½)`,
     statistic(1),
     "number",
   );
