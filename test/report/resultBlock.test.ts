@@ -211,17 +211,19 @@ describe("bound labels", () => {
   });
 });
 
+/** Old against new supplier's panels (invented), one-sided: the two-group block's request in the tests below. */
+const SUPPLIERS: BlockRequest = {
+  test: "two-groups",
+  paired: false,
+  center: 0,
+  alternative: "greater",
+  alpha: 0.05,
+  confidence: 0.95,
+  dataName: "Old supplier",
+  secondName: "New supplier",
+};
+
 describe("the two-group block's question and hypotheses", () => {
-  const request: BlockRequest = {
-    test: "two-groups",
-    paired: false,
-    center: 0,
-    alternative: "greater",
-    alpha: 0.05,
-    confidence: 0.95,
-    dataName: "Old supplier",
-    secondName: "New supplier",
-  };
   const textOf = (r: BlockRequest, key: string): unknown => {
     const value = resultBlockRows(r).find((row) => row.key === key)!.value;
     return "text" in value ? value.text : undefined;
@@ -232,34 +234,24 @@ describe("the two-group block's question and hypotheses", () => {
     ["less", "below"],
     ["two-sided", "above or below"],
   ] as const)("%s: asks with “tend” and states H1 with “tends”", (alternative, direction) => {
-    const r = { ...request, alternative };
+    const r = { ...SUPPLIERS, alternative };
     expect(textOf(r, "question")).toBe(`Does New supplier tend to lie ${direction} Old supplier?`);
     expect(textOf(r, "h1")).toBe(`New supplier tends to lie ${direction} Old supplier`);
   });
 });
 
 describe("the two-group block's rank-sum statistic row", () => {
-  const base: BlockRequest = {
-    test: "two-groups",
-    paired: false,
-    center: 0,
-    alternative: "greater",
-    alpha: 0.05,
-    confidence: 0.95,
-    dataName: "Old supplier",
-    secondName: "New supplier",
-  };
   const labelOf = (r: BlockRequest): string | undefined => resultBlockRows(r).find((row) => row.key === "statistic")?.label;
 
   it("names the comparison U counts, with the shift when there is one", () => {
-    expect(labelOf(base)).toBe("Rank-sum statistic U (pairs in which New supplier exceeds Old supplier; a tie counts ½)");
-    expect(labelOf({ ...base, center: 0.5 })).toBe(
+    expect(labelOf(SUPPLIERS)).toBe("Rank-sum statistic U (pairs in which New supplier exceeds Old supplier; a tie counts ½)");
+    expect(labelOf({ ...SUPPLIERS, center: 0.5 })).toBe(
       "Rank-sum statistic U (pairs in which New supplier exceeds Old supplier + 0.5; a tie counts ½)",
     );
   });
 
   it("gives U as TWOGROUPSSTATISTIC's first cell: 8 for 1, 2, 2 against 2, 3, 4 (exact arithmetic)", () => {
-    const row = resultBlockRows(base).find((r) => r.key === "statistic")!;
+    const row = resultBlockRows(SUPPLIERS).find((r) => r.key === "statistic")!;
     expect(blockValue(row.value, { data: [[1], [2], [2]], second: [[2], [3], [4]] }, callFunction)).toBe(8);
   });
 });
