@@ -93,6 +93,15 @@ function agree(
   return workbook;
 }
 
+/** The sheet's value of the block row with `key` (the block is written in column H from row 1). */
+function blockCell(workbook: Workbook, request: BlockRequest, key: string): unknown {
+  return workbook.value(
+    GROUPS_SHEET,
+    resultBlockRows(request).findIndex((r) => r.key === key),
+    7,
+  );
+}
+
 describe("two groups: the block's formulas agree with direct evaluation", () => {
   it.each(TWO.map((r) => [`${r.method ?? "rank-sum"} ${r.alternative} shift ${r.center}`, r] as const))("%s", (_, request) => {
     agree(request, { data: "$E$2:$E$12", second: "$F$2:$F$12" }, { data: column(4, 11), second: column(5, 11) });
@@ -101,12 +110,7 @@ describe("two groups: the block's formulas agree with direct evaluation", () => 
   it("gives the hand-counted numbers and medians", () => {
     const request = TWO[0];
     const workbook = agree(request, { data: "$E$2:$E$12", second: "$F$2:$F$12" }, { data: column(4, 11), second: column(5, 11) });
-    const at = (key: string): unknown =>
-      workbook.value(
-        GROUPS_SHEET,
-        resultBlockRows(request).findIndex((r) => r.key === key),
-        7,
-      );
+    const at = (key: string): unknown => blockCell(workbook, request, key);
     // By hand: 9 and 11 panels; sorted old 49.5 ... 51.6 has 50.4 in the middle, new 50.5 ... 52.9 has 51.7.
     expect([at("firstNumbers"), at("secondNumbers"), at("firstMedian"), at("secondMedian")]).toEqual([9, 11, 50.4, 51.7]);
     expect(at("estimate")).toBeTypeOf("number");
@@ -131,12 +135,7 @@ describe("two groups from a group column: the block's formulas agree with direct
     const request = LABELED[0];
     const workbook = agree(request, { data: "$C$2:$C$20", second: "$B$2:$B$20" }, { data: column(2), second: column(1) });
     const rows = resultBlockRows(request);
-    const at = (key: string): unknown =>
-      workbook.value(
-        GROUPS_SHEET,
-        rows.findIndex((r) => r.key === key),
-        7,
-      );
+    const at = (key: string): unknown => blockCell(workbook, request, key);
     // By hand: North 50.8, 51.3, 49.9, 50.5, 51.0, 50.1 (median 50.65); South 52.1, 53.0, 51.7, 52.8, 51.9, 52.5 (median 52.3).
     expect([at("firstNumbers"), at("secondNumbers"), at("firstMedian"), at("secondMedian")]).toEqual([6, 6, 50.65, 52.3]);
     const north = [[50.8], [51.3], [49.9], [50.5], [51.0], [50.1]];
@@ -151,13 +150,7 @@ describe("two groups from a group column: the block's formulas agree with direct
   it("keeps each line's count and median when an edit makes another label come first", () => {
     const request = LABELED[0];
     const workbook = agree(request, { data: "$C$2:$C$20", second: "$B$2:$B$20" }, { data: column(2), second: column(1) });
-    const rows = resultBlockRows(request);
-    const at = (key: string): unknown =>
-      workbook.value(
-        GROUPS_SHEET,
-        rows.findIndex((r) => r.key === key),
-        7,
-      );
+    const at = (key: string): unknown => blockCell(workbook, request, key);
     // Q-201 (50.8) moves from North to South, so South now appears first in the group column.
     workbook.writeEntries(GROUPS_SHEET, 1, 1, [["South"]]);
     // By hand: North 51.3, 49.9, 50.5, 51.0, 50.1 (median 50.5); South 50.8 and its six (median 52.1).
